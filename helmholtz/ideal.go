@@ -1,0 +1,118 @@
+package helmholtz
+
+import (
+	"fmt"
+	"math"
+)
+
+// IdealPower is the ideal-gas term n τ^t.
+type IdealPower struct {
+	N float64 // coefficient n
+	T float64 // exponent t ≠ 0
+}
+
+// PlanckEinstein is the ideal-gas term n ln(1 − exp(−θ τ)), from a
+// vibrational mode of characteristic reduced temperature θ > 0.
+type PlanckEinstein struct {
+	N     float64 // coefficient n
+	Theta float64 // θ
+}
+
+// IdealTerms lists the terms of an ideal-gas Helmholtz energy
+//
+//	α°(δ, τ) = ln δ + A1 + A2 τ + LogTau ln τ + Σ n τ^t + Σ n ln(1 − exp(−θ τ)).
+type IdealTerms struct {
+	A1, A2         float64 // constant and linear terms (they fix the reference state)
+	LogTau         float64 // coefficient of ln τ
+	Power          []IdealPower
+	PlanckEinstein []PlanckEinstein
+}
+
+// Ideal is a compiled ideal-gas Helmholtz energy. It is immutable and safe
+// for concurrent use.
+type Ideal struct {
+	t IdealTerms
+}
+
+// NewIdeal compiles the terms t. It returns an error for a non-finite
+// coefficient, t = 0 in a power term or θ ≤ 0.
+func NewIdeal(t IdealTerms) (*Ideal, error) {
+	if !finite(t.A1, t.A2, t.LogTau) {
+		return nil, fmt.Errorf("helmholtz: ideal-gas constants %g %g %g not finite", t.A1, t.A2, t.LogTau)
+	}
+	for _, p := range t.Power {
+		if !finite(p.N, p.T) || p.T == 0 {
+			return nil, fmt.Errorf("helmholtz: ideal-gas power term %+v out of range", p)
+		}
+	}
+	for _, p := range t.PlanckEinstein {
+		if !finite(p.N, p.Theta) || p.Theta <= 0 {
+			return nil, fmt.Errorf("helmholtz: Planck–Einstein term %+v out of range", p)
+		}
+	}
+	c := t
+	c.Power = append([]IdealPower(nil), t.Power...)
+	c.PlanckEinstein = append([]PlanckEinstein(nil), t.PlanckEinstein...)
+	return &Ideal{t: c}, nil
+}
+
+// MustNewIdeal is like NewIdeal but panics on error, for package-level
+// tables of published coefficients.
+func MustNewIdeal(t IdealTerms) *Ideal {
+	id, err := NewIdeal(t)
+	if err != nil {
+		panic(err)
+	}
+	return id
+}
+
+// Terms returns a copy of the terms id was compiled from.
+func (id *Ideal) Terms() IdealTerms {
+	c := id.t
+	c.Power = append([]IdealPower(nil), id.t.Power...)
+	c.PlanckEinstein = append([]PlanckEinstein(nil), id.t.PlanckEinstein...)
+	return c
+}
+
+// Eval returns α° and its derivatives at (δ, τ), δ > 0, τ > 0. The mixed
+// derivative is zero, and the δ-derivatives are those of ln δ.
+func (id *Ideal) Eval(delta, tau float64) Derivs {
+	d := Derivs{
+		A:   math.Log(delta) + id.t.A1 + id.t.A2*tau,
+		D:   1 / delta,
+		DD:  -1 / (delta * delta),
+		DDD: 2 / (delta * delta * delta),
+	}
+	a, t1, t2 := id.EvalTau(tau)
+	d.A += a
+	d.T = id.t.A2 + t1
+	d.TT = t2
+	return d
+}
+
+// EvalTau returns the τ-dependent part of α° without ln δ + A1 + A2 τ, and
+// the first and second τ-derivatives of α° (the linear term included in the
+// first).
+func (id *Ideal) EvalTau(tau float64) (a, t1, t2 float64) {
+	if id.t.LogTau != 0 {
+		a = id.t.LogTau * math.Log(tau)
+		t1 = id.t.LogTau / tau
+		t2 = -id.t.LogTau / (tau * tau)
+	}
+	for _, p := range id.t.Power {
+		v := p.N * math.Pow(tau, p.T)
+		a += v
+		t1 += v * p.T / tau
+		t2 += v * p.T * (p.T - 1) / (tau * tau)
+	}
+	for _, p := range id.t.PlanckEinstein {
+		x := p.Theta * tau
+		e := math.Exp(-x)
+		om := -math.Expm1(-x) // 1 − e^(−x), exact for small x
+		a += p.N * math.Log(om)
+		r := e / om
+		t1 += p.N * p.Theta * r
+		t2 -= p.N * p.Theta * p.Theta * r / om
+	}
+	return a, t1, t2
+}
