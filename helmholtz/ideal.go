@@ -108,7 +108,10 @@ func (id *Ideal) EvalTau(tau float64) (a, t1, t2 float64) {
 	for _, p := range id.t.PlanckEinstein {
 		x := p.Theta * tau
 		e := math.Exp(-x)
-		om := -math.Expm1(-x) // 1 − e^(−x), exact for small x
+		om := 1 - e // 1 − e^(−x), to rounding for x ≥ ln 2
+		if x < math.Ln2 {
+			om = -math.Expm1(-x)
+		}
 		a += p.N * math.Log(om)
 		r := e / om
 		t1 += p.N * p.Theta * r

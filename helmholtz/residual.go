@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"sort"
 )
 
 // Power is the residual term n δ^d τ^t.
@@ -63,95 +64,124 @@ type ResidualTerms struct {
 	NonAnalytic []NonAnalytic
 }
 
-// Limits of the power tables a Residual evaluates by multiplication.
+// Limits of the tables a Residual evaluates by multiplication.
 const (
 	maxDeltaPow = 23 // largest δ exponent d or c
-	maxTauPow   = 63 // largest integer τ exponent t
-	maxNonInt   = 16 // largest number of distinct non-integer τ exponents
+	maxNonInt   = 16 // largest number of distinct exponents outside the power tables
 	maxExpC     = 8  // c of exp(−δ^c) is at most maxExpC−1
 )
 
-// polyTerm is a Power (c = 0) or Exponential term, compiled.
+// polyGroup is the set of Power (c = 0) or Exponential terms that share d
+// and c: they share every δ factor, so only Σ n τ^t and its τ-derivatives
+// are summed term by term.
+type polyGroup struct {
+	d, c   int
+	lo, hi int // terms[lo:hi]
+}
+
+// polyTerm is the τ part of one Power or Exponential term.
 type polyTerm struct {
-	n    float64
-	t    float64
-	d, c int
-	// ti indexes the τ-power table: ti ≥ 0 is the integer power ti,
-	// ti < 0 is the non-integer exponent nonInt[−ti−1].
-	ti int
+	n, t, tt1 float64 // n, t and t(t−1)
+	ix        tauIndex
 }
 
 // Residual is a compiled residual Helmholtz energy αʳ(δ, τ). It is
 // immutable and safe for concurrent use. The zero value is αʳ ≡ 0.
+//
+// Evaluation groups the polynomial and exponential terms by (d, c), so
+// that each exp(−δ^c) is computed once; takes integer powers by
+// multiplication and the non-integer powers of τ from square roots of τ
+// where the exponents share a power-of-two denominator; and shares the
+// distance function Δ and its logarithm between nonanalytic terms of the
+// same shape.
 type Residual struct {
-	poly   []polyTerm
-	nonInt []float64 // distinct non-integer τ exponents
-	maxT   int       // largest integer τ power in use
-	maxD   int       // largest δ power in use
+	groups []polyGroup
+	terms  []polyTerm
+	tp     tauPowers
+	maxD   int
 	gauss  []Gaussian
+	gix    []tauIndex // τ-power index of each Gaussian term
 	na     []NonAnalytic
+	na2a   []int // 2a of each nonanalytic term when an integer, else −1
 }
 
 // NewResidual compiles the terms t. It returns an error if a term has an
 // exponent outside the ranges stated on the term types or a non-finite
 // parameter.
 func NewResidual(t ResidualTerms) (*Residual, error) {
-	r := &Residual{}
-	add := func(n float64, d int, tt float64, c int) error {
-		if !finite(n, tt) || d < 1 || d > maxDeltaPow || c < 0 || c >= maxExpC {
-			return fmt.Errorf("helmholtz: term n=%g d=%d t=%g c=%d out of range", n, d, tt, c)
-		}
-		pt := polyTerm{n: n, t: tt, d: d, c: c}
-		if tt == math.Trunc(tt) && tt >= 0 && tt <= maxTauPow {
-			pt.ti = int(tt)
-			r.maxT = max(r.maxT, pt.ti)
-		} else {
-			k := -1
-			for i, e := range r.nonInt {
-				if e == tt {
-					k = i
-				}
-			}
-			if k < 0 {
-				if len(r.nonInt) == maxNonInt {
-					return errors.New("helmholtz: too many distinct non-integer exponents")
-				}
-				r.nonInt = append(r.nonInt, tt)
-				k = len(r.nonInt) - 1
-			}
-			pt.ti = -k - 1
-		}
-		r.maxD = max(r.maxD, d, c)
-		r.poly = append(r.poly, pt)
-		return nil
+	type raw struct {
+		n, t float64
+		d, c int
 	}
+	var all []raw
 	for _, p := range t.Power {
-		if err := add(p.N, p.D, p.T, 0); err != nil {
-			return nil, err
-		}
+		all = append(all, raw{p.N, p.T, p.D, 0})
 	}
 	for _, e := range t.Exponential {
 		if e.C < 1 {
 			return nil, fmt.Errorf("helmholtz: exponential term with c=%d < 1", e.C)
 		}
-		if err := add(e.N, e.D, e.T, e.C); err != nil {
-			return nil, err
+		all = append(all, raw{e.N, e.T, e.D, e.C})
+	}
+	r := &Residual{}
+	var exps []float64
+	for _, p := range all {
+		if !finite(p.n, p.t) || p.d < 1 || p.d > maxDeltaPow || p.c < 0 || p.c >= maxExpC {
+			return nil, fmt.Errorf("helmholtz: term n=%g d=%d t=%g c=%d out of range", p.n, p.d, p.t, p.c)
 		}
+		r.maxD = max(r.maxD, p.d, p.c)
+		exps = append(exps, p.t)
 	}
 	for _, g := range t.Gaussian {
 		if !finite(g.N, g.T, g.Alpha, g.Beta, g.Gamma, g.Epsilon) || g.D < 1 || g.D > maxDeltaPow {
 			return nil, fmt.Errorf("helmholtz: Gaussian term %+v out of range", g)
 		}
 		r.maxD = max(r.maxD, g.D)
+		exps = append(exps, g.T)
 	}
-	r.gauss = append(r.gauss, t.Gaussian...)
 	for _, q := range t.NonAnalytic {
 		if !finite(q.N, q.SmallA, q.SmallB, q.A, q.B, q.C, q.D, q.Beta) ||
 			q.SmallA <= 1.5 || q.Beta <= 0 || 1/q.Beta <= 3 || q.SmallB <= 0.5 || q.SmallB >= 1 {
 			return nil, fmt.Errorf("helmholtz: nonanalytic term %+v out of range", q)
 		}
 	}
+	tp, idx := newTauPowers(exps)
+	if len(tp.generic) > maxNonInt {
+		return nil, errors.New("helmholtz: too many distinct exponents outside the power tables")
+	}
+	r.tp = tp
+	// Group polynomial terms by (c, d), keeping the published order within
+	// a group.
+	order := make([]int, len(all))
+	for i := range order {
+		order[i] = i
+	}
+	sort.SliceStable(order, func(a, b int) bool {
+		pa, pb := all[order[a]], all[order[b]]
+		if pa.c != pb.c {
+			return pa.c < pb.c
+		}
+		return pa.d < pb.d
+	})
+	for _, i := range order {
+		p := all[i]
+		if n := len(r.groups); n == 0 || r.groups[n-1].c != p.c || r.groups[n-1].d != p.d {
+			r.groups = append(r.groups, polyGroup{d: p.d, c: p.c, lo: len(r.terms), hi: len(r.terms)})
+		}
+		r.terms = append(r.terms, polyTerm{n: p.n, t: p.t, tt1: p.t * (p.t - 1), ix: idx[i]})
+		r.groups[len(r.groups)-1].hi++
+	}
+	r.gauss = append(r.gauss, t.Gaussian...)
+	r.gix = idx[len(all):]
 	r.na = append(r.na, t.NonAnalytic...)
+	for _, q := range r.na {
+		ta := 2 * q.SmallA
+		if ta == math.Trunc(ta) && ta <= 64 {
+			r.na2a = append(r.na2a, int(ta))
+		} else {
+			r.na2a = append(r.na2a, -1)
+		}
+	}
 	return r, nil
 }
 
@@ -180,75 +210,61 @@ func (r *Residual) HasNonAnalytic() bool { return len(r.na) > 0 }
 // The result for δ ≤ 0 or τ ≤ 0 is unspecified (NaN or ±Inf).
 func (r *Residual) Eval(delta, tau float64) Derivs {
 	var dpow [maxDeltaPow + 1]float64
-	var tpow [maxTauPow + 1]float64
-	var tnon [maxNonInt]float64
-	var expc [maxExpC]float64
-
+	var tb tauTable
 	dpow[0] = 1
 	for k := 1; k <= r.maxD; k++ {
 		dpow[k] = dpow[k-1] * delta
 	}
-	tpow[0] = 1
-	for k := 1; k <= r.maxT; k++ {
-		tpow[k] = tpow[k-1] * tau
-	}
-	if len(r.nonInt) > 0 {
-		lt := math.Log(tau)
-		for i, e := range r.nonInt {
-			tnon[i] = math.Exp(e * lt)
-		}
-	}
-	expc[0] = 1
-	for c := 1; c < maxExpC && c <= r.maxD; c++ {
-		expc[c] = math.NaN() // filled on first use
-	}
+	r.tp.fill(&tb, tau)
 
 	// Scaled sums: a, δα_δ, δ²α_δδ, δ³α_δδδ, τα_τ, τ²α_ττ, δτα_δτ.
 	var a, d1, d2, d3, t1, t2, dt float64
-	for i := range r.poly {
-		p := &r.poly[i]
-		var tp float64
-		if p.ti >= 0 {
-			tp = tpow[p.ti]
-		} else {
-			tp = tnon[-p.ti-1]
+	lastC, e := 0, 1.0
+	for gi := range r.groups {
+		g := &r.groups[gi]
+		var s0, s1, s2 float64
+		for _, p := range r.terms[g.lo:g.hi] {
+			v := p.n * tb.pow(p.ix)
+			s0 += v
+			s1 += v * p.t
+			s2 += v * p.tt1
 		}
-		v := p.n * dpow[p.d] * tp
-		fd := float64(p.d)
+		fd := float64(g.d)
+		w := dpow[g.d]
 		var p1, p2, p3 float64
-		if p.c == 0 {
+		if g.c == 0 {
 			p1, p2, p3 = fd, fd*fd, fd*fd*fd
 		} else {
-			e := expc[p.c]
-			if e != e { // NaN: not yet computed
-				e = math.Exp(-dpow[p.c])
-				expc[p.c] = e
+			u := dpow[g.c]
+			if g.c != lastC {
+				lastC, e = g.c, math.Exp(-u)
 			}
-			v *= e
-			fc := float64(p.c)
-			u := dpow[p.c]
+			w *= e
+			fc := float64(g.c)
 			p1 = fd - fc*u
 			p2 = p1*p1 - fc*fc*u
 			p3 = p2*p1 - fc*fc*u*(fc+2*p1)
 		}
-		a += v
-		d1 += v * p1
-		d2 += v * (p2 - p1)
-		d3 += v * (p3 - 3*p2 + 2*p1)
-		t1 += v * p.t
-		t2 += v * p.t * (p.t - 1)
-		dt += v * p1 * p.t
+		ws0 := w * s0
+		a += ws0
+		d1 += ws0 * p1
+		d2 += ws0 * (p2 - p1)
+		d3 += ws0 * (p3 - 3*p2 + 2*p1)
+		t1 += w * s1
+		t2 += w * s2
+		dt += w * s1 * p1
 	}
 	for i := range r.gauss {
 		g := &r.gauss[i]
 		dd := delta - g.Epsilon
 		tt := tau - g.Gamma
-		v := g.N * dpow[g.D] * math.Pow(tau, g.T) * math.Exp(-g.Alpha*dd*dd-g.Beta*tt*tt)
+		v := g.N * dpow[g.D] * tb.pow(r.gix[i]) * math.Exp(-g.Alpha*dd*dd-g.Beta*tt*tt)
 		fd := float64(g.D)
 		// δ f'/f, δ²f''/f, δ³f'''/f for f = δ^d exp(−α(δ−ε)²); likewise in τ.
+		ad2 := 2 * g.Alpha * delta * delta
 		q1 := fd - 2*g.Alpha*delta*dd
-		q2 := q1*q1 - fd - 2*g.Alpha*delta*delta
-		q3 := q1*q1*q1 + 3*q1*(-fd-2*g.Alpha*delta*delta) + 2*fd
+		q2 := q1*q1 - fd - ad2
+		q3 := q1*q1*q1 - 3*q1*(fd+ad2) + 2*fd
 		k1 := g.T - 2*g.Beta*tau*tt
 		k2 := k1*k1 - g.T - 2*g.Beta*tau*tau
 		a += v
@@ -277,6 +293,10 @@ func (r *Residual) Eval(delta, tau float64) Derivs {
 
 // evalNonAnalytic returns the sum of the nonanalytic terms and their plain
 // derivatives. It is valid at δ = 0 too, where it gives the limits.
+//
+// Consecutive terms of the same shape (β, a, A, B) share θ, Δ and ln Δ,
+// and those with the same (C, D) share ψ, so a family of terms costs one
+// power and one logarithm plus one exponential per term.
 func (r *Residual) evalNonAnalytic(delta, tau float64) Derivs {
 	var out Derivs
 	x := delta - 1
@@ -288,38 +308,62 @@ func (r *Residual) evalNonAnalytic(delta, tau float64) Derivs {
 	y := tau - 1
 	singular := false
 	minB, nMinB := math.Inf(1), 0.0
+
+	// Shape values, reused while the shape repeats.
+	var prev *NonAnalytic
+	var dl, dlx, dlxx, dlxxx, dlt, dlxt, lnDl float64
+	var psi, psix, psixx, psixxx, psit, psitt, psixt float64
 	for i := range r.na {
 		q := &r.na[i]
-		ib := 1 / q.Beta
-		// |x|^(1/β − k) and |x|^(2a − k), k = 0..3; zero at x = 0 since
-		// 1/β > 3 and 2a > 3.
-		var p0, p1, p2, p3, s0, s1, s2, s3 float64
-		if ax > 0 {
-			p0 = math.Pow(ax, ib)
-			p1 = p0 / ax
-			p2 = p1 / ax
-			p3 = p2 / ax
-			s0 = math.Pow(ax, 2*q.SmallA)
-			s1 = s0 / ax
-			s2 = s1 / ax
-			s3 = s2 / ax
+		if prev == nil || q.Beta != prev.Beta || q.SmallA != prev.SmallA || q.A != prev.A || q.B != prev.B {
+			ib := 1 / q.Beta
+			// |x|^(1/β − k) and |x|^(2a − k), k = 0..3; zero at x = 0
+			// since 1/β > 3 and 2a > 3.
+			var p0, p1, p2, p3, s0, s1, s2, s3 float64
+			if ax > 0 {
+				p0 = powBeta(ax, ib)
+				p1 = p0 / ax
+				p2 = p1 / ax
+				p3 = p2 / ax
+				if n := r.na2a[i]; n >= 0 {
+					s0 = ipow(ax, n)
+				} else {
+					s0 = math.Pow(ax, 2*q.SmallA)
+				}
+				s1 = s0 / ax
+				s2 = s1 / ax
+				s3 = s2 / ax
+			}
+			th := -y + q.A*p0
+			thx := q.A * ib * p1 * sx
+			thxx := q.A * ib * (ib - 1) * p2
+			thxxx := q.A * ib * (ib - 1) * (ib - 2) * p3 * sx
+			ta := 2 * q.SmallA
+			dl = th*th + q.B*s0
+			dlx = 2*th*thx + q.B*ta*s1*sx
+			dlxx = 2*thx*thx + 2*th*thxx + q.B*ta*(ta-1)*s2
+			dlxxx = 6*thx*thxx + 2*th*thxxx + q.B*ta*(ta-1)*(ta-2)*s3*sx
+			dlt = -2 * th
+			dlxt = -2 * thx
+			if dl > 0 {
+				lnDl = math.Log(dl)
+			}
 		}
-		th := -y + q.A*p0
-		thx := q.A * ib * p1 * sx
-		thxx := q.A * ib * (ib - 1) * p2
-		thxxx := q.A * ib * (ib - 1) * (ib - 2) * p3 * sx
-		ta := 2 * q.SmallA
-		dl := th*th + q.B*s0
-		dlx := 2*th*thx + q.B*ta*s1*sx
-		dlxx := 2*thx*thx + 2*th*thxx + q.B*ta*(ta-1)*s2
-		dlxxx := 6*thx*thxx + 2*th*thxxx + q.B*ta*(ta-1)*(ta-2)*s3*sx
-		dlt := -2 * th
-		dlxt := -2 * thx
+		if prev == nil || q.C != prev.C || q.D != prev.D {
+			psi = math.Exp(-q.C*x*x - q.D*y*y)
+			psix = -2 * q.C * x * psi
+			psixx = (4*q.C*q.C*x*x - 2*q.C) * psi
+			psixxx = (12*q.C*q.C*x - 8*q.C*q.C*q.C*x*x*x) * psi
+			psit = -2 * q.D * y * psi
+			psitt = (4*q.D*q.D*y*y - 2*q.D) * psi
+			psixt = 4 * q.C * q.D * x * y * psi
+		}
+		prev = q
 
 		b := q.SmallB
 		var f, fx, fxx, fxxx, ft, ftt, fxt float64
 		if dl > 0 {
-			f = math.Pow(dl, b)
+			f = math.Exp(b * lnDl)
 			r1 := dlx / dl
 			rt := dlt / dl
 			rxx := dlxx / dl
@@ -339,14 +383,6 @@ func (r *Residual) evalNonAnalytic(delta, tau float64) Derivs {
 				nMinB += q.N
 			}
 		}
-
-		psi := math.Exp(-q.C*x*x - q.D*y*y)
-		psix := -2 * q.C * x * psi
-		psixx := (4*q.C*q.C*x*x - 2*q.C) * psi
-		psixxx := (12*q.C*q.C*x - 8*q.C*q.C*q.C*x*x*x) * psi
-		psit := -2 * q.D * y * psi
-		psitt := (4*q.D*q.D*y*y - 2*q.D) * psi
-		psixt := 4 * q.C * q.D * x * y * psi
 
 		g := delta * psi
 		gx := psi + delta*psix
@@ -371,22 +407,46 @@ func (r *Residual) evalNonAnalytic(delta, tau float64) Derivs {
 	return out
 }
 
+// powBeta returns x^e for x > 0, with e = 1/β; the published equations
+// have β = 0.3, e = 10/3, where x³·∛x is exact to rounding and several
+// times faster than math.Pow.
+func powBeta(x, e float64) float64 {
+	if e == 10.0/3 {
+		return x * x * x * math.Cbrt(x)
+	}
+	return math.Pow(x, e)
+}
+
+// ipow returns x^n for n ≥ 0 by repeated squaring.
+func ipow(x float64, n int) float64 {
+	p := 1.0
+	for n > 0 {
+		if n&1 != 0 {
+			p *= x
+		}
+		x *= x
+		n >>= 1
+	}
+	return p
+}
+
 // DeltaLimits returns the limits of ∂αʳ/∂δ and ∂²αʳ/∂δ² as δ → 0 at τ.
 // Divided by ρc and ρc², they are the second and third virial
 // coefficients.
 func (r *Residual) DeltaLimits(tau float64) (d, dd float64) {
-	for i := range r.poly {
-		p := &r.poly[i]
-		v := p.n * math.Pow(tau, p.t)
-		// δ^d exp(−δ^c) = δ^d − δ^(d+c) + …
-		if p.d == 1 {
-			d += v
-		}
-		if p.d == 2 {
-			dd += 2 * v
-		}
-		if p.c > 0 && p.d+p.c == 2 {
-			dd -= 2 * v
+	for _, g := range r.groups {
+		for _, p := range r.terms[g.lo:g.hi] {
+			v := p.n * math.Pow(tau, p.t)
+			// δ^d exp(−δ^c) = δ^d − δ^(d+c) + …
+			if g.d == 1 {
+				d += v
+			}
+			if g.d == 2 {
+				dd += 2 * v
+			}
+			if g.c > 0 && g.d+g.c == 2 {
+				dd -= 2 * v
+			}
 		}
 	}
 	for i := range r.gauss {
