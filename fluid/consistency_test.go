@@ -129,6 +129,7 @@ func TestConsistency(t *testing.T) {
 			}
 		}
 	}
+	t.Logf("%d states checked", n)
 	if n < 150 {
 		t.Errorf("only %d states checked", n)
 	}
