@@ -29,22 +29,13 @@ func TestWaterTable6(t *testing.T) {
 		if !ok {
 			t.Fatalf("%s: unknown part %q", row.pos, row.cells["part"])
 		}
-		var got float64
-		switch k := row.cells["derivative"]; k {
-		case "phi":
-			got = d.A
-		case "phi_d":
-			got = d.D
-		case "phi_dd":
-			got = d.DD
-		case "phi_t":
-			got = d.T
-		case "phi_tt":
-			got = d.TT
-		case "phi_dt":
-			got = d.DT
-		default:
-			t.Fatalf("%s: unknown derivative %q", row.pos, k)
+		// The release's names: φ, φ_δ, φ_δδ, φ_τ, φ_ττ, φ_δτ.
+		got, ok := map[string]float64{
+			"phi": d.A, "phi_d": d.D, "phi_dd": d.DD,
+			"phi_t": d.T, "phi_tt": d.TT, "phi_dt": d.DT,
+		}[row.cells["derivative"]]
+		if !ok {
+			t.Fatalf("%s: unknown derivative %q", row.pos, row.cells["derivative"])
 		}
 		seen[row.cells["part"]+" "+row.cells["derivative"]] = true
 		checkPrinted(t, row, "value", got)
