@@ -175,6 +175,11 @@ func (f *Fluid) fromDerivs(T, rho, delta, tau float64, i, r *helmholtz.Derivs) P
 // B in m³/kg and C in m⁶/kg², from the limits of the residual part as
 // ρ → 0: B = lim αʳ_δ/ρc, C = lim αʳ_δδ/ρc². In molar units multiply by the
 // molar mass (B) and its square (C).
+//
+// Special cases are:
+//
+//	T NaN, ±Inf or ≤ 0: error wrapping ErrInvalidInput
+//	T outside TFloor..TCeil (see Limits): ErrOutOfRange
 func (f *Fluid) Virial(T float64) (B, C float64, err error) {
 	// Validated on its own: the error must not name a density the caller
 	// did not give.
