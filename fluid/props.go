@@ -72,7 +72,7 @@ func (f *Fluid) checkTRho(op string, T, rho float64) error {
 	}
 	l := &f.limits
 	if T < l.TFloor || T > l.TCeil {
-		return NewError(op, ErrOutOfRange, rangeText("T", l.TFloor, l.TCeil, "K")+" for "+f.name,
+		return NewError(op, ErrOutOfRange, f.tRangeText(),
 			Input{"T", T, "K"}, Input{"rho", rho, "kg/m3"})
 	}
 	if rho > l.RhoCeil {
@@ -80,6 +80,11 @@ func (f *Fluid) checkTRho(op string, T, rho float64) error {
 			Input{"T", T, "K"}, Input{"rho", rho, "kg/m3"})
 	}
 	return nil
+}
+
+// tRangeText describes the accepted temperatures of f.
+func (f *Fluid) tRangeText() string {
+	return rangeText("T", f.limits.TFloor, f.limits.TCeil, "K") + " for " + f.name
 }
 
 // checkProps applies the pressure ceiling, the finiteness check and the
@@ -170,9 +175,19 @@ func (f *Fluid) fromDerivs(T, rho, delta, tau float64, i, r *helmholtz.Derivs) P
 // B in m³/kg and C in m⁶/kg², from the limits of the residual part as
 // ρ → 0: B = lim αʳ_δ/ρc, C = lim αʳ_δδ/ρc². In molar units multiply by the
 // molar mass (B) and its square (C).
+//
+// Special cases are:
+//
+//	T NaN, ±Inf or ≤ 0: error wrapping ErrInvalidInput
+//	T outside TFloor..TCeil (see Limits): ErrOutOfRange
 func (f *Fluid) Virial(T float64) (B, C float64, err error) {
-	if err := f.checkTRho("fluid.Virial", T, f.rhoc); err != nil {
-		return 0, 0, err
+	// Validated on its own: the error must not name a density the caller
+	// did not give.
+	switch l := &f.limits; {
+	case !finite(T) || T <= 0:
+		return 0, 0, NewError("fluid.Virial", ErrInvalidInput, "T must be finite and positive", Input{"T", T, "K"})
+	case T < l.TFloor || T > l.TCeil:
+		return 0, 0, NewError("fluid.Virial", ErrOutOfRange, f.tRangeText(), Input{"T", T, "K"})
 	}
 	d, dd := f.resid.DeltaLimits(f.tc / T)
 	return d / f.rhoc, dd / (f.rhoc * f.rhoc), nil
