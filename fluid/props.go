@@ -50,8 +50,11 @@ type Props struct {
 //
 //	T or rho NaN, ±Inf or ≤ 0: error wrapping ErrInvalidInput
 //	T outside TFloor..TCeil, rho > RhoCeil or p > PCeil: ErrOutOfRange
-//	(∂p/∂ρ)_T ≤ 0 (inside a spinodal): the values, with an error wrapping
-//	  ErrUnstable
+//	p ≤ 0 (deep inside the two-phase region): the values, with an error
+//	  wrapping ErrOutOfRange
+//	(∂p/∂ρ)_T ≤ 0 (inside a spinodal), or cv ≤ 0 (where an equation is
+//	  extrapolated far beyond its range): the values, with an error
+//	  wrapping ErrUnstable
 //	exactly the critical point, with nonanalytic terms: Cv = Cp = +Inf,
 //	  W = 0, KappaT = Expansivity = +Inf, DpDrho = 0, flag AtCritical
 //
@@ -95,9 +98,20 @@ func (f *Fluid) checkProps(op string, p *Props) error {
 		return &Error{Op: op, Inputs: in(), Err: ErrOutOfRange,
 			Range: "p = " + fmtG(p.P) + " Pa exceeds the accepted " + fmtG(f.limits.PCeil) + " Pa for " + f.name}
 	}
-	if p.DpDrho <= 0 && p.Flags&AtCritical == 0 {
+	if p.Flags&AtCritical != 0 {
+		return nil
+	}
+	if p.DpDrho <= 0 {
 		return &Error{Op: op, Inputs: in(), Err: ErrUnstable,
 			Range: "(dp/drho)_T = " + fmtG(p.DpDrho) + " <= 0: inside the spinodal"}
+	}
+	if p.P <= 0 {
+		return &Error{Op: op, Inputs: in(), Err: ErrOutOfRange,
+			Range: "p = " + fmtG(p.P) + " Pa <= 0: no single-phase state of " + f.name + " at positive pressure"}
+	}
+	if p.Cv <= 0 {
+		return &Error{Op: op, Inputs: in(), Err: ErrUnstable,
+			Range: "cv = " + fmtG(p.Cv) + " J/(kg K) <= 0: thermally unstable (the equation extrapolated far beyond its range)"}
 	}
 	return nil
 }

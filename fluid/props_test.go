@@ -214,8 +214,8 @@ func TestVirialErrors(t *testing.T) {
 
 // TestPropsGrid evaluates Props over the whole accepted (T, ρ) region:
 // no NaN anywhere, no infinity away from the critical point, and the only
-// errors are the pressure ceiling and mechanical instability, which comes
-// with its values.
+// errors are the pressure ceiling, p ≤ 0, and mechanical or thermal
+// instability, which come with their values.
 func TestPropsGrid(t *testing.T) {
 	t.Parallel()
 	f := water(t)
@@ -224,7 +224,7 @@ func TestPropsGrid(t *testing.T) {
 	rhos := floats.LogSpan(make([]float64, 81), 1e-8, l.RhoCeil)
 	// LogSpan's end points are exp(log(x)): restore them exactly.
 	Ts[0], Ts[len(Ts)-1], rhos[len(rhos)-1] = l.TFloor, l.TCeil, l.RhoCeil
-	var stable, unstable, ceiling int
+	var stable, unstable, ceiling, negative int
 	for _, T := range Ts {
 		for _, rho := range rhos {
 			p, err := f.Props(T, rho)
@@ -233,9 +233,11 @@ func TestPropsGrid(t *testing.T) {
 				stable++
 			case errors.Is(err, ErrUnstable):
 				unstable++
-				if p.DpDrho > 0 {
-					t.Errorf("(%g K, %g kg/m3): ErrUnstable with DpDrho = %g", T, rho, p.DpDrho)
+				if p.DpDrho > 0 && p.Cv > 0 {
+					t.Errorf("(%g K, %g kg/m3): ErrUnstable with DpDrho = %g, Cv = %g", T, rho, p.DpDrho, p.Cv)
 				}
+			case errors.Is(err, ErrOutOfRange) && p.P <= 0:
+				negative++
 			case errors.Is(err, ErrOutOfRange) && strings.Contains(err.Error(), "exceeds"):
 				ceiling++
 				continue
@@ -251,10 +253,10 @@ func TestPropsGrid(t *testing.T) {
 			if p.T != T || p.Rho != rho {
 				t.Errorf("(%g K, %g kg/m3): Props returned T = %g, Rho = %g", T, rho, p.T, p.Rho)
 			}
-			// Inside the published range a mechanically stable state is
-			// thermally stable too. (Extrapolated liquid below 250 K at
-			// high density is not: there the equation gives cv < 0.)
-			if err == nil && p.Flags&Extrapolated == 0 && (p.Cv <= 0 || p.Cp < p.Cv || p.W <= 0) {
+			// A state returned without error is mechanically and
+			// thermally stable. (Extrapolated liquid below 250 K at high
+			// density has cv < 0 and comes back with ErrUnstable.)
+			if err == nil && (p.Cv <= 0 || p.Cp < p.Cv || p.W <= 0) {
 				t.Errorf("(%g K, %g kg/m3): stable with Cv = %g, Cp = %g, W = %g", T, rho, p.Cv, p.Cp, p.W)
 			}
 		}
