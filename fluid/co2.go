@@ -38,9 +38,10 @@ import (
 //     equipment this library serves. Liquid below 216.592 K is metastable
 //     and not flagged separately: Props does not judge the phase.
 //   - up to 2000 K and 10 GPa, our own choice of a region where the
-//     equation's extrapolation is physically reasonable (the paper shows
-//     reasonable behaviour beyond its range; the figures are ours, not the
-//     paper's). Above about 2000 K carbon dioxide begins to dissociate.
+//     equation's extrapolation is physically reasonable (the paper reports
+//     reasonable extrapolation behaviour beyond its range, from memory;
+//     the figures are ours, not the paper's). Above about 2000 K carbon
+//     dioxide begins to dissociate (common practice, no source).
 //
 // Reference state (the paper's, built into the ideal-gas constants a°1 and
 // a°2): h = 0 and s = 0 for the ideal gas at 298.15 K and 101.325 kPa.
