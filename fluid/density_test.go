@@ -187,7 +187,9 @@ func benchEvals(b *testing.B, n0 uint64) {
 	}
 }
 
-func BenchmarkProps(b *testing.B) {
+// BenchmarkPropsEvals is Props with the evaluation count
+// (go test -tags tripoint_evalcount), for comparison with the solvers.
+func BenchmarkPropsEvals(b *testing.B) {
 	f, _ := Lookup("water")
 	b.ReportAllocs()
 	n0 := evalcount.Load()
