@@ -209,11 +209,9 @@ func TestR134aDerivatives(t *testing.T) {
 	}
 	for _, s := range grid {
 		T, rho := s[0], s[1]
-		p, err := f.Props(T, rho)
-		if err != nil && !errors.Is(err, ErrUnstable) {
-			t.Errorf("Props(%g, %g): %v", T, rho, err)
-			continue
-		}
+		// The identities hold for every (T, ρ), stable or not: the values
+		// are taken without Props's checks (TestR134aNoNaN tests those).
+		p := f.props(T, rho)
 		ht, hr := 1e-4*T, 1e-4*rho
 		dT := func(q func(Props) float64) float64 {
 			return fd.Derivative(func(x float64) float64 { return q(f.props(x, rho)) }, T,
@@ -251,7 +249,7 @@ func TestR134aDerivatives(t *testing.T) {
 		// cp, w and the Joule–Thomson coefficient divide by (∂p/∂ρ)_T:
 		// compared where the state is stable and not within 1 % of a
 		// spinodal.
-		if err == nil && p.DpDrho > 1e-2*rt {
+		if p.DpDrho > 1e-2*rt && p.Cv > 0 {
 			cp := dhdt - dhdr*p.DpDT/p.DpDrho
 			w2 := p.DpDrho - p.DpDT*dsdr/dsdt
 			jt := -(dhdr / p.DpDrho) / cp
@@ -345,8 +343,12 @@ func TestR134aNoNaN(t *testing.T) {
 					}
 				}
 			}
-			out := T < 169.85 || T > 455 || rho > 1800 || f.props(T, rho).P > 70e6
-			if out != errors.Is(err, ErrOutOfRange) {
+			// Outside the accepted region: out of range. Props may also
+			// report a state of p ≤ 0 (deep in the two-phase region) as
+			// out of range.
+			q := f.props(T, rho)
+			out := T < 169.85 || T > 455 || rho > 1800 || q.P > 70e6
+			if oor := errors.Is(err, ErrOutOfRange); out && !oor || !out && oor && q.P > 0 {
 				t.Errorf("Props(%g, %g): %v; outside the accepted region: %v", T, rho, err, out)
 			}
 		}
