@@ -19,7 +19,7 @@ func BenchmarkPropsCO2(b *testing.B) {
 		{"CO2", "near-critical", 304.2, 500},
 		{"CO2", "dilute-below-triple", 180, 0.1},
 		{"water", "vapour", 400, 1},
-		{"water", "liquid", 300, 996.5},
+		{"water", "liquid", 300, 996.6},
 		{"water", "supercritical", 900, 241},
 		{"water", "near-critical", 647.2, 330},
 	}
