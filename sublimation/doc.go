@@ -97,9 +97,9 @@
 //     melting equations are still met within the deviations below.
 //
 // What the model gives (tests bound each figure; the sources are those
-// above): sublimation pressure within 0.12 % of the Span–Wagner equation
+// above): sublimation pressure within 0.15 % of the Span–Wagner equation
 // over 150–216.592 K; melting temperature within 0.1 K of the Span–Wagner
-// melting equation up to 800 MPa (within 0.05 % in pressure above 240 K;
+// melting equation up to 800 MPa (within 0.15 % in pressure above 240 K;
 // near the triple point the pressure difference is small in absolute terms
 // but its relative value reaches 1.5 % at 217 K, 0.04 MPa in 2.4 MPa);
 // normal sublimation temperature 194.684 K at 101.325 kPa (Span–Wagner

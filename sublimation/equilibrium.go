@@ -358,7 +358,8 @@ func (s Solid) meltingAtP(op string, p, T0, rho0 float64) (Coexistence, error) {
 
 func (s Solid) coexistAtP(op string, p, T0, rho0, maxStep float64) (Coexistence, error) {
 	R := s.f.GasConstant()
-	T, y := T0, math.Log(rho0)
+	floor := s.f.Limits().TFloor
+	T, y := math.Max(T0, floor), math.Log(rho0)
 	var lastT, lastY, dT, dy float64
 	haveGood := false
 	in := fluid.Input{Name: "p", Value: p, Unit: "Pa"}
@@ -403,6 +404,20 @@ func (s Solid) coexistAtP(op string, p, T0, rho0, maxStep float64) (Coexistence,
 			dy = math.Copysign(maxStep, dy)
 		}
 		lastT, lastY, haveGood = T, y, true
+		if T+dT < floor { // stay where the fluid equation is accepted
+			if T == floor {
+				// The root lies at the floor to within rounding, or
+				// below it: settle it at the floor.
+				c, err := s.coexistAtT(op, floor, rho, maxStep)
+				if err == nil && math.Abs(c.P/p-1) <= 1e-8 {
+					return c, nil
+				}
+				return Coexistence{}, fluid.NewError(op, fluid.ErrOutOfRange,
+					"the curve reaches this pressure below the fluid's floor "+fmtG(floor)+" K", in)
+			}
+			dy *= (floor - T) / dT
+			dT = floor - T
+		}
 		T, y = T+dT, y+dy
 	}
 	return Coexistence{}, s.noConv(op, nil, in)

@@ -102,10 +102,10 @@ var iceData = &solidData{
 		TMin: 0, TMax: iceTt, PMax: 210e6,
 		TFloor: 0, TCeil: 300, PCeil: 210e6,
 	},
-	beyond:    "ice Ih is not stable there; ice II, III, V, VI and other ices exist beyond and are outside the model (IAPWS R10-06 covers ice Ih only)",
+	beyond:    "ice Ih is not stable there; ice II, ice III, ice V, ice VI and other ices exist beyond and are outside the model (IAPWS R10-06 covers ice Ih only)",
 	curveTMin: 200, // fluid water's vapour floor, Limits().TFloor
 	meltPMax:  208.566e6,
 	meltTEnd:  251.165,
 	meltBeyond: "the ice Ih melting curve ends at the ice Ih-ice III-liquid triple point, 251.165 K and 208.566 MPa (IAPWS R14-08); " +
-		"beyond it liquid water coexists with ice III, V, VI and VII, which are outside the model",
+		"beyond it liquid water coexists with ice III, ice V, ice VI and ice VII, which are outside the model",
 }
