@@ -13,7 +13,10 @@
 // which serve only as initial guesses and as checks — as functions of T
 // (SublimationPressure, MeltingPressure) and of p (SublimationTemperature,
 // MeltingTemperature), and as point sets for charts (SublimationCurve,
-// MeltingCurve). Every classifier of the project uses these curves, so
+// MeltingCurve). Solid.Triple returns the three coexisting phases, and
+// its FractionsRhoU, FractionsRhoH and FractionsRhoS the phase fractions of
+// a three-phase mixture (not (h, s), which does not fix them). Every
+// classifier of the project uses these curves, so
 // that a state is never solid by one and fluid by another. The reference
 // state of the fluid (fluid.Fluid.ReferenceOffsets) applies to the solid.
 //

@@ -210,6 +210,61 @@ func (s Solid) Triple() (ThreePhase, error) {
 	return ThreePhase{T: T, P: p, Solid: sol, Liquid: liq, Vapor: vap}, nil
 }
 
+// FractionsRhoU returns the mass fractions of solid, liquid and vapour of
+// a three-phase mixture at the triple point with overall density rho in
+// kg/m³ and specific internal energy u in J/kg: the solution of
+//
+//	xs + xl + xv = 1,  Σ xi/ρi = 1/ρ,  Σ xi ui = u.
+//
+// (ρ, u), (ρ, h) and (ρ, s) fix the fractions; (h, s) does not, since
+// every three-phase mixture has h − Tt·s = g_t. The error wraps
+// fluid.ErrOutOfRange when the state is not a three-phase mixture (a
+// fraction outside [0, 1] by more than 1e-12) and fluid.ErrInvalidInput
+// for non-finite or non-positive rho or non-finite u.
+func (tp ThreePhase) FractionsRhoU(rho, u float64) (solid, liquid, vapor float64, err error) {
+	return tp.fractions("sublimation.ThreePhase.FractionsRhoU", rho, u, "u", "J/kg",
+		tp.Solid.U, tp.Liquid.U, tp.Vapor.U)
+}
+
+// FractionsRhoH is FractionsRhoU with the specific enthalpy h in J/kg.
+func (tp ThreePhase) FractionsRhoH(rho, h float64) (solid, liquid, vapor float64, err error) {
+	return tp.fractions("sublimation.ThreePhase.FractionsRhoH", rho, h, "h", "J/kg",
+		tp.Solid.H, tp.Liquid.H, tp.Vapor.H)
+}
+
+// FractionsRhoS is FractionsRhoU with the specific entropy s in J/(kg·K).
+func (tp ThreePhase) FractionsRhoS(rho, s float64) (solid, liquid, vapor float64, err error) {
+	return tp.fractions("sublimation.ThreePhase.FractionsRhoS", rho, s, "s", "J/(kg K)",
+		tp.Solid.S, tp.Liquid.S, tp.Vapor.S)
+}
+
+func (tp ThreePhase) fractions(op string, rho, e float64, name, unit string, es, el, ev float64) (xs, xl, xv float64, err error) {
+	in := []fluid.Input{{Name: "rho", Value: rho, Unit: "kg/m3"}, {Name: name, Value: e, Unit: unit}}
+	if !finite(rho) || rho <= 0 || !finite(e) {
+		return 0, 0, 0, fluid.NewError(op, fluid.ErrInvalidInput, "rho must be finite and positive, "+name+" finite", in...)
+	}
+	vs, vl, vv := 1/tp.Solid.Rho, 1/tp.Liquid.Rho, 1/tp.Vapor.Rho
+	// Eliminate xl = 1 − xs − xv:
+	//	xs (vs − vl) + xv (vv − vl) = v − vl
+	//	xs (es − el) + xv (ev − el) = e − el
+	a, b, c := vs-vl, vv-vl, 1/rho-vl
+	d, f, g := es-el, ev-el, e-el
+	det := a*f - b*d
+	if det == 0 {
+		return 0, 0, 0, fluid.NewError(op, fluid.ErrUndefined, "degenerate triple point", in...)
+	}
+	xs = (c*f - b*g) / det
+	xv = (a*g - c*d) / det
+	xl = 1 - xs - xv
+	const tol = 1e-12
+	if xs < -tol || xl < -tol || xv < -tol || xs > 1+tol || xl > 1+tol || xv > 1+tol {
+		return xs, xl, xv, fluid.NewError(op, fluid.ErrOutOfRange,
+			"not a three-phase mixture: fractions solid "+fmtG(xs)+", liquid "+fmtG(xl)+", vapour "+fmtG(xv), in...)
+	}
+	clamp := func(x float64) float64 { return math.Min(math.Max(x, 0), 1) }
+	return clamp(xs), clamp(xl), clamp(xv), nil
+}
+
 // SublimationCurve returns n ≥ 2 points of the sublimation curve, evenly
 // spaced in temperature from the vapour floor to the triple point, for
 // charts. The error wraps fluid.ErrInvalidInput for n < 2 or n > 100000.
@@ -511,8 +566,8 @@ func (s Solid) guessSubP(T float64) float64 {
 		return p
 	}
 	t := s.f.Triple()
-	// ln p = ln pt − (Δh/R)(1/T − 1/Tt) with Δh/R ≈ 3000 K·(2.9 for water
-	// … ); a crude 25·Tt works for both solids to a factor of a few.
+	// ln p = ln pt − (Δh/R)(1/T − 1/Tt), with Δh/(R Tt) ≈ 25 for both
+	// solids (22 for ice Ih, 24 for dry ice): good to a factor of a few.
 	return t.P * math.Exp(-25*t.T*(1/T-1/t.T))
 }
 

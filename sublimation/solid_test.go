@@ -330,3 +330,40 @@ func FuzzProps(f *testing.F) {
 		}
 	})
 }
+
+// TestTripleFractions: fractions chosen at the triple point come back
+// from (ρ, u), (ρ, h) and (ρ, s); states outside the triangle are refused.
+func TestTripleFractions(t *testing.T) {
+	t.Parallel()
+	for _, name := range solids {
+		s := mustSolid(t, name)
+		tp, err := s.Triple()
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, x := range [][3]float64{{0.2, 0.3, 0.5}, {1, 0, 0}, {0, 1, 0}, {0, 0, 1}, {0.6, 0, 0.4}, {0.01, 0.98, 0.01}} {
+			v := x[0]/tp.Solid.Rho + x[1]/tp.Liquid.Rho + x[2]/tp.Vapor.Rho
+			mix := func(a, b, c float64) float64 { return x[0]*a + x[1]*b + x[2]*c }
+			for _, c := range []struct {
+				name string
+				fn   func(rho, e float64) (float64, float64, float64, error)
+				e    float64
+			}{
+				{"u", tp.FractionsRhoU, mix(tp.Solid.U, tp.Liquid.U, tp.Vapor.U)},
+				{"h", tp.FractionsRhoH, mix(tp.Solid.H, tp.Liquid.H, tp.Vapor.H)},
+				{"s", tp.FractionsRhoS, mix(tp.Solid.S, tp.Liquid.S, tp.Vapor.S)},
+			} {
+				xs, xl, xv, err := c.fn(1/v, c.e)
+				if err != nil || math.Abs(xs-x[0]) > 1e-9 || math.Abs(xl-x[1]) > 1e-9 || math.Abs(xv-x[2]) > 1e-9 {
+					t.Errorf("%s (rho, %s) fractions %v: got %g %g %g, %v", name, c.name, x, xs, xl, xv, err)
+				}
+			}
+		}
+		if _, _, _, err := tp.FractionsRhoU(2*tp.Solid.Rho, tp.Solid.U); !errors.Is(err, fluid.ErrOutOfRange) {
+			t.Errorf("%s: denser than the solid: %v", name, err)
+		}
+		if _, _, _, err := tp.FractionsRhoU(math.NaN(), 0); !errors.Is(err, fluid.ErrInvalidInput) {
+			t.Errorf("%s: NaN: %v", name, err)
+		}
+	}
+}
