@@ -45,16 +45,18 @@ import (
 // Reference state (the paper's, built into the ideal-gas constants a°1 and
 // a°2): h = 0 and s = 0 for the ideal gas at 298.15 K and 101.325 kPa.
 //
-// Triple point (Triple): T = 216.592 K with P = 0.517964 MPa, the
+// Triple point (Triple): T = 216.592 K with P = 0.5179644576 MPa, the
 // equation's own saturation pressure there (published: 0.51795 MPa), and
-// the equation's saturated densities ρ′ = 1178.463 kg/m³ and
-// ρ″ = 13.7609 kg/m³ (independent evaluation quoted in
-// co2-span-wagner-1996.md). The solid model of package sublimation is built
-// to meet the fluid there. RhoSolid = 1552.82 kg/m³ is the density of that
-// dry-ice model at the triple point (proven by its tests); the paper's
-// melting-curve slope alone would imply about 1535 kg/m³
-// (shared/reference/co2-solid-consistency.md), measured dry ice is about
-// 1560 kg/m³ near 195 K (from memory).
+// the equation's saturated densities ρ′ = 1178.462640 kg/m³ and
+// ρ″ = 13.76088497 kg/m³, from SaturationAtT(216.592) to the digits
+// stored; they agree with the independent evaluation quoted in
+// shared/reference/co2-span-wagner-1996.md (0.517964 MPa, 1178.463 and
+// 13.7609 kg/m³), and tests prove both. The solid model of package
+// sublimation is built to meet the fluid there. RhoSolid = 1552.82 kg/m³
+// is the density of that dry-ice model at the triple point (proven by its
+// tests); the paper's melting-curve slope alone would imply about
+// 1535 kg/m³ (shared/reference/co2-solid-consistency.md), and measured dry
+// ice is about 1560 kg/m³ near 195 K (from memory).
 //
 // Auxiliary equations (Span–Wagner Section 3): vapour pressure and
 // saturated liquid and vapour densities for 216.592 K ≤ T ≤ Tc, for initial
@@ -84,8 +86,8 @@ func newCO2() *Fluid {
 			TMin: tt, TMax: 1100, PMax: 800e6,
 			TFloor: 150, TCeil: 2000, PCeil: 10e9, RhoCeil: co2RhoCeil,
 		},
-		triple: TriplePoint{T: tt, P: 0.517964e6,
-			RhoSolid: 1552.82, RhoLiquid: 1178.463, RhoVapor: 13.7609},
+		triple: TriplePoint{T: tt, P: 0.5179644576e6,
+			RhoSolid: 1552.82, RhoLiquid: 1178.462640, RhoVapor: 13.76088497},
 		ideal: helmholtz.MustNewIdeal(helmholtz.IdealTerms{
 			A1: 8.37304456, A2: -3.70454304, LogTau: 2.5,
 			PlanckEinstein: []helmholtz.PlanckEinstein{

@@ -3,6 +3,7 @@ package fluid
 import (
 	"errors"
 	"math"
+	"strconv"
 	"testing"
 
 	"github.com/tripoint-thermo/tripoint/helmholtz"
@@ -625,4 +626,167 @@ func FuzzCO2Props(f *testing.F) {
 			}
 		}
 	})
+}
+
+// TestCO2Saturation checks the equation's own saturation against the
+// independent high-precision evaluation of the Span–Wagner coefficients
+// quoted in shared/reference/co2-span-wagner-1996.md (Gibbs-energy
+// equality at 216.592, 273.15 and 300 K), to ±1 in the last printed digit.
+func TestCO2Saturation(t *testing.T) {
+	t.Parallel()
+	f := mustCO2(t)
+	for _, c := range []struct {
+		T                float64
+		pMPa, rhoL, rhoV string
+	}{
+		{216.592, "0.517964", "1178.463", "13.7609"},
+		{273.15, "3.48514", "927.432", "97.6473"},
+		{300, "6.71308", "679.239", "268.584"},
+	} {
+		s, err := f.SaturationAtT(c.T)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, v := range []struct {
+			name, want string
+			got        float64
+		}{{"p/MPa", c.pMPa, s.P / 1e6}, {"rho'", c.rhoL, s.Liquid.Rho}, {"rho''", c.rhoV, s.Vapor.Rho}} {
+			w, err := strconv.ParseFloat(v.want, 64)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if u := printedUnit(t, v.want); math.Abs(v.got-w) > u*(1+1e-9) {
+				t.Errorf("T = %v K: %s = %.10g, want %s (co2-span-wagner-1996.md)", c.T, v.name, v.got, v.want)
+			}
+		}
+	}
+	// The stored triple point is this saturation at 216.592 K.
+	s, _ := f.SaturationAtT(216.592)
+	tp := f.Triple()
+	if tp.T != 216.592 || !scalar.EqualWithinRel(tp.P, s.P, 1e-9) ||
+		!scalar.EqualWithinRel(tp.RhoLiquid, s.Liquid.Rho, 1e-9) || !scalar.EqualWithinRel(tp.RhoVapor, s.Vapor.Rho, 1e-9) {
+		t.Errorf("Triple() = %+v, saturation at 216.592 K: %v Pa, %v, %v kg/m3", tp, s.P, s.Liquid.Rho, s.Vapor.Rho)
+	}
+}
+
+// TestCO2SaturationCommonPractice: saturation pressure about 57.3 bar at
+// 20 °C and 19.7 bar at −20 °C (common practice, no source), ±0.1 bar.
+func TestCO2SaturationCommonPractice(t *testing.T) {
+	t.Parallel()
+	f := mustCO2(t)
+	for _, c := range []struct{ T, pBar float64 }{{293.15, 57.3}, {253.15, 19.7}} {
+		s, err := f.SaturationAtT(c.T)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if math.Abs(s.P/1e5-c.pBar) > 0.1 {
+			t.Errorf("saturation pressure at %v K = %v bar, want about %v", c.T, s.P/1e5, c.pBar)
+		}
+	}
+	// And 1 atm is below the triple point: no liquid (common practice).
+	if _, err := f.SaturationAtP(101325); !errors.Is(err, ErrOutOfRange) {
+		t.Errorf("SaturationAtP(1 atm): %v, want ErrOutOfRange", err)
+	}
+}
+
+// TestCO2AuxiliaryVsSaturation: the auxiliary equations agree with the
+// equation of state's own saturation within the uncertainties stated in
+// Span & Wagner (1996), recalled from memory (not checked against the
+// paper): ±0.012 % in the vapour pressure, and in the saturated densities
+// the equation's density uncertainty, ±0.05 % (the paper's abstract),
+// below 303 K. Within 1 K of Tc, where the densities change steeply, the
+// density difference is judged as the temperature shift it amounts to,
+// Δρ/(dρσ/dT), within the uncertainty of the critical temperature,
+// ±0.015 K (from memory of the paper's Tc = 304.1282 ± 0.015 K).
+func TestCO2AuxiliaryVsSaturation(t *testing.T) {
+	t.Parallel()
+	f := mustCO2(t)
+	var Ts []float64
+	for T := 216.592; T < 303; T += 1.0 {
+		Ts = append(Ts, T)
+	}
+	Ts = append(Ts, 303, 303.5, 304, 304.1, 304.12)
+	for _, T := range Ts {
+		s, err := f.SaturationAtT(T)
+		if err != nil {
+			t.Fatal(err)
+		}
+		pa, _ := f.AuxVaporPressure(T)
+		rl, _ := f.AuxLiquidDensity(T)
+		rv, _ := f.AuxVaporDensity(T)
+		if d := math.Abs(pa/s.P - 1); d > 0.012e-2 {
+			t.Errorf("T = %v K: auxiliary vapour pressure off by %.3g %%", T, 100*d)
+		}
+		if T < 303 {
+			if d := math.Abs(rl/s.Liquid.Rho - 1); d > 0.05e-2 {
+				t.Errorf("T = %v K: auxiliary rho' off by %.3g %%", T, 100*d)
+			}
+			if d := math.Abs(rv/s.Vapor.Rho - 1); d > 0.05e-2 {
+				t.Errorf("T = %v K: auxiliary rho'' off by %.3g %%", T, 100*d)
+			}
+			continue
+		}
+		h := math.Min(1e-3, (f.tc-T)/10)
+		lo, _ := f.SaturationAtT(T - h)
+		hi, _ := f.SaturationAtT(T + h)
+		dl := (hi.Liquid.Rho - lo.Liquid.Rho) / (2 * h)
+		dv := (hi.Vapor.Rho - lo.Vapor.Rho) / (2 * h)
+		if dT := math.Abs((rl - s.Liquid.Rho) / dl); dT > 0.015 {
+			t.Errorf("T = %v K: auxiliary rho' %v vs %v: a shift of %.3g K", T, rl, s.Liquid.Rho, dT)
+		}
+		if dT := math.Abs((rv - s.Vapor.Rho) / dv); dT > 0.015 {
+			t.Errorf("T = %v K: auxiliary rho'' %v vs %v: a shift of %.3g K", T, rv, s.Vapor.Rho, dT)
+		}
+	}
+}
+
+// TestCO2SaturatedStates: the saturated phases at and above the triple
+// point are mechanically stable and pass the consistency checks.
+func TestCO2SaturatedStates(t *testing.T) {
+	t.Parallel()
+	f := mustCO2(t)
+	for _, T := range []float64{216.592, 240, 273.15, 300} {
+		s, err := f.SaturationAtT(T)
+		if err != nil {
+			t.Fatal(err)
+		}
+		checkConsistency(t, f, T, s.Liquid.Rho)
+		checkConsistency(t, f, T, s.Vapor.Rho)
+	}
+}
+
+// TestCO2TripleSolidDensity: the solid density that the published melting
+// and sublimation curves imply at the triple point together with the
+// equation's own saturation (Clausius–Clapeyron on both curves,
+// Δh_sub − Δh_vap = Δh_fus) is ≈ 1535 kg/m³, as in
+// shared/reference/co2-solid-consistency.md. (Triple().RhoSolid itself is
+// the dry-ice model's, 1552.82 kg/m³, proven in package sublimation.)
+func TestCO2TripleSolidDensity(t *testing.T) {
+	t.Parallel()
+	f := mustCO2(t)
+	tp := f.Triple()
+	s, err := f.SaturationAtT(tp.T)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Second-order one-sided slopes: the curves end at Tt.
+	oneSided := fd.Formula{Stencil: []fd.Point{{Loc: 0, Coeff: -1.5}, {Loc: 1, Coeff: 2}, {Loc: 2, Coeff: -0.5}}, Derivative: 1, Step: 1e-3}
+	slope := func(g func(float64) (float64, error), dir float64) float64 {
+		return dir * fd.Derivative(func(x float64) float64 {
+			p, err := g(tp.T + dir*x)
+			if err != nil {
+				t.Fatal(err)
+			}
+			return p
+		}, 0, &fd.Settings{Formula: oneSided, Step: 1e-3})
+	}
+	pm, ps := slope(f.AuxMeltingPressure, 1), slope(f.AuxSublimationPressure, -1)
+	// Tt(v″ − vs)ps' − (h″ − h′) = Tt(v′ − vs)pm', solved for vs.
+	vl, vv := 1/s.Liquid.Rho, 1/s.Vapor.Rho
+	vs := (vl*pm - vv*ps + (s.Vapor.H-s.Liquid.H)/tp.T) / (pm - ps)
+	// The stored RhoSolid is the dry-ice model's (package sublimation
+	// proves it); the published curves alone imply 1535 kg/m3.
+	if math.Abs(1/vs-1535) > 0.5 {
+		t.Errorf("the curves imply %.6g kg/m3, want 1535 (co2-solid-consistency.md)", 1/vs)
+	}
 }

@@ -43,8 +43,10 @@ func (r Root) String() string {
 // aux pressure band: outside psat_aux·(1 ± auxBand) the stable phase is
 // decided from the auxiliary vapour-pressure equation alone; inside it,
 // from the equation's own saturation. TestAuxVaporPressureBand proves for
-// every fluid that the auxiliary equation lies well inside this band.
-const auxBand = 2e-3
+// every fluid that the auxiliary equation lies within 2/5 of this band
+// (some published auxiliary equations are good to only 2 % near the
+// triple point).
+const auxBand = 0.05
 
 // rhoStepTol is the relative Newton step in ρ below which a root is taken
 // as converged: the residual of p is then at the level of its rounding.
@@ -72,7 +74,7 @@ func (f *Fluid) residual(delta, tau float64) helmholtz.Derivs {
 // For T < Tc the liquid root is sought on ρ > ρc and the vapour root on
 // ρ < ρc. RootStable takes the vapour below the equation's own vapour
 // pressure and the liquid above it: away from it the auxiliary
-// vapour-pressure equation decides, within 0.2 % of it the equation's own
+// vapour-pressure equation decides, within 5 % of it the equation's own
 // saturation (SaturationAtT), and below the triple-point temperature (no
 // saturation is defined there) the root of lower Gibbs energy.
 //
@@ -336,7 +338,7 @@ func (f *Fluid) solveDelta(tau, pi float64, b branch, g float64) (float64, helmh
 	var r helmholtz.Derivs
 	for it := 0; it < 300; it++ {
 		if !(x > lo && x < hi) {
-			x = bisect(lo, hi, b)
+			x = bracketMid(lo, hi, b)
 		}
 		r = f.residual(x, tau)
 		P := x * (1 + x*r.D)
@@ -401,9 +403,9 @@ func (f *Fluid) solveDelta(tau, pi float64, b branch, g float64) (float64, helmh
 	return x, r, rootNoConvergence
 }
 
-// bisect returns a point inside (lo, hi), geometric where the bracket
+// bracketMid returns a point inside (lo, hi), geometric where the bracket
 // spans orders of magnitude of a gas density.
-func bisect(lo, hi float64, b branch) float64 {
+func bracketMid(lo, hi float64, b branch) float64 {
 	if b != branchLiquid && lo > 0 && hi > 4*lo {
 		return math.Sqrt(lo * hi)
 	}

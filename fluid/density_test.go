@@ -177,7 +177,7 @@ func TestDensityAllocs(t *testing.T) {
 	}
 }
 
-var sink float64
+var fluidSink float64
 
 // benchEvals reports equation evaluations per call when the build counts
 // them (go test -tags tripoint_evalcount -bench .).
@@ -193,7 +193,7 @@ func BenchmarkProps(b *testing.B) {
 	n0 := evalcount.Load()
 	for i := 0; i < b.N; i++ {
 		p, _ := f.Props(300+float64(i&63), 990)
-		sink += p.H
+		fluidSink += p.H
 	}
 	benchEvals(b, n0)
 }
@@ -212,7 +212,7 @@ func BenchmarkDensity(b *testing.B) {
 			n0 := evalcount.Load()
 			for i := 0; i < b.N; i++ {
 				rho, _ := f.Density(c.T, c.p, RootStable)
-				sink += rho
+				fluidSink += rho
 			}
 			benchEvals(b, n0)
 		})
@@ -226,7 +226,7 @@ func BenchmarkSaturation(b *testing.B) {
 		n0 := evalcount.Load()
 		for i := 0; i < b.N; i++ {
 			s, _ := f.SaturationAtT(300 + float64(i&255))
-			sink += s.P
+			fluidSink += s.P
 		}
 		benchEvals(b, n0)
 	})
@@ -235,7 +235,7 @@ func BenchmarkSaturation(b *testing.B) {
 		n0 := evalcount.Load()
 		for i := 0; i < b.N; i++ {
 			s, _ := f.SaturationAtP(1e4 * float64(1+i&255))
-			sink += s.T
+			fluidSink += s.T
 		}
 		benchEvals(b, n0)
 	})

@@ -22,7 +22,7 @@ type Saturation struct {
 type satPair struct {
 	tau, dl, dv float64
 	rl, rv      helmholtz.Derivs
-	p           float64 // the pressure in Pa where a model sets it, else 0
+	strict      bool // Newton's method met its residual bounds (not only the rounding floor)
 }
 
 // pi returns the reduced pressure p/(ρc R T) of the vapour side.
@@ -37,10 +37,36 @@ func (s *satPair) pi() float64 { return s.dv * (1 + s.dv*s.rv.D) }
 // between neighbouring floating-point densities; near the critical point
 // by 1e-15). The bounds model that as 1e-14·τ⁴. Near the critical point
 // the densities are uncertain even at these residuals (the Jacobian is
-// nearly singular). If the steps fall below satStepTol without the
-// residuals meeting the bounds, two more iterations are tried and
-// residuals within 5 times the bounds are accepted as the rounding floor.
-const satStepTol = 1e-12
+// nearly singular). See newtonWatch for iterations that stall.
+
+// newtonWatch watches the residual of a Newton iteration, scaled so that
+// 1 is the convergence bound. check reports conv when the iteration is
+// to stop: converged (res ≤ 1/16, or res ≤ 1 on two successive
+// iterates: the caller keeps the better one), or stalled (three
+// iterations without halving the best residual: rounding noise drives
+// the steps), in which case ok says whether the residual is within 5
+// times the bound, the rounding floor of the equation.
+type newtonWatch struct {
+	best float64
+	n    int
+	near bool // the previous iterate met the bound
+}
+
+func (w *newtonWatch) check(res float64) (conv, ok bool) {
+	if res <= 1.0/16 || res <= 1 && w.near {
+		return true, true
+	}
+	w.near = res <= 1
+	if res < 0.5*w.best {
+		w.best, w.n = res, 0
+		return false, false
+	}
+	w.n++
+	if w.n >= 3 {
+		return true, res <= 5
+	}
+	return false, false
+}
 
 // satTolP and satTolG are the tolerances at reduced pressure P, density δ
 // and inverse reduced temperature τ.
@@ -76,8 +102,9 @@ func satTolG(tau float64) float64 {
 // (Tc − T)^β, the Jacobian becomes singular and the Gibbs-energy
 // difference that tells the phases apart sinks below rounding: there
 // Newton's method is started from a model of the curve anchored at the
-// equation's own solutions at Tc − 1 mK and Tc − 0.1 mK and at the
-// critical point (see nearCrit), and the model's values are returned
+// equation's own solutions at Tc − 1 mK, 0.1 mK, 10 µK and 1 µK (where
+// they converge) and at the critical point (see nearCrit), and the
+// model's values are returned
 // where Newton's method cannot resolve the densities. In that band P is
 // the model's pressure, rising to pc; p, ρ′ and −ρ″ rise monotonically
 // toward the critical point; ρ″ < ρc < ρ′; and the residuals |Δp|/p,
@@ -135,8 +162,10 @@ func (f *Fluid) SaturationAtT(T float64) (Saturation, error) {
 //
 //	p NaN, ±Inf or ≤ 0: ErrInvalidInput
 //	p > pc = Critical().P: ErrOutOfRange
-//	p < pt, the triple-point pressure Triple().P: ErrOutOfRange (no
-//	  vapour–liquid saturation below the triple point)
+//	p below the equation's vapour pressure at the triple-point
+//	  temperature (which is Triple().P where the triple point is the
+//	  equation's own): ErrOutOfRange (no vapour–liquid saturation below
+//	  the triple point)
 //	p = pc: the critical point, as SaturationAtT(Tc)
 //
 // SaturationAtP allocates nothing unless it returns an error.
@@ -150,9 +179,12 @@ func (f *Fluid) SaturationAtP(p float64) (Saturation, error) {
 		return Saturation{}, NewError(op, ErrOutOfRange,
 			"no vapour-liquid saturation above the critical pressure; "+f.satRangeP(), in)
 	}
-	if p < f.triple.P {
-		return Saturation{}, NewError(op, ErrOutOfRange,
+	belowTriple := func() error {
+		return NewError(op, ErrOutOfRange,
 			"no vapour-liquid saturation below the triple-point pressure, where vapour meets the solid; "+f.satRangeP(), in)
+	}
+	if p < 0.9*f.triple.P {
+		return Saturation{}, belowTriple()
 	}
 	if p == f.crit.P {
 		return f.criticalSaturation(), nil
@@ -161,7 +193,11 @@ func (f *Fluid) SaturationAtP(p float64) (Saturation, error) {
 	if !ok {
 		return Saturation{}, NewError(op, ErrNoConvergence, "the saturation iteration did not converge", in)
 	}
-	return f.saturation(&s, f.tc/s.tau, p), nil
+	T := f.tc / s.tau
+	if T < f.triple.T*(1-1e-12) {
+		return Saturation{}, belowTriple()
+	}
+	return f.saturation(&s, T, p), nil
 }
 
 func (f *Fluid) satRange() string {
@@ -169,7 +205,8 @@ func (f *Fluid) satRange() string {
 }
 
 func (f *Fluid) satRangeP() string {
-	return "valid range " + fmtG(f.triple.P) + " <= p <= " + fmtG(f.crit.P) + " Pa for " + f.name
+	return "valid range from the vapour pressure at the triple-point temperature " + fmtG(f.triple.T) +
+		" K (about " + fmtG(f.triple.P) + " Pa) to " + fmtG(f.crit.P) + " Pa for " + f.name
 }
 
 // criticalSaturation returns the critical point as a saturation state.
@@ -186,9 +223,6 @@ func (f *Fluid) saturation(s *satPair, T, p float64) Saturation {
 	v := f.propsFromResidual(T, s.dv*f.rhoc, &s.rv)
 	l.Flags |= Saturated
 	v.Flags |= Saturated
-	if p <= 0 {
-		p = s.p
-	}
 	if p <= 0 {
 		p = v.P
 	}
@@ -219,11 +253,7 @@ func (f *Fluid) auxDensities(tau float64) (dl, dv float64) {
 // satT solves the saturation at τ > 1.
 func (f *Fluid) satT(tau float64) (satPair, bool) {
 	if T := f.tc / tau; f.tc-T < critBand {
-		m, ok := f.nearCritModel()
-		if !ok {
-			return satPair{}, false
-		}
-		return f.nearCritAt(&m, T-f.tc, 0), true
+		return f.nearCritT(T)
 	}
 	return f.satTSolve(tau)
 }
@@ -248,7 +278,8 @@ func (f *Fluid) satTSolve(tau float64) (satPair, bool) {
 func (f *Fluid) satNewtonT(tau, dl, dv float64) (satPair, bool) {
 	var s satPair
 	s.tau = tau
-	small := 0
+	w := newtonWatch{best: math.Inf(1)}
+	bestRes := math.Inf(1)
 	for it := 0; it < 40; it++ {
 		rl := f.residual(dl, tau)
 		rv := f.residual(dv, tau)
@@ -263,20 +294,15 @@ func (f *Fluid) satNewtonT(tau, dl, dv float64) (satPair, bool) {
 		if !finite(a) || !finite(b) {
 			return s, false
 		}
-		tolP, tolG := satTolP(Pv, dl, tau), satTolG(tau)
-		conv := math.Abs(F1) <= tolP && math.Abs(F2) <= tolG
-		if !conv && math.Abs(a) <= satStepTol*dl && math.Abs(b) <= satStepTol*dv {
-			// Steps at rounding level: accept a residual limited by the
-			// rounding of the equation itself, after two more tries.
-			small++
-			conv = small > 2 && math.Abs(F1) <= 5*tolP && math.Abs(F2) <= 5*tolG
+		res := max(math.Abs(F1)/satTolP(Pv, dl, tau), math.Abs(F2)/satTolG(tau))
+		good := dPl > 0 && dPv > 0 && dl > 1 && dv < 1
+		conv, ok := w.check(res)
+		if good && res < bestRes {
+			bestRes = res
+			s.dl, s.dv, s.rl, s.rv, s.strict = dl, dv, rl, rv, res <= 1
 		}
 		if conv {
-			if dPl <= 0 || dPv <= 0 || !(dl > 1 && dv < 1) {
-				return s, false
-			}
-			s.dl, s.dv, s.rl, s.rv = dl, dv, rl, rv
-			return s, true
+			return s, ok && bestRes <= 5
 		}
 		// Keep δ″ < 1 < δ′ (the trivial solution δ′ = δ″ lies between).
 		dl = stepAbove(dl, a, 1)
@@ -323,7 +349,7 @@ func (f *Fluid) satByPressure(tau float64) (satPair, bool) {
 		pi = f.crit.P / (f.rhoc * f.r * T) * 0.5
 	}
 	var gl, gv float64 // density guesses
-	for it := 0; it < 200; it++ {
+	for it := 0; it < 100; it++ {
 		if !(pi > lo && pi < hi) {
 			switch {
 			case math.IsInf(hi, 1):
@@ -354,7 +380,7 @@ func (f *Fluid) satByPressure(tau float64) (satPair, bool) {
 			hi = pi
 		}
 		step := -D / (1/dl - 1/dv)
-		if math.Abs(step) <= 1e-15*pi || hi-lo <= 1e-15*hi {
+		if math.Abs(D) <= satTolG(tau) || math.Abs(step) <= 1e-15*pi || hi-lo <= 1e-15*hi {
 			if p, ok := f.satNewtonT(tau, dl, dv); ok {
 				return p, true
 			}
@@ -373,12 +399,8 @@ func (f *Fluid) satP(p float64) (satPair, bool) {
 		near = p > f.aux.psat(f.tc-3*critBand)
 	}
 	if near {
-		m, ok := f.nearCritModel()
-		if !ok {
-			return satPair{}, false
-		}
-		if p >= m.p1 {
-			return f.nearCritAt(&m, m.y(p), p), true
+		if s, in, ok := f.nearCritP(p); in || !ok {
+			return s, ok
 		}
 	}
 	T := f.auxTsat(p)
@@ -395,7 +417,7 @@ func (f *Fluid) satP(p float64) (satPair, bool) {
 // and critical points; without an auxiliary equation it returns that
 // line's estimate.
 func (f *Fluid) auxTsat(p float64) float64 {
-	tt, tc := f.triple.T, f.tc
+	tt, tc := 0.99*f.triple.T, f.tc
 	lp := math.Log(p)
 	x0, y0 := 1/tc, math.Log(f.crit.P)
 	slope := (math.Log(f.triple.P) - y0) / (1/tt - x0)
@@ -443,7 +465,8 @@ func clampT(T, lo, hi float64) float64 {
 func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 	var s satPair
 	pc := p / (f.rhoc * f.r * f.tc)
-	small := 0
+	w := newtonWatch{best: math.Inf(1)}
+	bestRes := math.Inf(1)
 	for it := 0; it < 40; it++ {
 		rl := f.residual(dl, tau)
 		rv := f.residual(dv, tau)
@@ -467,19 +490,16 @@ func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 		}
 		// Residuals of the pressures in units of the reduced pressure
 		// P, as in satNewtonT.
-		tolP, tolG := satTolP(Pv, dl, tau), satTolG(tau)
-		conv := math.Abs(E1/k) <= tolP && math.Abs(E2/k) <= satTolP(Pv, dv, tau) && math.Abs(E3) <= tolG
-		if !conv && math.Abs(ddl) <= satStepTol*dl && math.Abs(ddv) <= satStepTol*dv && math.Abs(dt) <= satStepTol*tau {
-			small++
-			conv = small > 2 && math.Abs(E1/k) <= 5*tolP && math.Abs(E2/k) <= 5*tolP &&
-				math.Abs(E3) <= 5*tolG
+		res := max(math.Abs(E1/k)/satTolP(Pv, dl, tau), math.Abs(E2/k)/satTolP(Pv, dv, tau),
+			math.Abs(E3)/satTolG(tau))
+		good := dPl > 0 && dPv > 0 && dl > 1 && dv < 1 && tau > 1
+		conv, ok := w.check(res)
+		if good && res < bestRes {
+			bestRes = res
+			s.tau, s.dl, s.dv, s.rl, s.rv, s.strict = tau, dl, dv, rl, rv, res <= 1
 		}
 		if conv {
-			if dPl <= 0 || dPv <= 0 || !(dl > 1 && dv < 1 && tau > 1) {
-				return s, false
-			}
-			s.tau, s.dl, s.dv, s.rl, s.rv = tau, dl, dv, rl, rv
-			return s, true
+			return s, ok && bestRes <= 5
 		}
 		dl = stepAbove(dl, ddl, 1)
 		dv = stepBelow(dv, ddv, 1)
@@ -492,7 +512,7 @@ func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 // on psat(T) = p, with dpsat/dT = (s″ − s′)/(1/ρ″ − 1/ρ′) from the
 // Clausius–Clapeyron equation.
 func (f *Fluid) satPByT(p, T float64) (satPair, bool) {
-	lo, hi := f.triple.T, f.tc-critBand
+	lo, hi := 0.99*f.triple.T, f.tc-critBand
 	var s satPair
 	for it := 0; it < 100; it++ {
 		if !(T > lo && T < hi) {
@@ -525,28 +545,40 @@ func (f *Fluid) satPByT(p, T float64) (satPair, bool) {
 // from the model.
 const critBand = 1e-3
 
-// nearCrit is the saturation curve between T1 = Tc − critBand and Tc:
+// nearCrit is the saturation curve between T1 = Tc − critBand and Tc,
+// in x = (Tc − T)/critBand:
 //
 //	p(T) = pc + A y + B y²,  y = T − Tc,
-//	δ′, δ″ = m ± h,  m = 1 + (m1 − 1) x,  x = −y/critBand,
-//	h = h1 x^β           for 1/10 ≤ x ≤ 1,
-//	h = h2 (10 x)^(1/2)  for x < 1/10,
+//	δ′, δ″ = m ± h,
 //
-// anchored at the equation's saturation (δ′1, δ″1, p1) at T1 and
-// (δ′2, δ″2) at T2 = Tc − critBand/10, with m1 the mean of δ′1 and δ″1
-// and h1, h2 half their differences at T1 and T2; β = log10(h1/h2) (about
-// 0.49 for IAPWS-95) and below T2 the classical exponent 1/2, which these
-// equations approach at Tc. A and B make p and its Clausius–Clapeyron
-// slope continuous at T1 and p = pc at Tc.
+// with A and B making p and its Clausius–Clapeyron slope continuous at
+// T1 and p = pc at Tc, and m (the mean of δ′ and δ″) and h (half their
+// difference) interpolated between anchors, the equation's own
+// saturation solved at x = 1, 1e-1, 1e-2, 1e-3 as far down as Newton's
+// method converges to its residual bounds: m linearly in x, ln h linearly
+// in ln x (a local power law x^β); below the last anchor, h follows the
+// last segment's exponent β (bounded to [0.3, 0.5]: about 0.34 for
+// Span–Wagner CO2 and 0.49 for IAPWS-95 just below 1 mK, tending to the
+// classical 1/2 at Tc) and m tends linearly to 1.
 type nearCrit struct {
-	p1, pc, A, B float64
-	m1, h1, h2   float64
-	beta         float64
-	s1           satPair
+	pc, A, B float64
+	n        int        // anchors in use
+	x, m, h  [4]float64 // anchors
+	s1       satPair    // the solution at T1
+	p1       float64
+	// closes is false where the anchors show no closing of the curve
+	// toward Tc (an exponent below 0.2: the equation's own critical
+	// point lies above its reducing temperature); the model is then not
+	// used for values.
+	closes bool
 }
 
-// nearCritModel builds the near-critical model of f.
-func (f *Fluid) nearCritModel() (nearCrit, bool) {
+// nearCritAnchors are the x of the anchors.
+var nearCritAnchors = [4]float64{1, 1e-1, 1e-2, 1e-3}
+
+// nearCritModel builds the near-critical model of f with the anchors
+// needed down to x, 0 < x ≤ 1 (x ≤ 0: only the pressure model).
+func (f *Fluid) nearCritModel(x float64) (nearCrit, bool) {
 	var m nearCrit
 	T1 := f.tc - critBand
 	s1, ok := f.satTSolve(f.tc / T1)
@@ -564,29 +596,55 @@ func (f *Fluid) nearCritModel() (nearCrit, bool) {
 		// Not monotone: the straight line through T1 and Tc.
 		m.A, m.B = (m.pc-m.p1)/critBand, 0
 	}
-	m.m1 = 0.5 * (s1.dl + s1.dv)
-	m.h1 = 0.5 * (s1.dl - s1.dv)
-	m.beta = 0.5
-	m.h2 = m.h1 * math.Sqrt(0.1)
-	tau2 := f.tc / (f.tc - 0.1*critBand)
-	dl, dv := m.densities(0.1)
-	if s2, ok := f.satNewtonT(tau2, dl, dv); ok && s2.dl-s2.dv > 0 {
-		h2 := 0.5 * (s2.dl - s2.dv)
-		if b := math.Log10(m.h1 / h2); b > 0.3 && b < 0.7 {
-			m.beta, m.h2 = b, h2
+	m.x[0], m.m[0], m.h[0], m.n = 1, 0.5*(s1.dl+s1.dv), 0.5*(s1.dl-s1.dv), 1
+	for k := 1; k < len(nearCritAnchors) && m.x[m.n-1] > x && x > 0; k++ {
+		xa := nearCritAnchors[k]
+		tau := f.tc / (f.tc - xa*critBand)
+		dl, dv := m.densities(xa)
+		s, ok := f.satNewtonT(tau, dl, dv)
+		if !ok || !s.strict {
+			// From the last anchor's densities: right where the curve
+			// does not close toward Tc.
+			s, ok = f.satNewtonT(tau, m.m[m.n-1]+m.h[m.n-1], m.m[m.n-1]-m.h[m.n-1])
+		}
+		if !ok || !s.strict || !(s.dl-s.dv > 0) {
+			break
+		}
+		m.x[m.n], m.m[m.n], m.h[m.n] = xa, 0.5*(s.dl+s.dv), 0.5*(s.dl-s.dv)
+		m.n++
+	}
+	m.closes = true
+	for k := 1; k < m.n; k++ {
+		if math.Log(m.h[k-1]/m.h[k])/math.Log(m.x[k-1]/m.x[k]) < 0.2 {
+			m.closes = false
 		}
 	}
 	return m, true
 }
 
-// densities returns the model's reduced densities at x = (Tc − T)/critBand.
+// densities returns the model's reduced densities at x.
 func (m *nearCrit) densities(x float64) (dl, dv float64) {
-	mean := 1 + (m.m1-1)*x
-	var h float64
-	if x >= 0.1 {
-		h = m.h1 * math.Pow(x, m.beta)
+	k := 0
+	for k+1 < m.n && m.x[k+1] > x {
+		k++
+	}
+	var mean, h float64
+	if k+1 < m.n {
+		// Between anchors k and k+1.
+		u := (x - m.x[k+1]) / (m.x[k] - m.x[k+1])
+		mean = m.m[k+1] + (m.m[k]-m.m[k+1])*u
+		beta := math.Log(m.h[k]/m.h[k+1]) / math.Log(m.x[k]/m.x[k+1])
+		h = m.h[k+1] * math.Pow(x/m.x[k+1], beta)
 	} else {
-		h = m.h2 * math.Sqrt(10*x)
+		// Below the last anchor.
+		beta := 0.5
+		if m.n > 1 {
+			beta = math.Log(m.h[m.n-2]/m.h[m.n-1]) / math.Log(m.x[m.n-2]/m.x[m.n-1])
+			beta = min(max(beta, 0.3), 0.5)
+		}
+		xl := m.x[m.n-1]
+		mean = 1 + (m.m[m.n-1]-1)*x/xl
+		h = m.h[m.n-1] * math.Pow(x/xl, beta)
 	}
 	return mean + h, mean - h
 }
@@ -605,11 +663,38 @@ func (m *nearCrit) y(p float64) float64 {
 	return math.Max(y, -critBand)
 }
 
+// nearCritT returns the saturation at T, Tc − critBand < T < Tc.
+func (f *Fluid) nearCritT(T float64) (satPair, bool) {
+	y := T - f.tc
+	m, ok := f.nearCritModel(-y / critBand)
+	if !ok {
+		return satPair{}, false
+	}
+	return f.nearCritAt(&m, y, 0), true
+}
+
+// nearCritP returns the saturation at p if p lies at or above the model's
+// pressure at Tc − critBand; ok is false otherwise.
+func (f *Fluid) nearCritP(p float64) (s satPair, in, ok bool) {
+	m, ok := f.nearCritModel(0)
+	if !ok {
+		return s, false, false
+	}
+	if p < m.p1 {
+		return s, false, true
+	}
+	y := m.y(p)
+	if m, ok = f.nearCritModel(-y / critBand); !ok {
+		return s, true, false
+	}
+	return f.nearCritAt(&m, y, p), true, true
+}
+
 // nearCritAt returns the saturation at y = T − Tc in [−critBand, 0):
 // Newton's method (in the densities, or with p > 0 at that pressure in
-// densities and τ) started from the model, where it converges to
-// residuals at rounding level without leaving the model's neighbourhood;
-// the model otherwise.
+// densities and τ) started from the model, where it converges to its
+// residual bounds, or to the rounding floor without leaving the model's
+// neighbourhood; the model otherwise.
 func (f *Fluid) nearCritAt(m *nearCrit, y, p float64) satPair {
 	x := -y / critBand
 	if x >= 1 {
@@ -625,11 +710,32 @@ func (f *Fluid) nearCritAt(m *nearCrit, y, p float64) satPair {
 	} else {
 		s, ok = f.satNewtonT(tau, dl, dv)
 	}
-	if ok && math.Abs(s.dl-dl) <= 0.2*h && math.Abs(s.dv-dv) <= 0.2*h &&
-		math.Abs(s.tau-tau) <= 0.1*critBand/f.tc {
+	// Close to Tc the equation cannot tell apart states within a band of
+	// densities, and Newton's method, driven by rounding noise, may
+	// wander in it even while its residuals meet their bounds: its
+	// result stands only where it stays near the model (within 5 % of
+	// h), and the model's own values, monotone by construction and equal
+	// to rounding in the residuals there, are returned otherwise.
+	if ok && (!m.closes && s.strict || math.Abs(s.dl-dl) <= 0.05*h && math.Abs(s.dv-dv) <= 0.05*h &&
+		math.Abs(s.tau-tau) <= 0.01*critBand/f.tc) {
 		return s
 	}
-	s = satPair{tau: tau, dl: dl, dv: dv, p: m.p(y)}
+	if m.closes {
+		s = satPair{tau: tau, dl: dl, dv: dv}
+		s.rl = f.residual(dl, tau)
+		s.rv = f.residual(dv, tau)
+		return s
+	}
+	// An equation whose coexistence curve does not close at its
+	// reducing point (the model then misleads): the regular solver.
+	if p <= 0 {
+		if s, ok := f.satTSolve(tau); ok && s.strict {
+			return s
+		}
+	} else if s, ok := f.satNewtonP(p, f.tc/(f.tc-critBand), m.s1.dl, m.s1.dv); ok && s.strict {
+		return s
+	}
+	s = satPair{tau: tau, dl: dl, dv: dv}
 	s.rl = f.residual(dl, tau)
 	s.rv = f.residual(dv, tau)
 	return s
