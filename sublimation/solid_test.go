@@ -367,3 +367,35 @@ func TestTripleFractions(t *testing.T) {
 		}
 	}
 }
+
+// TestWithReference: a fluid's reference state shifts the solid as it
+// shifts the fluid, so the curves and the triple point do not move.
+func TestWithReference(t *testing.T) {
+	t.Parallel()
+	f, _ := fluid.Lookup("CO2")
+	g, err := f.WithReference(fluid.RefIIR)
+	if err != nil {
+		t.Fatal(err)
+	}
+	a, _ := For(f)
+	b, err := For(g)
+	if err != nil {
+		t.Fatal(err)
+	}
+	dh, ds := g.ReferenceOffsets()
+	if dh == 0 && ds == 0 {
+		t.Fatal("IIR offsets are zero")
+	}
+	ca, err1 := a.SublimationTemperature(101325)
+	cb, err2 := b.SublimationTemperature(101325)
+	if err1 != nil || err2 != nil || math.Abs(ca.T-cb.T) > 1e-9 ||
+		math.Abs(cb.Solid.H-ca.Solid.H-dh) > 1e-6 || math.Abs(cb.Fluid.H-ca.Fluid.H-dh) > 1e-6 ||
+		math.Abs(cb.Solid.S-ca.Solid.S-ds) > 1e-9 {
+		t.Errorf("reference offsets: %+v vs %+v (%v %v)", ca, cb, err1, err2)
+	}
+	ta, _ := a.Triple()
+	tb, _ := b.Triple()
+	if ta.T != tb.T || ta.P != tb.P || math.Abs(tb.Solid.H-ta.Solid.H-dh) > 1e-6 {
+		t.Errorf("triple with reference: %+v vs %+v", ta, tb)
+	}
+}
