@@ -53,12 +53,11 @@ import (
 // stored; they agree with the independent evaluation quoted in
 // shared/reference/co2-span-wagner-1996.md (0.517964 MPa, 1178.463 and
 // 13.7609 kg/m³), and tests prove both. The solid model of package
-// sublimation is built to meet the fluid there. RhoSolid = 1535 kg/m³ is the density implied at
-// the triple point by the paper's melting-curve slope and the fusion
-// enthalpy that its sublimation equation and the equation of state imply
-// (shared/reference/co2-solid-consistency.md; Clausius–Clapeyron), not a
-// measurement; the solid model finalises it (measured dry ice is about
-// 1560 kg/m³ near 195 K, from memory).
+// sublimation is built to meet the fluid there. RhoSolid = 1552.82 kg/m³
+// is the density of that dry-ice model at the triple point (proven by its
+// tests); the paper's melting-curve slope alone would imply about
+// 1535 kg/m³ (shared/reference/co2-solid-consistency.md), and measured dry
+// ice is about 1560 kg/m³ near 195 K (from memory).
 //
 // Auxiliary equations (Span–Wagner Section 3): vapour pressure and
 // saturated liquid and vapour densities for 216.592 K ≤ T ≤ Tc, for initial
@@ -89,7 +88,7 @@ func newCO2() *Fluid {
 			TFloor: 150, TCeil: 2000, PCeil: 10e9, RhoCeil: co2RhoCeil,
 		},
 		triple: TriplePoint{T: tt, P: 0.5179644576e6,
-			RhoSolid: 1535, RhoLiquid: 1178.462640, RhoVapor: 13.76088497},
+			RhoSolid: 1552.82, RhoLiquid: 1178.462640, RhoVapor: 13.76088497},
 		ideal: helmholtz.MustNewIdeal(helmholtz.IdealTerms{
 			A1: 8.37304456, A2: -3.70454304, LogTau: 2.5,
 			PlanckEinstein: []helmholtz.PlanckEinstein{
