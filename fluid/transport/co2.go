@@ -47,7 +47,7 @@ var co2Model = model{
 // with Tc = 304.1282 K, ρc = 467.6 kg/m³, R_D = 1.02,
 // q_D⁻¹ = 4.0e-10 m and η from Laesecke & Muzny (2017). Coefficients
 // recalled from memory of Huber et al. (2016), Tables 3, 4 and 5.
-func co2Coeffs(s *state, w which) Coefficients {
+func co2Coeffs(s state, w which) Coefficients {
 	const (
 		tc, rhoc = 304.1282, 467.6
 		rD       = 1.02

@@ -53,8 +53,12 @@ func rangeText(name string, T, p float64, b *band, i int, bands []band) string {
 	if i > 0 {
 		pLo = bands[i-1].pMax
 	}
-	return name + " holds " + fmtG(b.tMin) + " <= T <= " + fmtG(b.tMax) + " K for " +
-		fmtG(pLo) + " < p <= " + fmtG(b.pMax) + " Pa; here p = " + fmtG(p) + " Pa"
+	t := "T <= " + fmtG(b.tMax) + " K"
+	if b.tMin > 0 {
+		t = fmtG(b.tMin) + " <= " + t
+	}
+	return name + " holds " + t + " for " + fmtG(pLo) + " < p <= " + fmtG(b.pMax) +
+		" Pa; here p = " + fmtG(p) + " Pa"
 }
 
 // state is what the correlations need at one (T, ρ): the equation of state
@@ -78,7 +82,7 @@ type model struct {
 
 	// coeffs computes the requested coefficients at s, whose fields are
 	// filled and range-checked.
-	coeffs func(s *state, w which) Coefficients
+	coeffs func(s state, w which) Coefficients
 
 	sigma            func(T float64) float64 // N/m; nil if none
 	sigmaName        string
@@ -173,7 +177,7 @@ func eval(op string, f *fluid.Fluid, T, rho float64, w which) (Coefficients, err
 			return Coefficients{}, fluid.NewError(op, fluid.ErrOutOfRange, msg, inputs(T, rho)...)
 		}
 	}
-	return m.coeffs(&s, w), nil
+	return m.coeffs(s, w), nil
 }
 
 // fill evaluates f's equation of state at (T, rho) and, where the model

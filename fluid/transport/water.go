@@ -52,7 +52,7 @@ var waterModel = model{
 }
 
 // waterCoeffs evaluates R12-08 and R15-11 at s.
-func waterCoeffs(s *state, w which) Coefficients {
+func waterCoeffs(s state, w which) Coefficients {
 	tb, rb := s.T/waterTc, s.rho/waterRhoc
 	mu := waterMu0(tb) * waterMu1(tb, rb) * waterMu2(s.xi) // µPa·s
 	c := Coefficients{Viscosity: mu * 1e-6}
