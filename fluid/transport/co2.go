@@ -24,6 +24,10 @@ var co2Crit = critParams{
 
 var co2Model = model{
 	fluid: "CO2",
+	condName: "Huber, Sykioti, Assael and Perkins, J. Phys. Chem. Ref. Data 45, 013102 (2016), " +
+		"critical enhancement included; 216.592 K <= T <= 1100 K, p <= 200 MPa",
+	sigmaDoc: "Mulero, Cachadina and Parra, J. Phys. Chem. Ref. Data 41, 043105 (2012); " +
+		"216.592 K <= T <= 304.13 K",
 	// Huber et al. (2016): from the triple-point temperature to 1100 K at
 	// pressures up to 200 MPa (recalled from memory of the paper's
 	// abstract).

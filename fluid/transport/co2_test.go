@@ -79,3 +79,4 @@ func TestCO2CommonPractice(t *testing.T) {
 		t.Errorf("sigma(CO2, Tc) = %g N/m, %v; want 0", s, err)
 	}
 }
+

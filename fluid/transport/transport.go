@@ -58,7 +58,7 @@ func rangeText(name string, T, p float64, b *band, i int, bands []band) string {
 		t = fmtG(b.tMin) + " <= " + t
 	}
 	return name + " holds " + t + " for " + fmtG(pLo) + " < p <= " + fmtG(b.pMax) +
-		" Pa; here p = " + fmtG(p) + " Pa"
+		" Pa; here p = " + strconv.FormatFloat(p, 'g', 6, 64) + " Pa"
 }
 
 // state is what the correlations need at one (T, ρ): the equation of state
@@ -77,16 +77,18 @@ type state struct {
 type model struct {
 	fluid string // canonical fluid name
 
-	visc, cond *validity // nil where the fluid has no such correlation
-	crit       *critParams
+	viscName, condName string    // the publications, for Correlations
+	visc, cond         *validity // nil where the fluid has no such correlation
+	crit               *critParams
 
 	// coeffs computes the requested coefficients at s, whose fields are
 	// filled and range-checked.
 	coeffs func(s state, w which) Coefficients
 
 	sigma            func(T float64) float64 // N/m; nil if none
-	sigmaName        string
-	sigmaLo, sigmaHi float64 // K
+	sigmaName        string                  // short name, for messages
+	sigmaDoc         string                  // publication and range, for Correlations
+	sigmaLo, sigmaHi float64                 // K
 }
 
 // modelFor returns the correlations of f, or nil.
@@ -99,8 +101,27 @@ func modelFor(f *fluid.Fluid) *model {
 		return &waterModel
 	case "CO2":
 		return &co2Model
+	case "R134a":
+		return &r134aModel
 	}
 	return nil
+}
+
+// Sources names the correlations this package has for one fluid; an
+// empty string where it has none.
+type Sources struct {
+	Viscosity, Conductivity, SurfaceTension string
+}
+
+// Correlations returns the correlations this package uses for f, each
+// with its publication and range; empty strings for a fluid without them
+// (and for a nil f).
+func Correlations(f *fluid.Fluid) Sources {
+	m := modelFor(f)
+	if m == nil {
+		return Sources{}
+	}
+	return Sources{Viscosity: m.viscName, Conductivity: m.condName, SurfaceTension: m.sigmaDoc}
 }
 
 // Viscosity returns the dynamic viscosity η of fluid f in Pa·s at

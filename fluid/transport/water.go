@@ -27,6 +27,14 @@ var waterCrit = critParams{
 // waterModel: the water correlations.
 var waterModel = model{
 	fluid: "water",
+	viscName: "IAPWS R12-08 (IAPWS Formulation 2008 for the Viscosity of Ordinary Water Substance), " +
+		"critical enhancement included; T <= 1173.15 K for p <= 300 MPa, 873.15 K to 350 MPa, " +
+		"433.15 K to 500 MPa, 373.15 K to 1000 MPa",
+	condName: "IAPWS R15-11 (IAPWS Formulation 2011 for the Thermal Conductivity of Ordinary Water Substance), " +
+		"critical enhancement included; T <= 1173.15 K for p <= 100 MPa, 874 K to 250 MPa, " +
+		"573 K to 687 MPa, 403 K to 785 MPa, 348 K to 1000 MPa",
+	sigmaDoc: "IAPWS R1-76(2014) (Revised Release on Surface Tension of Ordinary Water Substance); " +
+		"248.15 K <= T <= 647.096 K",
 	// IAPWS R12-08, range of validity (recalled from memory of the
 	// release's section 2.2): from the melting or sublimation curve up to
 	// 1173.15 K for p ≤ 300 MPa, 873.15 K for p ≤ 350 MPa, 433.15 K for
