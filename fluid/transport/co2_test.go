@@ -17,22 +17,13 @@ import (
 // out 72.28 in a trial).
 func TestCO2ConductivityTable(t *testing.T) {
 	t.Parallel()
-	f := lookup(t, "CO2")
-	for _, c := range []checkRow{
+	checkTable(t, "Conductivity", lookup(t, "CO2"), Conductivity, 1e3, "mW/(m K)", []checkRow{
 		// Huber et al. (2016), table for computer verification (recalled from memory).
 		{250, 0, 12.99, 0.01},
 		{250, 2, 13.05, 0.01},
 		{250, 1058, 140.00, 0.01},
 		{310, 400, 73.04, 0.01},
-	} {
-		got, err := Conductivity(f, c.T, c.rho)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if math.Abs(got*1e3-c.want) > c.tol {
-			t.Errorf("Conductivity(CO2, %g K, %g kg/m3) = %.5f mW/(m K), want %.2f", c.T, c.rho, got*1e3, c.want)
-		}
-	}
+	})
 }
 
 // TestCO2ViscosityDilute checks the part of the internal Laesecke–Muzny
@@ -79,4 +70,3 @@ func TestCO2CommonPractice(t *testing.T) {
 		t.Errorf("sigma(CO2, Tc) = %g N/m, %v; want 0", s, err)
 	}
 }
-

@@ -91,7 +91,7 @@ func waterMu0(tb float64) float64 {
 // waterH are the coefficients H_ij of R12-08 Eq. (12), Table 2
 // (shared/reference/water-transport-iapws.md): row i is the power of
 // (1/T̄ − 1), column j the power of (ρ̄ − 1).
-var waterH = [6][7]float64{
+var waterH = [][]float64{
 	{5.20094e-1, 2.22531e-1, -2.81378e-1, 1.61913e-1, -3.25372e-2, 0, 0},
 	{8.50895e-2, 9.99115e-1, -9.06851e-1, 2.57399e-1, 0, 0, 0},
 	{-1.08374, 1.88797, -7.72479e-1, 0, 0, 0, 0},
@@ -102,17 +102,7 @@ var waterH = [6][7]float64{
 
 // waterMu1 is R12-08 Eq. (12), the residual factor of the viscosity.
 func waterMu1(tb, rb float64) float64 {
-	x, y := 1/tb-1, rb-1
-	sum := 0.0
-	for i := len(waterH) - 1; i >= 0; i-- {
-		row := &waterH[i]
-		inner := 0.0
-		for j := len(row) - 1; j >= 0; j-- {
-			inner = inner*y + row[j]
-		}
-		sum = sum*x + inner
-	}
-	return math.Exp(rb * sum)
+	return math.Exp(rb * bivariate(waterH, 1/tb-1, rb-1))
 }
 
 // waterMu2 is the critical enhancement of R12-08, Eqs. (14) to (21), at
@@ -163,7 +153,7 @@ func waterLambda0(tb float64) float64 {
 // waterL are the coefficients L_ij of R15-11 Eq. (17) (recalled from
 // memory of R15-11 Table 2): row i is the power of (1/T̄ − 1), column j
 // the power of (ρ̄ − 1).
-var waterL = [5][6]float64{
+var waterL = [][]float64{
 	{1.60397357, -0.646013523, 0.111443906, 0.102997357, -0.0504123634, 0.00609859258},
 	{2.33771842, -2.78843778, 1.53616167, -0.463045512, 0.0832827019, -0.00719201245},
 	{2.19650529, -4.54580785, 3.55777244, -1.40944978, 0.275418278, -0.0205938816},
@@ -174,17 +164,20 @@ var waterL = [5][6]float64{
 // waterLambda1 is R15-11 Eq. (17), the residual factor of the thermal
 // conductivity.
 func waterLambda1(tb, rb float64) float64 {
-	x, y := 1/tb-1, rb-1
+	return math.Exp(rb * bivariate(waterL, 1/tb-1, rb-1))
+}
+
+// bivariate returns Σ_i x^i Σ_j c[i][j] y^j by Horner's rule in both.
+func bivariate(c [][]float64, x, y float64) float64 {
 	sum := 0.0
-	for i := len(waterL) - 1; i >= 0; i-- {
-		row := &waterL[i]
+	for i := len(c) - 1; i >= 0; i-- {
 		inner := 0.0
-		for j := len(row) - 1; j >= 0; j-- {
-			inner = inner*y + row[j]
+		for j := len(c[i]) - 1; j >= 0; j-- {
+			inner = inner*y + c[i][j]
 		}
 		sum = sum*x + inner
 	}
-	return math.Exp(rb * sum)
+	return sum
 }
 
 // waterSigma is IAPWS R1-76(2014): σ = B τ^μ (1 + b τ), τ = 1 − T/Tc, in

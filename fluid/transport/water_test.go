@@ -24,6 +24,24 @@ type checkRow struct {
 	T, rho, want, tol float64
 }
 
+// checkTable compares fn(f, T, rho)·scale with each row; unit names the
+// table's unit for messages.
+func checkTable(t *testing.T, what string, f *fluid.Fluid, fn func(*fluid.Fluid, float64, float64) (float64, error),
+	scale float64, unit string, rows []checkRow) {
+	t.Helper()
+	for _, c := range rows {
+		got, err := fn(f, c.T, c.rho)
+		if err != nil {
+			t.Errorf("%s(%s, %g K, %g kg/m3): %v", what, f.Name(), c.T, c.rho, err)
+			continue
+		}
+		if math.Abs(got*scale-c.want) > c.tol {
+			t.Errorf("%s(%s, %g K, %g kg/m3) = %.10g %s, want %.10g within %g", what, f.Name(), c.T, c.rho,
+				got*scale, unit, c.want, c.tol)
+		}
+	}
+}
+
 // TestWaterViscosityTable checks μ̄0·μ̄1 of IAPWS R12-08 (μ̄2 = 1) against
 // the release's check table for Eq. (10), in µPa·s, as transcribed in
 // shared/reference/water-transport-iapws.md.
@@ -56,8 +74,7 @@ func TestWaterViscosityTable(t *testing.T) {
 // ζ), against the release's check table at 647.35 K.
 func TestWaterViscosityCritical(t *testing.T) {
 	t.Parallel()
-	f := lookup(t, "water")
-	for _, c := range []checkRow{
+	checkTable(t, "Viscosity", lookup(t, "water"), Viscosity, 1e6, "uPa s", []checkRow{
 		// IAPWS R12-08 Table 4, T = 647.35 K, µPa·s (recalled from memory).
 		{647.35, 122, 25.520677, 1e-6},
 		{647.35, 222, 31.337589, 1e-6},
@@ -65,15 +82,7 @@ func TestWaterViscosityCritical(t *testing.T) {
 		{647.35, 322, 42.961579, 1e-6},
 		{647.35, 372, 45.688204, 1e-6},
 		{647.35, 422, 49.436256, 1e-6},
-	} {
-		got, err := Viscosity(f, c.T, c.rho)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if math.Abs(got*1e6-c.want) > c.tol {
-			t.Errorf("Viscosity(water, %g K, %g kg/m3) = %.9f uPa s, want %.6f", c.T, c.rho, got*1e6, c.want)
-		}
-	}
+	})
 }
 
 // TestWaterMu2Branches checks, without any remembered value, that the two
@@ -131,7 +140,7 @@ func TestWaterConductivityTable(t *testing.T) {
 func TestWaterConductivityCritical(t *testing.T) {
 	t.Parallel()
 	f := lookup(t, "water")
-	for _, c := range []checkRow{
+	rows := []checkRow{
 		// IAPWS R15-11 Table 5, T = 647.35 K, mW/(m·K) (recalled from memory).
 		{647.35, 1, 51.9298924, 1e-7},
 		{647.35, 122, 130.922885, 1e-6},
@@ -141,21 +150,14 @@ func TestWaterConductivityCritical(t *testing.T) {
 		{647.35, 372, 650.319402, 1e-6},
 		{647.35, 422, 448.883487, 1e-6},
 		{647.35, 750, 600.961346, 1e-6},
-	} {
-		got, err := Conductivity(f, c.T, c.rho)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if math.Abs(got*1e3-c.want) > c.tol {
-			t.Errorf("Conductivity(water, %g K, %g kg/m3) = %.10f mW/(m K), want %.9g", c.T, c.rho, got*1e3, c.want)
-		}
+	}
+	checkTable(t, "Conductivity", f, Conductivity, 1e3, "mW/(m K)", rows)
+	for _, c := range rows {
 		both, err := At(f, c.T, c.rho)
-		if err != nil {
-			t.Fatal(err)
-		}
 		eta, _ := Viscosity(f, c.T, c.rho)
-		if both.Conductivity != got || both.Viscosity != eta {
-			t.Errorf("At(water, %g K, %g kg/m3) = %+v, want {%g %g}", c.T, c.rho, both, eta, got)
+		lam, _ := Conductivity(f, c.T, c.rho)
+		if err != nil || both.Conductivity != lam || both.Viscosity != eta {
+			t.Errorf("At(water, %g K, %g kg/m3) = %+v, %v; want {%g %g}", c.T, c.rho, both, err, eta, lam)
 		}
 	}
 }
