@@ -188,6 +188,12 @@ func eval(op string, f *fluid.Fluid, T, rho float64, w which) (Coefficients, err
 	if err := m.fill(f, &s, T, rho); err != nil {
 		return Coefficients{}, fluid.NewError(op, err, "", inputs(T, rho)...)
 	}
+	if rho > 0 && !(s.p > 0) {
+		// Stretched liquid, or the equation of state extrapolated past
+		// sense: every correlation's range begins at p > 0.
+		return Coefficients{}, fluid.NewError(op, fluid.ErrOutOfRange, "the correlations hold for p > 0; here p = "+
+			strconv.FormatFloat(s.p, 'g', 6, 64)+" Pa", inputs(T, rho)...)
+	}
 	if w&wantViscosity != 0 {
 		if msg, ok := m.visc.check(T, s.p); !ok {
 			return Coefficients{}, fluid.NewError(op, fluid.ErrOutOfRange, msg, inputs(T, rho)...)
@@ -206,6 +212,12 @@ func eval(op string, f *fluid.Fluid, T, rho float64, w which) (Coefficients, err
 func (m *model) fill(f *fluid.Fluid, s *state, T, rho float64) error {
 	s.T, s.rho = T, rho
 	if rho == 0 {
+		// The zero-density limit: no equation-of-state call to judge T,
+		// so apply its accepted temperatures here.
+		if l := f.Limits(); T < l.TFloor || T > l.TCeil {
+			return fluid.NewError("fluid.Limits", fluid.ErrOutOfRange, "valid range "+fmtG(l.TFloor)+
+				" <= T <= "+fmtG(l.TCeil)+" K for "+f.Name(), fluid.Input{Name: "T", Value: T, Unit: "K"})
+		}
 		return nil
 	}
 	p, err := f.Props(T, rho)
