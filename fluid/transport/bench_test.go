@@ -1,7 +1,9 @@
 package transport
 
 import (
+	"slices"
 	"testing"
+	"time"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
 )
@@ -71,4 +73,57 @@ func BenchmarkSurfaceTension(b *testing.B) {
 		s, _ := SurfaceTension(f, 350)
 		sink += s
 	}
+}
+
+// BenchmarkRatio measures the cost of each coefficient in Props
+// evaluations at the same state by interleaved trials (Props, then the
+// coefficient, 31 times, 200 calls each), which cancels the drift of a
+// loaded machine, and reports the median ratio as Props/op; ns/op is that
+// of the whole measurement and means nothing.
+func BenchmarkRatio(b *testing.B) {
+	for _, s := range benchStates {
+		f, err := fluid.Lookup(s.fluid)
+		if err != nil {
+			b.Fatal(err)
+		}
+		T, rho := s.T, s.rho
+		props := func() { p, _ := f.Props(T, rho); sink += p.Cp }
+		for _, c := range []struct {
+			name string
+			fn   func() (float64, error)
+		}{
+			{"Viscosity", func() (float64, error) { return Viscosity(f, T, rho) }},
+			{"Conductivity", func() (float64, error) { return Conductivity(f, T, rho) }},
+			{"At", func() (float64, error) { c, err := At(f, T, rho); return c.Conductivity, err }},
+		} {
+			if _, err := c.fn(); err != nil {
+				continue
+			}
+			b.Run(s.fluid+"/"+s.region+"/"+c.name, func(b *testing.B) {
+				var med float64
+				for b.Loop() {
+					med = medianRatio(props, func() { v, _ := c.fn(); sink += v })
+				}
+				b.ReportMetric(med, "Props/op")
+			})
+		}
+	}
+}
+
+func medianRatio(ref, fn func()) float64 {
+	const trials, calls = 31, 200
+	var r [trials]float64
+	for k := range r {
+		t0 := time.Now()
+		for range calls {
+			ref()
+		}
+		t1 := time.Now()
+		for range calls {
+			fn()
+		}
+		r[k] = float64(time.Since(t1)) / float64(t1.Sub(t0))
+	}
+	slices.Sort(r[:])
+	return r[trials/2]
 }
