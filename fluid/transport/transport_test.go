@@ -167,3 +167,47 @@ func FuzzAt(f *testing.F) {
 		}
 	})
 }
+
+// TestCrossoverSmall checks the crossover function against its own
+// expansion for small y, Z = y/π + O(y²), which follows from the formula
+// alone (no remembered value), and that it is zero below the cut 1.2e-7.
+func TestCrossoverSmall(t *testing.T) {
+	t.Parallel()
+	for _, k := range []float64{0.1, 0.5, 0.9} {
+		for _, y := range []float64{1e-6, 1e-5, 1e-4} {
+			z := crossover(y, k, 1)
+			if math.Abs(z/(y/math.Pi)-1) > 10*y {
+				t.Errorf("Z(%g; cv/cp = %g) = %g, want %g + O(y^2)", y, k, z, y/math.Pi)
+			}
+		}
+		if z := crossover(1e-8, k, 1); z != 0 {
+			t.Errorf("Z(1e-8) = %g, want 0", z)
+		}
+	}
+}
+
+// TestConcurrent: the functions are safe for concurrent use and give the
+// serial results.
+func TestConcurrent(t *testing.T) {
+	t.Parallel()
+	w := lookup(t, "water")
+	want, err := At(w, 647.35, 322)
+	if err != nil {
+		t.Fatal(err)
+	}
+	done := make(chan Coefficients)
+	for range 8 {
+		go func() {
+			var c Coefficients
+			for range 50 {
+				c, _ = At(w, 647.35, 322)
+			}
+			done <- c
+		}()
+	}
+	for range 8 {
+		if c := <-done; c != want {
+			t.Errorf("concurrent At = %+v, want %+v", c, want)
+		}
+	}
+}
