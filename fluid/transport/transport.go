@@ -132,13 +132,15 @@ func Correlations(f *fluid.Fluid) Sources {
 // its equation of state gives at (T, rho); the lower temperature bound
 // there is the melting or sublimation curve, which this package does not
 // judge (as package fluid does not): a state inside a solid region gets
-// the fluid correlation's value.
+// the fluid correlation's value. Accuracy is that of the correlation (its
+// publication states it by region); the implementation reproduces the
+// publication's check values to their printed digits (see the tests).
 //
 // Special cases are:
 //
 //	f without a viscosity correlation: error wrapping fluid.ErrUndefined
 //	T or rho NaN or ±Inf, T ≤ 0 or rho < 0: fluid.ErrInvalidInput
-//	(T, p) outside the correlation's range: fluid.ErrOutOfRange
+//	(T, p) outside the correlation's range, or p ≤ 0: fluid.ErrOutOfRange
 //	(T, rho) rejected by f.Props (outside the equation of state's region,
 //	  mechanically unstable): that error, wrapped
 //	exactly the critical point, where η diverges: fluid.ErrUndefined
