@@ -54,9 +54,9 @@ func (c *curves) pmelt(T float64) float64 {
 type region int8
 
 const (
-	regionFluid region = iota
-	regionSolid        // solid, or solid in equilibrium with a fluid
-	regionBeyond       // outside every model (other ices, below the curves' range)
+	regionFluid  region = iota
+	regionSolid         // solid, or solid in equilibrium with a fluid
+	regionBeyond        // outside every model (other ices, below the curves' range)
 )
 
 // classify places (T, p) against the solid curves. For a fluid state it
