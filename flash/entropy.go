@@ -127,14 +127,14 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 	if g := k.opt.Guess; g != nil && g.P > 0 {
 		p0 = g.P
 	}
-	pmin := 1e-3 * max(k.c.pt, 1e-3)
+	pmin := 1e-12 * c.P
 	plo, phi := math.Log(pmin), math.Log(lim.PCeil)
 	inner := k.opt
 	var last State
 	have := false
 	lp := 0.0
 	// A pressure where the isentrope has a fluid state.
-	for _, m := range []float64{1, 10, 0.1, 100, 0.01, 1e3, 1e-3, 1e4, 1e-4, 1e5, 1e-5, 1e6, 1e-6} {
+	for _, m := range []float64{1, 10, 0.1, 100, 0.01, 1e3, 1e-3, 1e4, 1e-4, 1e5, 1e-5, 1e-6, 1e-7, 1e-8, 1e-10, 1e-12} {
 		pp := min(max(p0*m, pmin), lim.PCeil)
 		if st, err := PSWith(f, pp, s, inner); err == nil {
 			last, have, lp = st, true, math.Log(pp)

@@ -127,6 +127,10 @@ func (k *call) notWanted(got Phase) error {
 // finish checks a single-phase result against the solid curves and the
 // request, and builds the state.
 func (k *call) finish(pr *fluid.Props) (State, error) {
+	if lim := k.f.Limits(); pr.P > lim.PCeil*(1+1e-9) {
+		return State{}, k.fail(fluid.ErrOutOfRange, "p = "+fmtG(pr.P)+" Pa exceeds the accepted "+
+			fmtG(lim.PCeil)+" Pa of "+k.f.Name())
+	}
 	r, on, why := k.c.classify(pr.T, pr.P)
 	if r != regionFluid {
 		return State{}, k.c.regionError(k.op, r, why, k.in[0], k.in[1])
@@ -491,7 +495,7 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 	if st, ok := k.isobaricWarm(p, X, x); ok {
 		return st, nil
 	}
-	Tf, _ := k.c.freezeT(p)
+	Tf, floor := k.c.freezeT(p)
 	if p >= c.P || p < k.c.pt {
 		// One fluid phase along the isobar.
 		sd := anySide
@@ -504,8 +508,8 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 		if err != nil {
 			return State{}, k.rewrap(err)
 		}
-		if p < k.c.pt && x < X.of(&pr0) {
-			return State{}, k.c.solidError(k.op, "below the sublimation temperature", k.in[0], k.in[1])
+		if p < k.c.pt && x < X.of(&pr0)-X.tol(f, &pr0, x) {
+			return State{}, k.c.lowError(k.op, floor, k.in[0], k.in[1])
 		}
 		return k.isobarSingle(p, X, x, &pr0, sd, Tf, lim.TCeil, false)
 	}
@@ -679,8 +683,9 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 					}
 				}
 				return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
-			case below && tlo > lim.TFloor:
-				return State{}, k.c.solidError(k.op, "below the sublimation or melting temperature", k.in[0], k.in[1])
+			case below:
+				_, floor := k.c.freezeT(p)
+				return State{}, k.c.lowError(k.op, floor || tlo <= lim.TFloor, k.in[0], k.in[1])
 			case below || above:
 				return State{}, k.fail(fluid.ErrOutOfRange, "beyond the accepted temperature range "+
 					fmtG(lim.TFloor)+" <= T <= "+fmtG(lim.TCeil)+" K")
@@ -693,9 +698,9 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		}
 		return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
 	}
-	Tf, _ := k.c.freezeT(p)
+	Tf, floor := k.c.freezeT(p)
 	if pr.T < Tf*(1-1e-11) && !meta {
-		return State{}, k.c.solidError(k.op, "below the sublimation or melting temperature", k.in[0], k.in[1])
+		return State{}, k.c.lowError(k.op, floor, k.in[0], k.in[1])
 	}
 	st, err := k.finish(&pr)
 	if err != nil {

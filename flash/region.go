@@ -40,13 +40,15 @@ func curvesOf(f *fluid.Fluid) curves {
 	return c
 }
 
+// psub and pmelt evaluate the curves, with T held inside their ranges
+// (a temperature a rounding error outside is at the end).
 func (c *curves) psub(T float64) float64 {
-	p, _ := c.f.AuxSublimationPressure(T)
+	p, _ := c.f.AuxSublimationPressure(min(max(T, c.subLo), c.subHi))
 	return p
 }
 
 func (c *curves) pmelt(T float64) float64 {
-	p, _ := c.f.AuxMeltingPressure(T)
+	p, _ := c.f.AuxMeltingPressure(min(max(T, c.meltLo), c.meltHi))
 	return p
 }
 
@@ -119,9 +121,11 @@ func (c *curves) regionError(op string, r region, why string, in ...fluid.Input)
 // freezeT returns the lowest temperature at which the fluid exists at
 // pressure p, by the solid curves: the sublimation temperature below the
 // triple-point pressure, the melting temperature above it (for a melting
-// curve rising with T), the triple-point temperature otherwise. ok is
-// false where no fluid exists at p at any T the curves cover.
-func (c *curves) freezeT(p float64) (T float64, ok bool) {
+// curve rising with T), the triple-point temperature otherwise. floor is
+// true where that is instead the lowest accepted temperature of the
+// equation (the vapour at a pressure below the sublimation pressure
+// there).
+func (c *curves) freezeT(p float64) (T float64, floor bool) {
 	lim := c.f.Limits()
 	switch {
 	case p < c.pt && c.hasSub:
@@ -129,20 +133,31 @@ func (c *curves) freezeT(p float64) (T float64, ok bool) {
 		if p < c.psub(lo) {
 			return lo, true // the vapour exists down to the floor
 		}
-		return invertCurve(c.psub, p, lo, hi), true
+		return invertCurve(c.psub, p, lo, hi), false
 	case p >= c.pt && c.hasMelt && !c.anomalous:
 		if p > c.pMeltEnd {
-			return c.meltHi, true
+			return c.meltHi, false
 		}
-		return invertCurve(c.pmelt, p, c.meltLo, c.meltHi), true
+		return invertCurve(c.pmelt, p, c.meltLo, c.meltHi), false
 	case p >= c.pt && c.hasMelt && c.anomalous:
 		if p > c.pMeltEnd {
-			return c.tt, true
+			return c.tt, false
 		}
 		// The liquid exists below Tt down to the melting curve.
-		return invertCurve(c.pmelt, p, c.meltLo, c.meltHi), true
+		return invertCurve(c.pmelt, p, c.meltLo, c.meltHi), false
 	}
-	return max(c.tt, lim.TFloor), true
+	return max(c.tt, lim.TFloor), c.tt <= lim.TFloor
+}
+
+// lowError is the error for a state below the lowest fluid temperature
+// at p: the solid region, or below the equation's accepted range.
+func (c *curves) lowError(op string, floor bool, in ...fluid.Input) error {
+	if floor {
+		lim := c.f.Limits()
+		return fluid.NewError(op, fluid.ErrOutOfRange, "below the accepted temperature "+
+			fmtG(lim.TFloor)+" K of "+c.f.Name(), in...)
+	}
+	return c.solidError(op, "below the sublimation or melting temperature", in...)
 }
 
 // invertCurve returns T in [lo, hi] with fn(T) = p for a monotone curve,

@@ -86,11 +86,14 @@ func (q quantity) floor(f *fluid.Fluid, pr *fluid.Props, v float64) float64 {
 	return 100 * q.tol(f, pr, v)
 }
 
-// props evaluates f at (T, ρ); ok is false where there is no usable
-// state (out of range, or mechanically unstable unless allowed).
+// props evaluates f at (T, ρ) for an iteration; ok is false where there
+// is no usable state (outside the accepted T and ρ, or mechanically
+// unstable). A pressure above the accepted ceiling is usable on the way
+// (Props returns its values with the error); results are checked by
+// finish.
 func props(f *fluid.Fluid, T, rho float64) (fluid.Props, bool) {
 	pr, err := f.Props(T, rho)
-	if err != nil {
+	if err != nil && !(errors.Is(err, fluid.ErrOutOfRange) && pr.P > f.Limits().PCeil) {
 		return pr, false
 	}
 	return pr, finiteProps(&pr)
@@ -201,9 +204,10 @@ func newton1(f *fluid.Fluid, q quantity, v, T, rho float64, varyT bool, lo, hi f
 		lo, hi = math.Log(lo), math.Log(hi)
 		x, fwd = math.Log(rho), math.Exp
 	}
-	if !(x > lo && x < hi) {
+	if !(x >= lo && x <= hi) {
 		x = 0.5 * (lo + hi)
 	}
+	lo0, hi0 := lo, hi
 	w := watch{best: math.Inf(1)}
 	var pr fluid.Props
 	sign := 0.0 // the sign of dq/dx, learnt from the first good point
@@ -260,7 +264,14 @@ func newton1(f *fluid.Fluid, q quantity, v, T, rho float64, varyT bool, lo, hi f
 			lo = x
 		}
 		xn := x - r/d
-		if !(xn > lo && xn < hi) || !isFinite(xn) {
+		switch {
+		case !isFinite(xn):
+			xn = 0.5 * (lo + hi)
+		case xn <= lo && x != lo0 && lo == lo0:
+			xn = lo0 // the root may lie at the end of the bracket
+		case xn >= hi && x != hi0 && hi == hi0:
+			xn = hi0
+		case !(xn > lo && xn < hi):
 			xn = 0.5 * (lo + hi)
 		}
 		lastStep = math.Abs(xn-x) / max(math.Abs(x), 1)

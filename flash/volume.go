@@ -42,7 +42,7 @@ func DTWith(f *fluid.Fluid, rho, T float64, opt Options) (State, error) {
 	}
 	c := f.Critical()
 	pr, perr := f.Props(T, rho)
-	ok := perr == nil && finiteProps(&pr)
+	ok := (perr == nil || isRangeErr(perr) && pr.P > f.Limits().PCeil) && finiteProps(&pr)
 	if T >= c.T || T < k.c.tt {
 		if !ok {
 			if T < k.c.tt && perr != nil && !isRangeErr(perr) {
@@ -375,21 +375,33 @@ func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
 	if p >= c.P {
 		T0 = max(T0, c.T*1.01)
 	}
-	if g := k.opt.Guess; g != nil && g.T > 0 {
-		T0 = g.T
-	}
-	if p < c.P && p >= k.c.pt {
+	Tf, _ := k.c.freezeT(p)
+	tlo = max(tlo, Tf*(1-1e-11))
+	// The liquid-like side: T between the freezing temperature and the
+	// saturation (or critical) temperature, started at the top: the
+	// isochore meets the dome below the solution, not above it.
+	switch {
+	case p < c.P && p >= k.c.pt:
 		s, err := k.satP(p)
 		if err == nil {
 			if q, in := qualityOf(rho, &s); in {
 				return k.finishSat(&s, q)
 			}
 			if rho >= s.Liquid.Rho {
-				thi, T0 = s.T, s.T*(1-1e-6)
+				thi, T0 = s.T, s.T*(1-1e-9)
 			} else {
-				tlo, T0 = s.T, max(T0, s.T*(1+1e-6))
+				// The vapour, from the saturated vapour's Z.
+				tlo = s.T
+				T0 = max(s.T, p/(rho*f.GasConstant()*s.Vapor.Z))
 			}
 		}
+	case p >= c.P && rho > c.Rho:
+		if pc, err := f.PropsTP(c.T, p, fluid.RootStable, 0); err == nil && rho >= pc.Rho {
+			thi, T0 = c.T, c.T
+		}
+	}
+	if g := k.opt.Guess; g != nil && g.T > 0 {
+		T0 = g.T
 	}
 	pr, ok := solve1(f, qP, p, min(max(T0, tlo), thi), rho, true, tlo, thi)
 	if !ok {
