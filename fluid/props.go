@@ -103,7 +103,7 @@ func (f *Fluid) checkProps(op string, p *Props) error {
 // offsets are not included.
 func (f *Fluid) Derivs(T, rho float64) (ideal, resid helmholtz.Derivs) {
 	delta, tau := rho/f.rhoc, f.tc/T
-	return f.ideal.Eval(delta, tau), f.resid.Eval(delta, tau)
+	return f.ideal.Eval(delta, tau), f.residual(delta, tau)
 }
 
 // Reducing returns the reducing temperature Tc in K and density ρc in
@@ -114,7 +114,7 @@ func (f *Fluid) Reducing() (Tc, rhoc float64) { return f.tc, f.rhoc }
 func (f *Fluid) props(T, rho float64) Props {
 	delta, tau := rho/f.rhoc, f.tc/T
 	i := f.ideal.Eval(delta, tau)
-	r := f.resid.Eval(delta, tau)
+	r := f.residual(delta, tau)
 	return f.fromDerivs(T, rho, delta, tau, &i, &r)
 }
 
