@@ -23,6 +23,9 @@
 //	       surface       A. Mulero, I. Cachadiña and M. I. Parra,
 //	                     J. Phys. Chem. Ref. Data 41, 043105 (2012)
 //
+// Of gives the viscosity and conductivity of each fluid phase of a state
+// returned by package flash (which never imports this package).
+//
 // Every function is safe for concurrent use and allocates nothing unless
 // it returns an error.
 package transport

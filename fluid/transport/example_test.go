@@ -3,6 +3,7 @@ package transport_test
 import (
 	"fmt"
 
+	"github.com/tripoint-thermo/tripoint/flash"
 	"github.com/tripoint-thermo/tripoint/fluid"
 	"github.com/tripoint-thermo/tripoint/fluid/transport"
 )
@@ -45,4 +46,27 @@ func ExampleSurfaceTension() {
 	fmt.Printf("%.2f mN/m\n", s*1e3)
 	// Output:
 	// 58.91 mN/m
+}
+
+// Boiling water at 100 °C: the coefficients of each coexisting phase of a
+// flash state.
+func ExampleOf() {
+	water, _ := fluid.Lookup("water")
+	st, err := flash.TQ(water, 373.15, 0.5)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	r, err := transport.Of(water, st)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, ph := range r.Phases[:r.N] {
+		fmt.Printf("%-6s rho %8.3f kg/m3  eta %7.2f uPa s  lambda %.4f W/(m K)\n",
+			ph.Phase, ph.Rho, ph.Viscosity*1e6, ph.Conductivity)
+	}
+	// Output:
+	// Liquid rho  958.349 kg/m3  eta  281.58 uPa s  lambda 0.6772 W/(m K)
+	// Vapor  rho    0.598 kg/m3  eta   12.23 uPa s  lambda 0.0246 W/(m K)
 }

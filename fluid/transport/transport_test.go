@@ -6,6 +6,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/tripoint-thermo/tripoint/flash"
 	"github.com/tripoint-thermo/tripoint/fluid"
 )
 
@@ -126,10 +127,15 @@ func TestNearCritical(t *testing.T) {
 func TestAllocs(t *testing.T) {
 	w := lookup(t, "water")
 	c := lookup(t, "CO2")
+	st, err := flash.TQ(w, 373.15, 0.3)
+	if err != nil {
+		t.Fatal(err)
+	}
 	for _, tc := range []struct {
 		name string
 		fn   func()
 	}{
+		{"Of", func() { Of(w, st) }},
 		{"Viscosity", func() { Viscosity(w, 647.35, 322) }},
 		{"Conductivity", func() { Conductivity(w, 647.35, 322) }},
 		{"At", func() { At(w, 300, 998) }},
