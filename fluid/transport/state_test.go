@@ -86,3 +86,28 @@ func TestOf(t *testing.T) {
 		t.Errorf("Of(CO2): %v, want ErrUndefined", err)
 	}
 }
+
+// FuzzOf: no state, however malformed, makes Of panic; with a nil error
+// every returned phase is a fluid one with finite, positive coefficients.
+func FuzzOf(f *testing.F) {
+	w, _ := fluid.Lookup("water")
+	f.Add(300.0, 998.0, 1, int32(1), int32(2))
+	f.Add(373.15, 958.0, 2, int32(1), int32(2))
+	f.Add(260.0, 920.0, 2, int32(5), int32(2))
+	f.Add(300.0, 1.0, -1, int32(9), int32(0))
+	f.Fuzz(func(t *testing.T, T, rho float64, n int, k0, k1 int32) {
+		st := flash.State{T: T, N: n}
+		st.Phases[0] = flash.PhaseState{Phase: flash.Phase(k0), Rho: rho}
+		st.Phases[1] = flash.PhaseState{Phase: flash.Phase(k1), Rho: rho / 100}
+		r, err := Of(w, st)
+		if err != nil {
+			return
+		}
+		for _, ph := range r.Phases[:r.N] {
+			if ph.Phase == flash.Solid || !(ph.Viscosity > 0 && ph.Conductivity > 0) ||
+				math.IsInf(ph.Viscosity, 0) || math.IsInf(ph.Conductivity, 0) {
+				t.Errorf("Of(%+v) phase %+v", st, ph)
+			}
+		}
+	})
+}
