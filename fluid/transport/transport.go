@@ -32,8 +32,8 @@ type validity struct {
 	bands []band // by increasing pMax
 }
 
-// check returns nil if (T, p) lies in v, and otherwise the text of the
-// range that applies.
+// check reports whether (T, p) lies in v and, if not, returns the text
+// of the range that applies.
 func (v *validity) check(T, p float64) (string, bool) {
 	for i := range v.bands {
 		b := &v.bands[i]
@@ -187,8 +187,8 @@ func eval(op string, f *fluid.Fluid, T, rho float64, w which) (Coefficients, err
 			"T must be finite and positive, rho finite and not negative", inputs(T, rho)...)
 	}
 	var s state
-	if err := m.fill(f, &s, T, rho); err != nil {
-		return Coefficients{}, fluid.NewError(op, err, "", inputs(T, rho)...)
+	if err := m.fill(op, f, &s, T, rho); err != nil {
+		return Coefficients{}, err
 	}
 	if rho > 0 && !(s.p > 0) {
 		// Stretched liquid, or the equation of state extrapolated past
@@ -211,23 +211,24 @@ func eval(op string, f *fluid.Fluid, T, rho float64, w which) (Coefficients, err
 
 // fill evaluates f's equation of state at (T, rho) and, where the model
 // has a critical enhancement, at its reference temperature.
-func (m *model) fill(f *fluid.Fluid, s *state, T, rho float64) error {
+// Its errors are those of operation op.
+func (m *model) fill(op string, f *fluid.Fluid, s *state, T, rho float64) error {
 	s.T, s.rho = T, rho
 	if rho == 0 {
 		// The zero-density limit: no equation-of-state call to judge T,
 		// so apply its accepted temperatures here.
 		if l := f.Limits(); T < l.TFloor || T > l.TCeil {
-			return fluid.NewError("fluid.Limits", fluid.ErrOutOfRange, "valid range "+fmtG(l.TFloor)+
-				" <= T <= "+fmtG(l.TCeil)+" K for "+f.Name(), fluid.Input{Name: "T", Value: T, Unit: "K"})
+			return fluid.NewError(op, fluid.ErrOutOfRange, "valid range "+fmtG(l.TFloor)+
+				" <= T <= "+fmtG(l.TCeil)+" K for "+f.Name(), inputs(T, rho)...)
 		}
 		return nil
 	}
 	p, err := f.Props(T, rho)
 	if err != nil {
-		return err
+		return fluid.NewError(op, err, "", inputs(T, rho)...)
 	}
 	if p.Flags&fluid.AtCritical != 0 {
-		return fluid.NewError("fluid.Props", fluid.ErrUndefined,
+		return fluid.NewError(op, fluid.ErrUndefined,
 			"viscosity and thermal conductivity diverge at the critical point", inputs(T, rho)...)
 	}
 	s.p, s.cp, s.cv, s.dpdrho = p.P, p.Cp, p.Cv, p.DpDrho

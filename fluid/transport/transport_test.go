@@ -32,6 +32,7 @@ func TestErrors(t *testing.T) {
 		{"water above 1000 MPa", w, 300, 1300, fluid.ErrOutOfRange, "up to p = 1e+09 Pa"},
 		{"water below the EoS floor", w, 150, 1, fluid.ErrOutOfRange, "fluid.Props"},
 		{"water negative p", w, 241, 2994, fluid.ErrOutOfRange, "p > 0"},
+		{"water dilute limit too cold", w, 100, 0, fluid.ErrOutOfRange, "200 <= T"},
 		{"water unstable", w, 600, 300, fluid.ErrUnstable, "spinodal"},
 		{"water at the critical point", w, waterTc, waterRhoc, fluid.ErrUndefined, "critical point"},
 		{"CO2 below the triple point", c, 200, 1, fluid.ErrOutOfRange, "216.592"},

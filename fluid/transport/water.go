@@ -55,7 +55,8 @@ var waterModel = model{
 	sigmaName: "IAPWS R1-76(2014)",
 	// The release: from the triple point to the critical point; it states
 	// that the equation also gives accurate values extrapolated into the
-	// supercooled liquid down to −25 °C, which is accepted.
+	// supercooled liquid down to −25 °C (recalled from memory), which is
+	// accepted.
 	sigmaLo: 248.15, sigmaHi: waterTc,
 }
 
