@@ -29,9 +29,9 @@ func TS(f *fluid.Fluid, T, s float64) (State, error) { return TSWith(f, T, s, Op
 
 // TSWith is TS with options: a warm start and a requested phase.
 func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
-	k, err := newCall(f, "flash.TS", fluid.Input{Name: "T", Value: T, Unit: "K"},
-		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt)
-	if err != nil {
+	var k call
+	if err := k.init(f, "flash.TS", fluid.Input{Name: "T", Value: T, Unit: "K"},
+		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt); err != nil {
 		return State{}, err
 	}
 	if err := k.positive(0); err != nil {
@@ -116,9 +116,9 @@ func HS(f *fluid.Fluid, h, s float64) (State, error) { return HSWith(f, h, s, Op
 // HSWith is HS with options, passed to each PS: a warm start, a
 // requested phase, metastable states.
 func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
-	k, err := newCall(f, "flash.HS", fluid.Input{Name: "h", Value: h, Unit: "J/kg"},
-		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt)
-	if err != nil {
+	var k call
+	if err := k.init(f, "flash.HS", fluid.Input{Name: "h", Value: h, Unit: "J/kg"},
+		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt); err != nil {
 		return State{}, err
 	}
 	c := f.Critical()
@@ -133,9 +133,17 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 	var last State
 	have := false
 	lp := 0.0
-	// A pressure where the isentrope has a fluid state.
-	for _, m := range []float64{1, 10, 0.1, 100, 0.01, 1e3, 1e-3, 1e4, 1e-4, 1e5, 1e-5, 1e-6, 1e-7, 1e-8, 1e-10, 1e-12} {
-		pp := min(max(p0*m, pmin), lim.PCeil)
+	// A pressure where the isentrope has a fluid state, in half decades
+	// out from p0 (near a melting curve the window can be narrow).
+	for i := 0; i < 34; i++ {
+		e := float64((i+1)/2) / 2
+		if i%2 == 1 {
+			e = -e
+		}
+		if e > 3.5 || e < -12 {
+			continue
+		}
+		pp := min(max(p0*math.Pow(10, e), pmin), lim.PCeil)
 		if st, err := PSWith(f, pp, s, inner); err == nil {
 			last, have, lp = st, true, math.Log(pp)
 			break

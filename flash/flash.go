@@ -18,24 +18,25 @@ type call struct {
 	c   curves
 }
 
-func newCall(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options) (*call, error) {
-	k := &call{f: f, op: op, in: [2]fluid.Input{a, b}}
+// init sets up k for a flash; it validates what every flash shares.
+func (k *call) init(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options) error {
+	*k = call{f: f, op: op, in: [2]fluid.Input{a, b}}
 	if opt != nil {
 		k.opt = *opt
 	}
 	if f == nil {
-		return nil, k.fail(fluid.ErrInvalidInput, "nil fluid")
+		return k.fail(fluid.ErrInvalidInput, "nil fluid")
 	}
 	if !isFinite(a.Value) || !isFinite(b.Value) {
-		return nil, k.fail(fluid.ErrInvalidInput, "inputs must be finite")
+		return k.fail(fluid.ErrInvalidInput, "inputs must be finite")
 	}
 	switch k.opt.Phase {
 	case Unknown, Liquid, Vapor, Supercritical, TwoPhase:
 	default:
-		return nil, k.fail(fluid.ErrInvalidInput, "Options.Phase must be Unknown, Liquid, Vapor, Supercritical or TwoPhase")
+		return k.fail(fluid.ErrInvalidInput, "Options.Phase must be Unknown, Liquid, Vapor, Supercritical or TwoPhase")
 	}
 	k.c = curvesOf(f)
-	return k, nil
+	return nil
 }
 
 func (k *call) fail(sentinel error, why string) error {
@@ -130,6 +131,9 @@ func (k *call) finish(pr *fluid.Props) (State, error) {
 	if lim := k.f.Limits(); pr.P > lim.PCeil*(1+1e-9) {
 		return State{}, k.fail(fluid.ErrOutOfRange, "p = "+fmtG(pr.P)+" Pa exceeds the accepted "+
 			fmtG(lim.PCeil)+" Pa of "+k.f.Name())
+	} else if !(pr.P > 0) {
+		return State{}, k.fail(fluid.ErrOutOfRange, "the equation gives p = "+fmtG(pr.P)+
+			" Pa there: no fluid state")
 	}
 	r, on, why := k.c.classify(pr.T, pr.P)
 	if r != regionFluid {
@@ -206,9 +210,9 @@ func PT(f *fluid.Fluid, p, T float64) (State, error) { return PTWith(f, p, T, Op
 // spinodal if opt.AllowMetastable (else an error where it is not the
 // stable one). TwoPhase cannot be requested: ErrInvalidInput.
 func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
-	k, err := newCall(f, "flash.PT", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt)
-	if err != nil {
+	var k call
+	if err := k.init(f, "flash.PT", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
+		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt); err != nil {
 		return State{}, err
 	}
 	if err := k.positive(0); err != nil {
@@ -272,9 +276,9 @@ func TQ(f *fluid.Fluid, T, q float64) (State, error) { return TQWith(f, T, q, Op
 
 // TQWith is TQ with a warm start from opt.Guess (a two-phase state).
 func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
-	k, err := newCall(f, "flash.TQ", fluid.Input{Name: "T", Value: T, Unit: "K"},
-		fluid.Input{Name: "q", Value: q}, &opt)
-	if err != nil {
+	var k call
+	if err := k.init(f, "flash.TQ", fluid.Input{Name: "T", Value: T, Unit: "K"},
+		fluid.Input{Name: "q", Value: q}, &opt); err != nil {
 		return State{}, err
 	}
 	if err := k.positive(0); err != nil {
@@ -286,14 +290,9 @@ func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
 	if T < k.c.tt {
 		return k.sublimation(T, 0, q)
 	}
-	var s fluid.Saturation
-	if gT, rl, rv, ok := k.guessSat(); ok && math.Abs(gT-T) < 0.1*T {
-		s, err = f.SaturationAtTFrom(T, rl, rv)
-	} else {
-		s, err = f.SaturationAtT(T)
-	}
+	s, err := k.satT(T)
 	if err != nil {
-		return State{}, k.rewrap(err)
+		return State{}, err
 	}
 	return k.finishSat(&s, q)
 }
@@ -312,9 +311,9 @@ func PQ(f *fluid.Fluid, p, q float64) (State, error) { return PQWith(f, p, q, Op
 
 // PQWith is PQ with a warm start from opt.Guess (a two-phase state).
 func PQWith(f *fluid.Fluid, p, q float64, opt Options) (State, error) {
-	k, err := newCall(f, "flash.PQ", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "q", Value: q}, &opt)
-	if err != nil {
+	var k call
+	if err := k.init(f, "flash.PQ", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
+		fluid.Input{Name: "q", Value: q}, &opt); err != nil {
 		return State{}, err
 	}
 	if err := k.positive(0); err != nil {
@@ -416,9 +415,9 @@ func PH(f *fluid.Fluid, p, h float64) (State, error) { return PHWith(f, p, h, Op
 // PHWith is PH with options (see Options): a warm start from opt.Guess,
 // a requested phase, and metastable states up to the spinodal.
 func PHWith(f *fluid.Fluid, p, h float64, opt Options) (State, error) {
-	k, err := newCall(f, "flash.PH", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt)
-	if err != nil {
+	var k call
+	if err := k.init(f, "flash.PH", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
+		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt); err != nil {
 		return State{}, err
 	}
 	if err := k.positive(0); err != nil {
@@ -433,9 +432,9 @@ func PS(f *fluid.Fluid, p, s float64) (State, error) { return PSWith(f, p, s, Op
 
 // PSWith is PS with options (see Options).
 func PSWith(f *fluid.Fluid, p, s float64, opt Options) (State, error) {
-	k, err := newCall(f, "flash.PS", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt)
-	if err != nil {
+	var k call
+	if err := k.init(f, "flash.PS", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
+		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt); err != nil {
 		return State{}, err
 	}
 	if err := k.positive(0); err != nil {
@@ -461,19 +460,10 @@ const (
 	vaporSide              // ρ < ρc below Tc
 )
 
-// onBranch returns a keep function for newton2 that holds a single-phase
+// onBranch returns the branch for newton2 that holds a single-phase
 // iteration on its side below Tc (and below pc), and within [tlo, thi].
-func onBranch(f *fluid.Fluid, sd side, tlo, thi float64) func(*fluid.Props) bool {
-	c := f.Critical()
-	return func(pr *fluid.Props) bool {
-		if pr.T < tlo || pr.T > thi {
-			return false
-		}
-		if sd == anySide || pr.T >= c.T {
-			return true
-		}
-		return (pr.Rho > c.Rho) == (sd == liquidSide)
-	}
+func onBranch(f *fluid.Fluid, sd side, tlo, thi float64) branch {
+	return branch{c: f.Critical(), sd: sd, tlo: tlo, thi: thi}
 }
 
 func sideOf(liquid bool) side {
@@ -673,7 +663,7 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 			var below, above bool
 			pr, ok, below, above = isobar(f, p, X, x, tlo, thi, root)
 			switch {
-			case below && sd == liquidSide && thi < c.T || above && sd == vaporSide:
+			case above && sd == liquidSide && thi < c.T || below && sd == vaporSide:
 				// The auxiliary equation misplaced the dome's edge.
 				if s, err := f.SaturationAtP(p); err == nil {
 					xl, xv := X.of(&s.Liquid), X.of(&s.Vapor)

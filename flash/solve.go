@@ -131,18 +131,36 @@ func (w *watch) check(res, step float64) (stop bool) {
 	return w.n >= 3
 }
 
+// branch is where a newton2 iteration may go: T in [tlo, thi] and, below
+// Tc, the side sd of the critical density.
+type branch struct {
+	c        fluid.Point
+	sd       side
+	tlo, thi float64
+}
+
+func (b *branch) keep(pr *fluid.Props) bool {
+	if pr.T < b.tlo || pr.T > b.thi {
+		return false
+	}
+	if b.sd == anySide || pr.T >= b.c.T {
+		return true
+	}
+	return (pr.Rho > b.c.Rho) == (b.sd == liquidSide)
+}
+
 // newton2 solves a(T, ρ) = va, b(T, ρ) = vb by Newton's method in (T, ρ)
 // with the analytic Jacobian, from (T, ρ), with steps limited to a
 // quarter of T and half of ρ and halved back toward the last good point
 // where they leave the accepted region, meet an unstable state or leave
-// the branch that keep accepts. It returns the state and whether it
+// the branch br. It returns the state and whether it
 // converged (to 1/100 of the floors, or to the floors where rounding
 // stalls the iteration).
 //
 // start, if not nil, is a valid state near (T, ρ) to fall back toward if
 // (T, ρ) itself is not usable.
 func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, rho float64,
-	keep func(*fluid.Props) bool, start *fluid.Props) (fluid.Props, bool) {
+	br branch, start *fluid.Props) (fluid.Props, bool) {
 	lim := f.Limits()
 	var prev fluid.Props
 	havePrev := false
@@ -154,7 +172,7 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 	lastStep := math.Inf(1)
 	for it := 0; it < 60; it++ {
 		pr, ok := props(f, T, rho)
-		if !ok || (keep != nil && !keep(&pr)) {
+		if !ok || !br.keep(&pr) {
 			if !havePrev || backs > 40 {
 				return pr, false
 			}

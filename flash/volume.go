@@ -29,9 +29,9 @@ func DT(f *fluid.Fluid, rho, T float64) (State, error) { return DTWith(f, rho, T
 // opt.AllowMetastable the single-phase state at (T, ρ) inside the
 // saturation dome, up to the spinodal, flagged Metastable.
 func DTWith(f *fluid.Fluid, rho, T float64, opt Options) (State, error) {
-	k, err := newCall(f, "flash.DT", fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"},
-		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt)
-	if err != nil {
+	var k call
+	if err := k.init(f, "flash.DT", fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"},
+		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt); err != nil {
 		return State{}, err
 	}
 	if err := k.positive(0); err != nil {
@@ -41,6 +41,20 @@ func DTWith(f *fluid.Fluid, rho, T float64, opt Options) (State, error) {
 		return State{}, err
 	}
 	c := f.Critical()
+	if T >= k.c.tt && T < c.T && !k.opt.AllowMetastable {
+		// Well inside the dome by the auxiliary densities: a mixture.
+		rl, err1 := f.AuxLiquidDensity(T)
+		rv, err2 := f.AuxVaporDensity(T)
+		if err1 == nil && err2 == nil && rho > 1.05*rv && rho < 0.95*rl {
+			s, err := k.satT(T)
+			if err != nil {
+				return State{}, err
+			}
+			if q, in := qualityOf(rho, &s); in {
+				return k.finishSat(&s, q)
+			}
+		}
+	}
 	pr, perr := f.Props(T, rho)
 	ok := (perr == nil || isRangeErr(perr) && pr.P > f.Limits().PCeil) && finiteProps(&pr)
 	if T >= c.T || T < k.c.tt {
@@ -53,13 +67,7 @@ func DTWith(f *fluid.Fluid, rho, T float64, opt Options) (State, error) {
 		if T < k.c.tt {
 			// The vapour below the sublimation curve, the liquid above
 			// the melting curve; and the branch must match.
-			r, _, why := k.c.classify(T, pr.P)
-			if r == regionFluid && (pr.Rho < c.Rho) != (pr.P <= k.c.psub(T)) {
-				r, why = regionSolid, "between the vapour and the condensed phases below the triple point"
-			}
-			if r != regionFluid {
-				return State{}, k.c.regionError(k.op, r, why, k.in[0], k.in[1])
-			}
+			return k.belowTriple(&pr)
 		}
 		return k.wanted(k.finish(&pr))
 	}
@@ -156,9 +164,9 @@ func DU(f *fluid.Fluid, rho, u float64) (State, error) { return DUWith(f, rho, u
 // DUWith is DU with options: a warm start from opt.Guess, a requested
 // phase, metastable single-phase states with opt.AllowMetastable.
 func DUWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
-	k, err := newCall(f, "flash.DU", fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"},
-		fluid.Input{Name: "u", Value: u, Unit: "J/kg"}, &opt)
-	if err != nil {
+	var k call
+	if err := k.init(f, "flash.DU", fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"},
+		fluid.Input{Name: "u", Value: u, Unit: "J/kg"}, &opt); err != nil {
 		return State{}, err
 	}
 	if err := k.positive(0); err != nil {
@@ -185,12 +193,17 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	}
 	// A single phase first.
 	pr, ok := newton1(f, X, x, T0, rho, true, lim.TFloor, lim.TCeil)
+	if ok && want != TwoPhase && pr.T < k.c.tt {
+		// A fluid below the triple point, or a metastable vapour there
+		// with the equilibrium state elsewhere on the isochore.
+		if st, err := k.belowTriple(&pr); err == nil {
+			return st, nil
+		}
+		ok = false
+	}
 	if ok && want != TwoPhase {
-		switch {
-		case pr.T >= c.T:
+		if pr.T >= c.T {
 			return k.wanted(k.finish(&pr))
-		case pr.T < k.c.tt:
-			return k.belowTriple(&pr)
 		}
 		if st, fl := k.stableAtRho(&pr); st {
 			s, err := k.finish(&pr)
@@ -218,8 +231,27 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	} else {
 		T0 = 0.5 * (k.c.tt + c.T)
 	}
+	hiT := c.T
+	if _, ok := props(f, c.T, rho); !ok {
+		// No single phase at Tc on this isochore (an equation whose
+		// own critical point lies above its reducing temperature): the
+		// mixture just below.
+		hiT = c.T * (1 - 1e-12)
+	}
 	var failed error
 	eval := func(T float64) (r, d float64) {
+		inside = false
+		if T >= c.T && hiT == c.T {
+			// Above the dome.
+			pr, ok := props(f, T, rho)
+			if !ok {
+				failed = k.fail(fluid.ErrOutOfRange, "no fluid state on the isochore at the critical temperature")
+				return 0, 1
+			}
+			sp = pr
+			dT, _ := X.partials(&pr)
+			return X.of(&pr) - x, dT
+		}
 		var s fluid.Saturation
 		var err error
 		if gl > 0 {
@@ -257,7 +289,7 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 		dT, _ := X.partials(&pr)
 		return X.of(&pr) - x, dT
 	}
-	lo, hi := k.c.tt, c.T*(1-1e-12)
+	lo, hi := k.c.tt, hiT
 	rlo, _ := eval(lo)
 	if failed != nil {
 		return State{}, k.rewrap(failed)
@@ -334,6 +366,17 @@ func (k *call) belowTriple(pr *fluid.Props) (State, error) {
 	if r == regionFluid && k.c.hasSub && (pr.Rho < c.Rho) != (pr.P <= k.c.psub(pr.T)) {
 		r, why = regionSolid, "between the vapour and the condensed phases below the triple point"
 	}
+	if r == regionFluid && pr.P > 0 {
+		// On the branch the curves allow, not a rising piece of p(ρ)
+		// inside the equation's unstable region.
+		root := fluid.RootVapor
+		if pr.Rho > c.Rho {
+			root = fluid.RootLiquid
+		}
+		if b, err := k.f.PropsTP(pr.T, pr.P, root, 0); err != nil || math.Abs(b.Rho-pr.Rho) > 1e-8*pr.Rho {
+			r, why = regionSolid, "between the vapour and the condensed phases below the triple point"
+		}
+	}
 	if r != regionFluid {
 		return State{}, k.c.regionError(k.op, r, why, k.in[0], k.in[1])
 	}
@@ -357,9 +400,9 @@ func PD(f *fluid.Fluid, p, rho float64) (State, error) { return PDWith(f, p, rho
 
 // PDWith is PD with options: a warm start and a requested phase.
 func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
-	k, err := newCall(f, "flash.PD", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"}, &opt)
-	if err != nil {
+	var k call
+	if err := k.init(f, "flash.PD", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
+		fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"}, &opt); err != nil {
 		return State{}, err
 	}
 	if err := k.positive(0); err != nil {

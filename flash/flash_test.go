@@ -1,0 +1,430 @@
+package flash
+
+import (
+	"errors"
+	"math"
+	"math/rand/v2"
+	"strings"
+	"sync"
+	"testing"
+
+	"github.com/tripoint-thermo/tripoint/fluid"
+	"gonum.org/v1/gonum/diff/fd"
+)
+
+func mustFluid(t testing.TB, name string) *fluid.Fluid {
+	t.Helper()
+	f, err := fluid.Lookup(name)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return f
+}
+
+// TestTwoPhaseDerivatives checks the analytic two-phase cv and
+// homogeneous-equilibrium speed of sound against central differences of
+// the flashes themselves: cv = (∂u/∂T)_ρ by DT along the isochore, and
+// w² = (∂p/∂ρ)_s by PS along the isentrope.
+func TestTwoPhaseDerivatives(t *testing.T) {
+	t.Parallel()
+	for _, f := range fluids(t) {
+		tp, c := f.Triple(), f.Critical()
+		for _, x := range []float64{0.1, 0.5, 0.9} {
+			T := tp.T + (c.T-tp.T)*x
+			for _, q := range []float64{0.05, 0.5, 0.95} {
+				st, err := TQ(f, T, q)
+				if err != nil {
+					t.Fatal(err)
+				}
+				cv := fd.Derivative(func(T float64) float64 {
+					s, err := DT(f, st.Rho, T)
+					if err != nil {
+						t.Fatal(err)
+					}
+					return s.U
+				}, T, &fd.Settings{Formula: fd.Central, Step: 1e-2})
+				if math.Abs(cv-st.Cv) > 1e-5*st.Cv {
+					t.Errorf("%s T = %v, q = %v: cv = %v, by differences %v", f.Name(), T, q, st.Cv, cv)
+				}
+				dpdrho := 1 / fd.Derivative(func(p float64) float64 {
+					s, err := PS(f, p, st.S)
+					if err != nil {
+						t.Fatal(err)
+					}
+					return s.Rho
+				}, st.P, &fd.Settings{Formula: fd.Central, Step: 1e-5 * st.P})
+				if w := math.Sqrt(dpdrho); math.Abs(w-st.W) > 1e-5*st.W {
+					t.Errorf("%s T = %v, q = %v: w = %v, by differences %v", f.Name(), T, q, st.W, w)
+				}
+			}
+		}
+	}
+}
+
+// TestDUDoubleCrossing follows an isochore of liquid water between its
+// saturated density at the triple point (999.793 kg/m3) and the maximum
+// of the saturated density near 4 °C: it enters the dome and leaves it
+// again. DU must return each state of the isochore, single-phase and
+// two-phase alike.
+func TestDUDoubleCrossing(t *testing.T) {
+	f := mustFluid(t, "water")
+	const rho = 999.9 // kg/m3, between ρ′(273.16 K) and max ρ′ (common knowledge: ~999.97 near 277 K)
+	var phases []Phase
+	for T := 273.2; T < 285; T += 0.25 {
+		st, err := DT(f, rho, T)
+		if err != nil {
+			t.Fatalf("DT(%v, %v): %v", rho, T, err)
+		}
+		if len(phases) == 0 || phases[len(phases)-1] != st.Phase {
+			phases = append(phases, st.Phase)
+		}
+		got, err := DU(f, rho, st.U)
+		if err != nil {
+			t.Errorf("DU(%v, %v) [T = %v, %v]: %v", rho, st.U, T, st.Phase, err)
+			continue
+		}
+		if math.Abs(got.T-T) > 1e-7 || got.Phase != st.Phase {
+			t.Errorf("DU(%v, %v): T = %v %v, want %v %v", rho, st.U, got.T, got.Phase, T, st.Phase)
+		}
+	}
+	want := []Phase{Liquid, TwoPhase, Liquid}
+	if len(phases) != len(want) || phases[0] != want[0] || phases[1] != want[1] || phases[2] != want[2] {
+		t.Errorf("phases along the isochore: %v, want %v", phases, want)
+	}
+}
+
+// TestMetastable checks metastable states on request, and the errors
+// without AllowMetastable and beyond the spinodal.
+func TestMetastable(t *testing.T) {
+	f := mustFluid(t, "water")
+	sat, err := f.SaturationAtP(1e5)
+	if err != nil {
+		t.Fatal(err)
+	}
+	meta := Options{Phase: Liquid, AllowMetastable: true}
+	// Superheated liquid: a little above the saturated liquid's enthalpy.
+	h := sat.Liquid.H + 20e3
+	st, err := PHWith(f, 1e5, h, meta)
+	if err != nil || st.Phase != Liquid || st.Flags&Metastable == 0 || st.T <= sat.T || math.Abs(st.H-h) > 1e-6 {
+		t.Errorf("metastable PH: %+v, %v", st, err)
+	}
+	if _, err := PHWith(f, 1e5, h, Options{Phase: Liquid}); !errors.Is(err, fluid.ErrOutOfRange) {
+		t.Errorf("PH requesting liquid in the dome without AllowMetastable: %v", err)
+	}
+	if st, err := PH(f, 1e5, h); err != nil || st.Phase != TwoPhase {
+		t.Errorf("stable PH: %v %v", st.Phase, err)
+	}
+	// Superheated liquid by PT, and subcooled vapour.
+	st, err = PTWith(f, 1e5, sat.T+10, meta)
+	if err != nil || st.Flags&Metastable == 0 || st.Rho < 900 {
+		t.Errorf("metastable PT liquid: %+v, %v", st, err)
+	}
+	st, err = PTWith(f, 1e5, sat.T-5, Options{Phase: Vapor, AllowMetastable: true})
+	if err != nil || st.Flags&Metastable == 0 || st.Rho > 1 {
+		t.Errorf("metastable PT vapour: %+v, %v", st, err)
+	}
+	if _, err := PTWith(f, 1e5, sat.T-5, Options{Phase: Vapor}); !errors.Is(err, fluid.ErrOutOfRange) {
+		t.Errorf("PT requesting vapour below Tsat: %v", err)
+	}
+	// Beyond the vapour spinodal.
+	if _, err := PTWith(f, 1e7, 400, Options{Phase: Vapor, AllowMetastable: true}); !errors.Is(err, fluid.ErrUnstable) {
+		t.Errorf("PT vapour beyond the spinodal: %v", err)
+	}
+	// DT inside the dome, on the liquid side, at a positive pressure.
+	s5, _ := f.SaturationAtT(sat.T + 5)
+	rho := s5.Liquid.Rho - 0.02
+	st, err = DTWith(f, rho, sat.T+5, meta)
+	if err != nil || st.Flags&Metastable == 0 || st.Phase != Liquid || st.P >= s5.P {
+		t.Errorf("metastable DT: %+v, %v", st, err)
+	}
+	if st, err := DT(f, rho, sat.T+5); err != nil || st.Phase != TwoPhase {
+		t.Errorf("stable DT: %v %v", st.Phase, err)
+	}
+}
+
+// TestSolidRegions places states on both sides of the published
+// sublimation and melting curves of every fluid that has them.
+func TestSolidRegions(t *testing.T) {
+	for _, f := range fluids(t) {
+		tp := f.Triple()
+		slo, shi := f.AuxSublimationRange()
+		mlo, mhi := f.AuxMeltingRange()
+		if shi == 0 {
+			// No solid data: below the triple point is an error.
+			_, err := TQ(f, tp.T-1, 1)
+			if !errors.Is(err, fluid.ErrUndefined) && !errors.Is(err, fluid.ErrOutOfRange) {
+				t.Errorf("%s below the triple point: %v", f.Name(), err)
+			}
+			continue
+		}
+		for _, T := range []float64{max(slo, f.Limits().TFloor) + 1, 0.5 * (max(slo, f.Limits().TFloor) + shi), shi - 0.5} {
+			ps, _ := f.AuxSublimationPressure(T)
+			if st, err := PT(f, 0.9*ps, T); err != nil || st.Phase != Vapor {
+				t.Errorf("%s PT(0.9 psub, %v): %v %v", f.Name(), T, st.Phase, err)
+			}
+			_, err := PT(f, 1.1*ps, T)
+			if !errors.Is(err, fluid.ErrOutOfRange) || !strings.Contains(err.Error(), "solid") {
+				t.Errorf("%s PT(1.1 psub, %v): %v", f.Name(), T, err)
+			}
+			// The saturated vapour on the sublimation curve, and no
+			// solid-vapour mixture yet.
+			if st, err := TQ(f, T, 1); err != nil || st.Phase != Vapor || st.Flags&Saturated == 0 ||
+				math.Abs(st.P-ps) > 1e-9*ps {
+				t.Errorf("%s TQ(%v, 1): %+v %v", f.Name(), T, st, err)
+			}
+			if _, err := TQ(f, T, 0.5); !errors.Is(err, fluid.ErrOutOfRange) {
+				t.Errorf("%s TQ(%v, 0.5): %v", f.Name(), T, err)
+			}
+			if st, err := PQ(f, ps, 1); err != nil || math.Abs(st.T-T) > 1e-6 {
+				t.Errorf("%s PQ(%v, 1): %v %v", f.Name(), ps, st.T, err)
+			}
+		}
+		if mhi == 0 {
+			continue
+		}
+		pLo, _ := f.AuxMeltingPressure(mlo)
+		pHi, _ := f.AuxMeltingPressure(mhi)
+		anomalous := pLo > pHi
+		for _, u := range []float64{0.1, 0.5, 0.9} {
+			T := mlo + (mhi-mlo)*u
+			if !anomalous {
+				T = mlo + math.Min(mhi-mlo, 100)*u
+			}
+			pm, _ := f.AuxMeltingPressure(T)
+			if pm > f.Limits().PMax {
+				continue
+			}
+			solidP, fluidP := 1.02*pm, 0.98*pm
+			if anomalous {
+				solidP, fluidP = fluidP, solidP
+			}
+			if st, err := PT(f, fluidP, T); err != nil || st.Phase == Vapor {
+				t.Errorf("%s PT(%v, %v) beside the melting curve: %v %v", f.Name(), fluidP, T, st.Phase, err)
+			}
+			if _, err := PT(f, solidP, T); !errors.Is(err, fluid.ErrOutOfRange) || !strings.Contains(err.Error(), "solid") {
+				t.Errorf("%s PT(%v, %v) in the solid: %v", f.Name(), solidP, T, err)
+			}
+		}
+		// Enthalpy below the liquid at the melting point: solid.
+		p := 2 * tp.P
+		if anomalous {
+			p = 1e5
+		}
+		st, err := PH(f, p, -1e7)
+		if err == nil || !strings.Contains(err.Error(), "solid") {
+			t.Errorf("%s PH(%v, -1e7): %v %v", f.Name(), p, st.Phase, err)
+		}
+	}
+}
+
+// TestErrors checks the typed errors of bad inputs for every flash.
+func TestErrors(t *testing.T) {
+	f := mustFluid(t, "water")
+	nan, inf := math.NaN(), math.Inf(1)
+	c := f.Critical()
+	type call func() (State, error)
+	for _, e := range []struct {
+		name string
+		fn   call
+		want error
+	}{
+		{"PT NaN", func() (State, error) { return PT(f, nan, 300) }, fluid.ErrInvalidInput},
+		{"PT Inf", func() (State, error) { return PT(f, 1e5, inf) }, fluid.ErrInvalidInput},
+		{"PT p<=0", func() (State, error) { return PT(f, 0, 300) }, fluid.ErrInvalidInput},
+		{"PT T<0", func() (State, error) { return PT(f, 1e5, -3) }, fluid.ErrInvalidInput},
+		{"PT two-phase request", func() (State, error) { return PTWith(f, 1e5, 300, Options{Phase: TwoPhase}) }, fluid.ErrInvalidInput},
+		{"PT bad phase", func() (State, error) { return PTWith(f, 1e5, 300, Options{Phase: 42}) }, fluid.ErrInvalidInput},
+		{"PT T>ceiling", func() (State, error) { return PT(f, 1e5, 1e5) }, fluid.ErrOutOfRange},
+		{"PT p>ceiling", func() (State, error) { return PT(f, 1e15, 400) }, fluid.ErrOutOfRange},
+		{"PT nil fluid", func() (State, error) { return PT(nil, 1e5, 300) }, fluid.ErrInvalidInput},
+		{"TQ q>1", func() (State, error) { return TQ(f, 300, 1.5) }, fluid.ErrInvalidInput},
+		{"TQ q<0", func() (State, error) { return TQ(f, 300, -0.1) }, fluid.ErrInvalidInput},
+		{"TQ q NaN", func() (State, error) { return TQ(f, 300, nan) }, fluid.ErrInvalidInput},
+		{"TQ above Tc", func() (State, error) { return TQ(f, c.T+1, 0.5) }, fluid.ErrOutOfRange},
+		{"PQ above pc", func() (State, error) { return PQ(f, c.P*1.01, 0.5) }, fluid.ErrOutOfRange},
+		{"PQ p<=0", func() (State, error) { return PQ(f, -1, 0.5) }, fluid.ErrInvalidInput},
+		{"PH NaN h", func() (State, error) { return PH(f, 1e5, nan) }, fluid.ErrInvalidInput},
+		{"PH Inf h", func() (State, error) { return PH(f, 1e5, -inf) }, fluid.ErrInvalidInput},
+		{"PH h too high", func() (State, error) { return PH(f, 1e5, 1e9) }, fluid.ErrOutOfRange},
+		{"PS NaN s", func() (State, error) { return PS(f, 1e5, nan) }, fluid.ErrInvalidInput},
+		{"DU rho<=0", func() (State, error) { return DU(f, 0, 1e5) }, fluid.ErrInvalidInput},
+		{"DU rho>ceiling", func() (State, error) { return DU(f, 1e6, 1e5) }, fluid.ErrOutOfRange},
+		{"DT NaN", func() (State, error) { return DT(f, nan, 300) }, fluid.ErrInvalidInput},
+		{"HS Inf", func() (State, error) { return HS(f, inf, 1e3) }, fluid.ErrInvalidInput},
+		{"TS T<=0", func() (State, error) { return TS(f, 0, 1e3) }, fluid.ErrInvalidInput},
+		{"PD NaN", func() (State, error) { return PD(f, 1e5, nan) }, fluid.ErrInvalidInput},
+	} {
+		st, err := e.fn()
+		var fe *fluid.Error
+		if !errors.Is(err, e.want) || !errors.As(err, &fe) {
+			t.Errorf("%s: err = %v, want %v", e.name, err, e.want)
+			continue
+		}
+		if st != (State{}) {
+			t.Errorf("%s: a state with the error: %+v", e.name, st)
+		}
+		msg := err.Error()
+		for i := 0; i < len(msg); i++ {
+			if msg[i] >= 0x80 {
+				t.Errorf("%s: non-ASCII message %q", e.name, msg)
+				break
+			}
+		}
+	}
+}
+
+// TestCriticalPoint checks TQ and PQ at exactly the critical point.
+func TestCriticalPoint(t *testing.T) {
+	for _, f := range fluids(t) {
+		c := f.Critical()
+		for _, st := range func() []State {
+			a, err1 := TQ(f, c.T, 0.5)
+			b, err2 := PQ(f, c.P, 0.5)
+			if err1 != nil || err2 != nil {
+				t.Fatal(err1, err2)
+			}
+			return []State{a, b}
+		}() {
+			if st.Flags&AtCritical == 0 || st.T != c.T || st.P != c.P || st.Rho != c.Rho {
+				t.Errorf("%s at the critical point: %+v", f.Name(), st)
+			}
+			if f.HasNonAnalytic() && (!math.IsInf(st.Cv, 1) || st.W != 0) {
+				t.Errorf("%s at the critical point: cv = %v, w = %v", f.Name(), st.Cv, st.W)
+			}
+		}
+	}
+}
+
+// TestWarmStart checks that warm-started flashes return the cold result
+// from nearby guesses, single-phase and two-phase.
+func TestWarmStart(t *testing.T) {
+	for _, f := range fluids(t) {
+		c := f.Critical()
+		for _, start := range []struct{ p, T float64 }{{0.5 * c.P, 0.9 * c.T}, {0.1 * c.P, 1.2 * c.T}, {2 * c.P, 1.1 * c.T}} {
+			prev, err := PT(f, start.p, start.T)
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, dh := range []float64{-2e3, 500, 5e3} {
+				cold, err1 := PH(f, prev.P*1.01, prev.H+dh)
+				warm, err2 := PHWith(f, prev.P*1.01, prev.H+dh, Options{Guess: &prev})
+				if err1 != nil || err2 != nil || math.Abs(cold.T-warm.T) > 1e-8*cold.T || cold.Phase != warm.Phase {
+					t.Errorf("%s PH warm %v %v vs cold %v %v (%v, %v)", f.Name(), warm.T, warm.Phase, cold.T, cold.Phase, err2, err1)
+				}
+			}
+		}
+		prev, err := TQ(f, 0.8*c.T, 0.4)
+		if err != nil {
+			t.Fatal(err)
+		}
+		cold, err1 := PH(f, prev.P*1.001, prev.H+1e3)
+		warm, err2 := PHWith(f, prev.P*1.001, prev.H+1e3, Options{Guess: &prev})
+		if err1 != nil || err2 != nil || math.Abs(cold.T-warm.T) > 1e-9*cold.T || math.Abs(cold.Quality-warm.Quality) > 1e-9 {
+			t.Errorf("%s two-phase PH warm %+v vs cold %+v (%v, %v)", f.Name(), warm, cold, err2, err1)
+		}
+		if w, err := TQWith(f, 0.81*c.T, 0.4, Options{Guess: &prev}); err != nil || w.Phase != TwoPhase {
+			t.Errorf("%s TQ warm: %v", f.Name(), err)
+		}
+	}
+}
+
+// TestRobustness is a sweep of pseudo-random states from several
+// goroutines. Valid states (made by DT from random (T, ρ) in the fluid
+// region) must come back from a random other flash, reproducing its
+// inputs; random inputs of every kind, valid or not, must give an error
+// or a valid state, never a panic.
+func TestRobustness(t *testing.T) {
+	t.Parallel()
+	n := 300
+	if !testing.Short() {
+		n = 2500
+	}
+	for _, f := range fluids(t) {
+		var wg sync.WaitGroup
+		for g := 0; g < 4; g++ {
+			wg.Add(1)
+			go func(seed uint64) {
+				defer wg.Done()
+				r := rand.New(rand.NewPCG(seed, 7))
+				lim := f.Limits()
+				c := f.Critical()
+				for i := 0; i < n; i++ {
+					T := lim.TFloor * math.Pow(math.Min(lim.TMax, 3*c.T)/lim.TFloor, r.Float64())
+					rho := 1e-4 * c.Rho * math.Pow(3.2*c.Rho/(1e-4*c.Rho), r.Float64())
+					st, err := DT(f, rho, T)
+					if err != nil || st.P > lim.PMax {
+						continue
+					}
+					fc := flashCases[r.IntN(len(flashCases))]
+					a, b := quantityOf(&st, fc.a), quantityOf(&st, fc.b)
+					got, err := fc.fn(f, a, b, Options{})
+					what := fc.name + " from DT"
+					if err != nil {
+						if (fc.name == "TS" || fc.name == "PD") && nonUnique(f, &st) {
+							continue
+						}
+						t.Errorf("%s %s(%.17g, %.17g) [T = %v, rho = %v, %v]: %v", f.Name(), fc.name, a, b, T, rho, st.Phase, err)
+						continue
+					}
+					if !checkState(t, f, what, &got) {
+						continue
+					}
+					for _, q := range []struct {
+						name string
+						v    float64
+					}{{fc.a, a}, {fc.b, b}} {
+						g, floor := backward(f, &got, q.name, q.v)
+						if math.Abs(g-q.v) > floor {
+							t.Errorf("%s %s(%.17g, %.17g): %s off by %.3g (floor %.3g)", f.Name(), fc.name, a, b, q.name, g-q.v, floor)
+						}
+					}
+					// Random inputs, mostly nonsense.
+					x := randomInput(r)
+					y := randomInput(r)
+					fc = flashCases[r.IntN(len(flashCases))]
+					if got, err := fc.fn(f, x, y, Options{}); err == nil {
+						checkState(t, f, fc.name+" from random inputs", &got)
+					}
+				}
+			}(uint64(g) + 1)
+		}
+		wg.Wait()
+	}
+}
+
+func randomInput(r *rand.Rand) float64 {
+	switch r.IntN(10) {
+	case 0:
+		return math.NaN()
+	case 1:
+		return math.Inf(1 - 2*r.IntN(2))
+	case 2:
+		return -r.Float64() * 1e6
+	case 3:
+		return 0
+	}
+	return math.Pow(10, -3+12*r.Float64())
+}
+
+func TestAllocs(t *testing.T) {
+	f := mustFluid(t, "water")
+	prev, _ := PT(f, 1e6, 450)
+	two, _ := TQ(f, 400, 0.3)
+	for name, fn := range map[string]func(){
+		"PT liquid":    func() { PT(f, 1e6, 350) },
+		"PT vapour":    func() { PT(f, 1e5, 500) },
+		"PH liquid":    func() { PH(f, 1e6, 3e5) },
+		"PH vapour":    func() { PH(f, 1e5, 3e6) },
+		"PH two-phase": func() { PH(f, 1e5, 1e6) },
+		"PH warm":      func() { PHWith(f, 1.01e6, prev.H+1e3, Options{Guess: &prev}) },
+		"PS":           func() { PS(f, 1e6, 2000) },
+		"TQ":           func() { TQ(f, 400, 0.5) },
+		"TQ warm":      func() { TQWith(f, 401, 0.5, Options{Guess: &two}) },
+		"PQ":           func() { PQ(f, 1e5, 0.5) },
+		"DT":           func() { DT(f, 10, 400) },
+	} {
+		if a := testing.AllocsPerRun(20, fn); a != 0 {
+			t.Errorf("%s: %v allocs", name, a)
+		}
+	}
+}
