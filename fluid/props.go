@@ -50,8 +50,11 @@ type Props struct {
 //
 //	T or rho NaN, ±Inf or ≤ 0: error wrapping ErrInvalidInput
 //	T outside TFloor..TCeil, rho > RhoCeil or p > PCeil: ErrOutOfRange
-//	(∂p/∂ρ)_T ≤ 0 (inside a spinodal): the values, with an error wrapping
-//	  ErrUnstable
+//	p ≤ 0 (deep inside the two-phase region): the values, with an error
+//	  wrapping ErrOutOfRange
+//	(∂p/∂ρ)_T ≤ 0 (inside a spinodal), or cv ≤ 0 (where an equation is
+//	  extrapolated far beyond its range): the values, with an error
+//	  wrapping ErrUnstable
 //	exactly the critical point, with nonanalytic terms: Cv = Cp = +Inf,
 //	  W = 0, KappaT = Expansivity = +Inf, DpDrho = 0, flag AtCritical
 //
@@ -72,7 +75,7 @@ func (f *Fluid) checkTRho(op string, T, rho float64) error {
 	}
 	l := &f.limits
 	if T < l.TFloor || T > l.TCeil {
-		return NewError(op, ErrOutOfRange, rangeText("T", l.TFloor, l.TCeil, "K")+" for "+f.name,
+		return NewError(op, ErrOutOfRange, f.tRangeText(),
 			Input{"T", T, "K"}, Input{"rho", rho, "kg/m3"})
 	}
 	if rho > l.RhoCeil {
@@ -80,6 +83,11 @@ func (f *Fluid) checkTRho(op string, T, rho float64) error {
 			Input{"T", T, "K"}, Input{"rho", rho, "kg/m3"})
 	}
 	return nil
+}
+
+// tRangeText describes the accepted temperatures of f.
+func (f *Fluid) tRangeText() string {
+	return rangeText("T", f.limits.TFloor, f.limits.TCeil, "K") + " for " + f.name
 }
 
 // checkProps applies the pressure ceiling, the finiteness check and the
@@ -90,9 +98,20 @@ func (f *Fluid) checkProps(op string, p *Props) error {
 		return &Error{Op: op, Inputs: in(), Err: ErrOutOfRange,
 			Range: "p = " + fmtG(p.P) + " Pa exceeds the accepted " + fmtG(f.limits.PCeil) + " Pa for " + f.name}
 	}
-	if p.DpDrho <= 0 && p.Flags&AtCritical == 0 {
+	if p.Flags&AtCritical != 0 {
+		return nil
+	}
+	if p.DpDrho <= 0 {
 		return &Error{Op: op, Inputs: in(), Err: ErrUnstable,
 			Range: "(dp/drho)_T = " + fmtG(p.DpDrho) + " <= 0: inside the spinodal"}
+	}
+	if p.P <= 0 {
+		return &Error{Op: op, Inputs: in(), Err: ErrOutOfRange,
+			Range: "p = " + fmtG(p.P) + " Pa <= 0: no single-phase state of " + f.name + " at positive pressure"}
+	}
+	if p.Cv <= 0 {
+		return &Error{Op: op, Inputs: in(), Err: ErrUnstable,
+			Range: "cv = " + fmtG(p.Cv) + " J/(kg K) <= 0: thermally unstable (the equation extrapolated far beyond its range)"}
 	}
 	return nil
 }
@@ -103,7 +122,7 @@ func (f *Fluid) checkProps(op string, p *Props) error {
 // offsets are not included.
 func (f *Fluid) Derivs(T, rho float64) (ideal, resid helmholtz.Derivs) {
 	delta, tau := rho/f.rhoc, f.tc/T
-	return f.ideal.Eval(delta, tau), f.resid.Eval(delta, tau)
+	return f.ideal.Eval(delta, tau), f.residual(delta, tau)
 }
 
 // Reducing returns the reducing temperature Tc in K and density ρc in
@@ -114,7 +133,7 @@ func (f *Fluid) Reducing() (Tc, rhoc float64) { return f.tc, f.rhoc }
 func (f *Fluid) props(T, rho float64) Props {
 	delta, tau := rho/f.rhoc, f.tc/T
 	i := f.ideal.Eval(delta, tau)
-	r := f.resid.Eval(delta, tau)
+	r := f.residual(delta, tau)
 	return f.fromDerivs(T, rho, delta, tau, &i, &r)
 }
 
@@ -170,9 +189,19 @@ func (f *Fluid) fromDerivs(T, rho, delta, tau float64, i, r *helmholtz.Derivs) P
 // B in m³/kg and C in m⁶/kg², from the limits of the residual part as
 // ρ → 0: B = lim αʳ_δ/ρc, C = lim αʳ_δδ/ρc². In molar units multiply by the
 // molar mass (B) and its square (C).
+//
+// Special cases are:
+//
+//	T NaN, ±Inf or ≤ 0: error wrapping ErrInvalidInput
+//	T outside TFloor..TCeil (see Limits): ErrOutOfRange
 func (f *Fluid) Virial(T float64) (B, C float64, err error) {
-	if err := f.checkTRho("fluid.Virial", T, f.rhoc); err != nil {
-		return 0, 0, err
+	// Validated on its own: the error must not name a density the caller
+	// did not give.
+	switch l := &f.limits; {
+	case !finite(T) || T <= 0:
+		return 0, 0, NewError("fluid.Virial", ErrInvalidInput, "T must be finite and positive", Input{"T", T, "K"})
+	case T < l.TFloor || T > l.TCeil:
+		return 0, 0, NewError("fluid.Virial", ErrOutOfRange, f.tRangeText(), Input{"T", T, "K"})
 	}
 	d, dd := f.resid.DeltaLimits(f.tc / T)
 	return d / f.rhoc, dd / (f.rhoc * f.rhoc), nil

@@ -7,7 +7,7 @@ import (
 )
 
 // constructors of every fluid in the registry.
-var constructors = []func() *Fluid{newWater}
+var constructors = []func() *Fluid{newWater, newCO2, newR134a}
 
 // registry is built once, on first use, and never changed after.
 var registry = sync.OnceValues(func() (map[string]*Fluid, []string) {

@@ -67,22 +67,23 @@ type ResidualTerms struct {
 // Limits of the tables a Residual evaluates by multiplication.
 const (
 	maxDeltaPow = 23 // largest δ exponent d or c
-	maxNonInt   = 16 // largest number of distinct exponents outside the power tables
 	maxExpC     = 8  // c of exp(−δ^c) is at most maxExpC−1
 )
 
-// polyGroup is the set of Power (c = 0) or Exponential terms that share d
-// and c: they share every δ factor, so only Σ n τ^t and its τ-derivatives
-// are summed term by term.
+// polyGroup is the set of Power (c = 0) or Exponential terms that share
+// c, and so the factor exp(−δ^c).
 type polyGroup struct {
-	d, c   int
+	c      int
 	lo, hi int // terms[lo:hi]
 }
 
-// polyTerm is the τ part of one Power or Exponential term.
+// polyTerm is one Power or Exponential term with the constants its
+// derivative sums need.
 type polyTerm struct {
-	n, t, tt1 float64 // n, t and t(t−1)
-	ix        tauIndex
+	n          float64
+	fd, d2, d3 float64 // d, d², d³
+	t, tt1, td float64 // t, t(t−1), t·d
+	d, k       int32   // δ exponent; index of τ^t among the distinct exponents
 }
 
 // Residual is a compiled residual Helmholtz energy αʳ(δ, τ). It is
@@ -100,7 +101,7 @@ type Residual struct {
 	tp     tauPowers
 	maxD   int
 	gauss  []Gaussian
-	gix    []tauIndex // τ-power index of each Gaussian term
+	gix    []int // index of τ^t of each Gaussian term among the distinct exponents
 	na     []NonAnalytic
 	na2a   []int // 2a of each nonanalytic term when an integer, else −1
 }
@@ -145,30 +146,29 @@ func NewResidual(t ResidualTerms) (*Residual, error) {
 			return nil, fmt.Errorf("helmholtz: nonanalytic term %+v out of range", q)
 		}
 	}
-	tp, idx := newTauPowers(exps)
-	if len(tp.generic) > maxNonInt {
-		return nil, errors.New("helmholtz: too many distinct exponents outside the power tables")
+	tp, idx, ok := newTauPowers(exps)
+	if !ok {
+		return nil, errors.New("helmholtz: too many distinct temperature exponents")
 	}
 	r.tp = tp
-	// Group polynomial terms by (c, d), keeping the published order within
-	// a group.
+	// Group polynomial terms by c, keeping the published order within a
+	// group.
 	order := make([]int, len(all))
 	for i := range order {
 		order[i] = i
 	}
 	sort.SliceStable(order, func(a, b int) bool {
 		pa, pb := all[order[a]], all[order[b]]
-		if pa.c != pb.c {
-			return pa.c < pb.c
-		}
-		return pa.d < pb.d
+		return pa.c < pb.c
 	})
 	for _, i := range order {
 		p := all[i]
-		if n := len(r.groups); n == 0 || r.groups[n-1].c != p.c || r.groups[n-1].d != p.d {
-			r.groups = append(r.groups, polyGroup{d: p.d, c: p.c, lo: len(r.terms), hi: len(r.terms)})
+		if n := len(r.groups); n == 0 || r.groups[n-1].c != p.c {
+			r.groups = append(r.groups, polyGroup{c: p.c, lo: len(r.terms), hi: len(r.terms)})
 		}
-		r.terms = append(r.terms, polyTerm{n: p.n, t: p.t, tt1: p.t * (p.t - 1), ix: idx[i]})
+		fd := float64(p.d)
+		r.terms = append(r.terms, polyTerm{n: p.n, fd: fd, d2: fd * fd, d3: fd * fd * fd,
+			t: p.t, tt1: p.t * (p.t - 1), td: p.t * fd, d: int32(p.d), k: int32(idx[i])})
 		r.groups[len(r.groups)-1].hi++
 	}
 	r.gauss = append(r.gauss, t.Gaussian...)
@@ -210,55 +210,67 @@ func (r *Residual) HasNonAnalytic() bool { return len(r.na) > 0 }
 // The result for δ ≤ 0 or τ ≤ 0 is unspecified (NaN or ±Inf).
 func (r *Residual) Eval(delta, tau float64) Derivs {
 	var dpow [maxDeltaPow + 1]float64
-	var tb tauTable
+	var tv [maxTauDst]float64
 	dpow[0] = 1
 	for k := 1; k <= r.maxD; k++ {
 		dpow[k] = dpow[k-1] * delta
 	}
-	r.tp.fill(&tb, tau)
+	r.tp.fill(&tv, tau)
 
 	// Scaled sums: a, δα_δ, δ²α_δδ, δ³α_δδδ, τα_τ, τ²α_ττ, δτα_δτ.
+	//
+	// A term v = n δ^d τ^t exp(−δ^c) has, with e = c δ^c and y = d − e,
+	//	δ v_δ/v = y,  δ² v_δδ/v = y(y−1) − ce,
+	//	δ³ v_δδδ/v = y(y−1)(y−2) − 3ce(y−1) − c²e,
+	// so a group of one c needs only the sums of v d^k (k = 0..3), v t,
+	// v t(t−1) and v t d, from which Σ v y^k follow exactly.
 	var a, d1, d2, d3, t1, t2, dt float64
-	lastC, e := 0, 1.0
 	for gi := range r.groups {
 		g := &r.groups[gi]
-		var s0, s1, s2 float64
-		for _, p := range r.terms[g.lo:g.hi] {
-			v := p.n * tb.pow(p.ix)
+		var s0, s1, s2, s3, r1, r2, q float64
+		for i := g.lo; i < g.hi; i++ {
+			p := &r.terms[i]
+			v := p.n * tv[p.k] * dpow[p.d]
 			s0 += v
-			s1 += v * p.t
-			s2 += v * p.tt1
+			s1 += v * p.fd
+			s2 += v * p.d2
+			s3 += v * p.d3
+			r1 += v * p.t
+			r2 += v * p.tt1
+			q += v * p.td
 		}
-		fd := float64(g.d)
-		w := dpow[g.d]
-		var p1, p2, p3 float64
-		if g.c == 0 {
-			p1, p2, p3 = fd, fd*fd, fd*fd*fd
-		} else {
+		if g.c > 0 {
 			u := dpow[g.c]
-			if g.c != lastC {
-				lastC, e = g.c, math.Exp(-u)
-			}
-			w *= e
+			ex := math.Exp(-u)
+			s0, s1, s2, s3 = s0*ex, s1*ex, s2*ex, s3*ex
+			r1, r2, q = r1*ex, r2*ex, q*ex
 			fc := float64(g.c)
-			p1 = fd - fc*u
-			p2 = p1*p1 - fc*fc*u
-			p3 = p2*p1 - fc*fc*u*(fc+2*p1)
+			e := fc * u
+			m1 := s1 - e*s0
+			m2 := s2 - 2*e*s1 + e*e*s0
+			m3 := s3 - 3*e*s2 + 3*e*e*s1 - e*e*e*s0
+			a += s0
+			d1 += m1
+			d2 += m2 - m1 - fc*e*s0
+			d3 += m3 - 3*m2 + 2*m1 - 3*fc*e*(m1-s0) - fc*fc*e*s0
+			t1 += r1
+			t2 += r2
+			dt += q - e*r1
+		} else {
+			a += s0
+			d1 += s1
+			d2 += s2 - s1
+			d3 += s3 - 3*s2 + 2*s1
+			t1 += r1
+			t2 += r2
+			dt += q
 		}
-		ws0 := w * s0
-		a += ws0
-		d1 += ws0 * p1
-		d2 += ws0 * (p2 - p1)
-		d3 += ws0 * (p3 - 3*p2 + 2*p1)
-		t1 += w * s1
-		t2 += w * s2
-		dt += w * s1 * p1
 	}
 	for i := range r.gauss {
 		g := &r.gauss[i]
 		dd := delta - g.Epsilon
 		tt := tau - g.Gamma
-		v := g.N * dpow[g.D] * tb.pow(r.gix[i]) * math.Exp(-g.Alpha*dd*dd-g.Beta*tt*tt)
+		v := g.N * dpow[g.D] * tv[r.gix[i]] * math.Exp(-g.Alpha*dd*dd-g.Beta*tt*tt)
 		fd := float64(g.D)
 		// δ f'/f, δ²f''/f, δ³f'''/f for f = δ^d exp(−α(δ−ε)²); likewise in τ.
 		ad2 := 2 * g.Alpha * delta * delta
@@ -438,13 +450,13 @@ func (r *Residual) DeltaLimits(tau float64) (d, dd float64) {
 		for _, p := range r.terms[g.lo:g.hi] {
 			v := p.n * math.Pow(tau, p.t)
 			// δ^d exp(−δ^c) = δ^d − δ^(d+c) + …
-			if g.d == 1 {
+			if p.d == 1 {
 				d += v
 			}
-			if g.d == 2 {
+			if p.d == 2 {
 				dd += 2 * v
 			}
-			if g.c > 0 && g.d+g.c == 2 {
+			if g.c > 0 && int(p.d)+g.c == 2 {
 				dd -= 2 * v
 			}
 		}

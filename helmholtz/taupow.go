@@ -4,32 +4,35 @@ import "math"
 
 // tauPowers evaluates the τ^t of a set of exponents with as few
 // transcendental calls as the set allows. An exponent t = m + j/q, with m
-// an integer in [minM, maxM] and q the common power-of-two denominator of
-// all exponents (at most maxRootQ), is T[m]·R[j], where T holds integer
-// powers of τ by multiplication and R the powers of τ^(1/q), which take
-// log2(q) square roots. Other exponents fall back to exp(t ln τ).
+// an integer in [minTauM, maxTauM] and q the common power-of-two
+// denominator of all exponents (at most maxRootQ), is τ^m·(τ^(1/q))^j: τ^m
+// by multiplication from two short tables, τ^(1/q) from log2(q) square
+// roots. Other exponents fall back to exp(t ln τ). Each distinct exponent
+// is evaluated once per call.
 type tauPowers struct {
-	q, levels  int // denominator and log2 of it
-	minM, maxM int
-	generic    []float64
+	q, levels int // denominator and log2 of it
+	maxM      int // largest m in use (≥ 0)
+	minM      int // smallest m in use (≤ 0)
+	dist      []tauExp
+}
+
+// tauExp is one distinct exponent: t = m + j/q, or generic.
+type tauExp struct {
+	t       float64
+	m, j    int
+	generic bool
 }
 
 const (
-	maxRootQ = 16
-	minTauM  = -8
-	maxTauM  = 71
+	maxRootQ  = 16
+	minTauM   = -8
+	maxTauM   = 79
+	maxTauDst = 64 // largest number of distinct exponents
 )
 
-// tauIndex locates one exponent: generic ≥ 0 is an index into generic,
-// else τ^t = T[m]·R[j].
-type tauIndex struct {
-	m, j    int
-	generic int
-}
-
-// newTauPowers chooses the denominator for exps and returns the index of
-// each.
-func newTauPowers(exps []float64) (tauPowers, []tauIndex) {
+// newTauPowers chooses the denominator for exps and returns, for each,
+// the index of its distinct exponent.
+func newTauPowers(exps []float64) (tauPowers, []int, bool) {
 	tp := tauPowers{q: 1}
 	fits := func(t float64, q int) bool {
 		x := t * float64(q)
@@ -52,76 +55,68 @@ func newTauPowers(exps []float64) (tauPowers, []tauIndex) {
 	for l := tp.q; l > 1; l /= 2 {
 		tp.levels++
 	}
-	tp.minM, tp.maxM = 0, 0
-	idx := make([]tauIndex, len(exps))
+	idx := make([]int, len(exps))
 	for i, t := range exps {
-		if !fits(t, tp.q) {
-			k := -1
-			for g, e := range tp.generic {
-				if e == t {
-					k = g
-				}
+		k := -1
+		for d, e := range tp.dist {
+			if e.t == t {
+				k = d
 			}
-			if k < 0 {
-				tp.generic = append(tp.generic, t)
-				k = len(tp.generic) - 1
-			}
-			idx[i] = tauIndex{generic: k}
-			continue
 		}
-		m := int(math.Floor(t))
-		j := int(math.Round((t - float64(m)) * float64(tp.q)))
-		idx[i] = tauIndex{m: m, j: j, generic: -1}
-		tp.minM = min(tp.minM, m)
-		tp.maxM = max(tp.maxM, m)
+		if k < 0 {
+			e := tauExp{t: t, generic: true}
+			if fits(t, tp.q) {
+				m := int(math.Floor(t))
+				e = tauExp{t: t, m: m, j: int(math.Round((t - float64(m)) * float64(tp.q)))}
+				tp.maxM = max(tp.maxM, m)
+				tp.minM = min(tp.minM, m)
+			}
+			tp.dist = append(tp.dist, e)
+			k = len(tp.dist) - 1
+		}
+		idx[i] = k
 	}
-	return tp, idx
+	return tp, idx, len(tp.dist) <= maxTauDst
 }
 
-// tauTable holds the evaluated powers for one τ.
-type tauTable struct {
-	t [maxTauM - minTauM + 1]float64 // τ^m at index m − minTauM
-	r [maxRootQ]float64              // τ^(j/q)
-	g [maxNonInt]float64             // generic exponents
-}
-
-// fill evaluates the table at tau.
-func (tp *tauPowers) fill(tb *tauTable, tau float64) {
+// fill sets val[k] = τ^t for every distinct exponent k.
+func (tp *tauPowers) fill(val *[maxTauDst]float64, tau float64) {
+	// base[i] holds τ^(i+minTauM) for the m in use, from a chain of
+	// multiplications up and down from τ^0; r[j] = τ^(j/q).
+	var base [maxTauM - minTauM + 1]float64
+	var r [maxRootQ]float64
 	const z = -minTauM
-	tb.t[z] = 1
+	base[z] = 1
 	for m := 1; m <= tp.maxM; m++ {
-		tb.t[z+m] = tb.t[z+m-1] * tau
+		base[z+m] = base[z+m-1] * tau
 	}
 	if tp.minM < 0 {
 		inv := 1 / tau
 		for m := -1; m >= tp.minM; m-- {
-			tb.t[z+m] = tb.t[z+m+1] * inv
+			base[z+m] = base[z+m+1] * inv
 		}
 	}
+	r[0] = 1
 	if tp.q > 1 {
 		root := tau
 		for range tp.levels {
 			root = math.Sqrt(root)
 		}
-		tb.r[0] = 1
 		for j := 1; j < tp.q; j++ {
-			tb.r[j] = tb.r[j-1] * root
-		}
-	} else {
-		tb.r[0] = 1
-	}
-	if len(tp.generic) > 0 {
-		lt := math.Log(tau)
-		for i, e := range tp.generic {
-			tb.g[i] = math.Exp(e * lt)
+			r[j] = r[j-1] * root
 		}
 	}
-}
-
-// pow returns τ^t for the exponent at ix.
-func (tb *tauTable) pow(ix tauIndex) float64 {
-	if ix.generic >= 0 {
-		return tb.g[ix.generic]
+	lt := 0.0
+	haveLog := false
+	for k := range tp.dist {
+		e := &tp.dist[k]
+		if e.generic {
+			if !haveLog {
+				lt, haveLog = math.Log(tau), true
+			}
+			val[k] = math.Exp(e.t * lt)
+			continue
+		}
+		val[k] = base[z+e.m] * r[e.j]
 	}
-	return tb.t[ix.m-minTauM] * tb.r[ix.j]
 }

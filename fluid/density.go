@@ -1,0 +1,416 @@
+package fluid
+
+import (
+	"math"
+
+	"github.com/tripoint-thermo/tripoint/helmholtz"
+	"github.com/tripoint-thermo/tripoint/internal/evalcount"
+)
+
+// Root selects which density root of p(T, ρ) = p is wanted. The values are
+// stable (the C ABI exposes them).
+type Root int32
+
+const (
+	// RootStable is the stable fluid phase at (T, p). Below the critical
+	// temperature it is the liquid above the equation's own vapour
+	// pressure and the vapour below it (at exactly the vapour pressure,
+	// the liquid).
+	RootStable Root = 0
+	// RootLiquid is the liquid-like root, the densest rising branch of
+	// p(ρ), metastable below the vapour pressure down to the liquid
+	// spinodal.
+	RootLiquid Root = 1
+	// RootVapor is the vapour-like root, the rising branch of p(ρ) from
+	// ρ = 0, metastable above the vapour pressure up to the vapour
+	// spinodal.
+	RootVapor Root = 2
+)
+
+// String returns "stable", "liquid" or "vapor".
+func (r Root) String() string {
+	switch r {
+	case RootStable:
+		return "stable"
+	case RootLiquid:
+		return "liquid"
+	case RootVapor:
+		return "vapor"
+	}
+	return "Root(" + fmtG(float64(r)) + ")"
+}
+
+// aux pressure band: outside psat_aux·(1 ± auxBand) the stable phase is
+// decided from the auxiliary vapour-pressure equation alone; inside it,
+// from the equation's own saturation. TestAuxVaporPressureBand proves for
+// every fluid that the auxiliary equation lies within 2/5 of this band
+// (some published auxiliary equations are good to only 2 % near the
+// triple point).
+const auxBand = 0.05
+
+// rhoStepTol is the relative Newton step in ρ below which a root is taken
+// as converged: the residual of p is then at the level of its rounding.
+const rhoStepTol = 1e-14
+
+// residual evaluates αʳ and its derivatives. Every solver of package fluid
+// evaluates the equation through it (or props), so that the test-only
+// evaluation counter sees each call.
+func (f *Fluid) residual(delta, tau float64) helmholtz.Derivs {
+	evalcount.Add()
+	return f.resid.Eval(delta, tau)
+}
+
+// Density returns the density in kg/m³ of f at temperature T in K and
+// pressure p in Pa, on the requested root.
+//
+// It solves p(T, ρ) = p by Newton's method with the analytic (∂p/∂ρ)_T (in
+// ln ρ on the vapour and supercritical branches, in ρ on the liquid one),
+// started from the auxiliary saturated-liquid equation, the ideal gas or
+// rhoGuess, and kept inside a bracket on the requested branch that shrinks
+// by bisection whenever a Newton step leaves it, so that it always
+// terminates. The root is converged when the Newton step is below 1e-14·ρ.
+//
+// For T ≥ Tc, p(ρ) rises monotonically and all three roots are the same.
+// For T < Tc the liquid root is sought on ρ > ρc and the vapour root on
+// ρ < ρc. RootStable takes the vapour below the equation's own vapour
+// pressure and the liquid above it: away from it the auxiliary
+// vapour-pressure equation decides, within 5 % of it the equation's own
+// saturation (SaturationAtT), and below the triple-point temperature (no
+// saturation is defined there) the root of lower Gibbs energy.
+//
+// Special cases are:
+//
+//	T or p NaN, ±Inf or ≤ 0, or root not a Root: ErrInvalidInput
+//	T outside TFloor..TCeil or p > PCeil (see Limits): ErrOutOfRange
+//	a liquid root that would be denser than RhoCeil: ErrOutOfRange
+//	no root before the spinodal on the requested branch (a liquid below
+//	  its spinodal pressure, a vapour above its): ErrUnstable
+//
+// Density allocates nothing unless it returns an error.
+func (f *Fluid) Density(T, p float64, root Root) (float64, error) {
+	rho, _, _, err := f.densityTP("fluid.Density", T, p, root, 0, false)
+	return rho, err
+}
+
+// PropsTP returns the properties of f at temperature T in K and pressure
+// p in Pa on the requested root (see Density), starting Newton's method
+// from rhoGuess in kg/m³ when it is positive (a warm start from a nearby
+// state; 0 means none). A state on a root that is not the stable phase at
+// (T, p) carries the Metastable flag. Special cases are those of Density
+// and Props.
+func (f *Fluid) PropsTP(T, p float64, root Root, rhoGuess float64) (Props, error) {
+	rho, r, meta, err := f.densityTP("fluid.PropsTP", T, p, root, rhoGuess, true)
+	if err != nil {
+		return Props{}, err
+	}
+	pr := f.propsFromResidual(T, rho, &r)
+	if meta {
+		pr.Flags |= Metastable
+	}
+	return pr, f.checkProps("fluid.PropsTP", &pr)
+}
+
+// propsFromResidual builds Props at (T, ρ) from residual derivatives
+// already evaluated there.
+func (f *Fluid) propsFromResidual(T, rho float64, r *helmholtz.Derivs) Props {
+	delta, tau := rho/f.rhoc, f.tc/T
+	i := f.ideal.Eval(delta, tau)
+	return f.fromDerivs(T, rho, delta, tau, &i, r)
+}
+
+// checkTP validates (T, p) against f's accepted region.
+func (f *Fluid) checkTP(op string, T, p float64) error {
+	if !finite(T) || T <= 0 || !finite(p) || p <= 0 {
+		return NewError(op, ErrInvalidInput, "T and p must be finite and positive",
+			Input{"T", T, "K"}, Input{"p", p, "Pa"})
+	}
+	l := &f.limits
+	if T < l.TFloor || T > l.TCeil {
+		return NewError(op, ErrOutOfRange, rangeText("T", l.TFloor, l.TCeil, "K")+" for "+f.name,
+			Input{"T", T, "K"}, Input{"p", p, "Pa"})
+	}
+	if p > l.PCeil {
+		return NewError(op, ErrOutOfRange, "p must not exceed "+fmtG(l.PCeil)+" Pa for "+f.name,
+			Input{"T", T, "K"}, Input{"p", p, "Pa"})
+	}
+	return nil
+}
+
+// densityTP solves for the density at (T, p) on root. It returns the
+// density, the residual derivatives there and, when wantMeta, whether the
+// root found is metastable.
+func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wantMeta bool) (float64, helmholtz.Derivs, bool, error) {
+	if err := f.checkTP(op, T, p); err != nil {
+		return 0, helmholtz.Derivs{}, false, err
+	}
+	if root < RootStable || root > RootVapor {
+		return 0, helmholtz.Derivs{}, false, NewError(op, ErrInvalidInput,
+			"root must be RootStable (0), RootLiquid (1) or RootVapor (2)",
+			Input{"T", T, "K"}, Input{"p", p, "Pa"}, Input{"root", float64(root), ""})
+	}
+	tau := f.tc / T
+	pi := p / (f.rhoc * f.r * T)
+	g := guess / f.rhoc
+	if !finite(g) || g < 0 {
+		g = 0
+	}
+	if T >= f.tc {
+		d, r, st := f.solveDelta(tau, pi, branchSingle, g)
+		return f.rootResult(op, T, p, d, r, st, branchSingle, false)
+	}
+	switch root {
+	case RootLiquid, RootVapor:
+		b := branchLiquid
+		if root == RootVapor {
+			b = branchVapor
+		}
+		d, r, st := f.solveDelta(tau, pi, b, g)
+		meta := false
+		if wantMeta && st == rootFound {
+			meta = f.stableBranch(T, tau, pi, b, d, &r) != b
+		}
+		return f.rootResult(op, T, p, d, r, st, b, meta)
+	}
+	// RootStable.
+	if b, ok := f.auxSide(T, p); ok {
+		d, r, st := f.solveDelta(tau, pi, b, g)
+		return f.rootResult(op, T, p, d, r, st, b, false)
+	}
+	if T >= f.triple.T {
+		if s, ok := f.satT(tau); ok {
+			b := branchVapor
+			if pi >= s.pi() {
+				b = branchLiquid
+			}
+			d, r, st := f.solveDelta(tau, pi, b, g)
+			return f.rootResult(op, T, p, d, r, st, b, false)
+		}
+	}
+	// Both roots, the lower Gibbs energy wins.
+	dl, rl, stl := f.solveDelta(tau, pi, branchLiquid, 0)
+	dv, rv, stv := f.solveDelta(tau, pi, branchVapor, 0)
+	switch {
+	case stl == rootFound && stv == rootFound:
+		if gibbsReduced(dl, &rl) <= gibbsReduced(dv, &rv) {
+			return f.rootResult(op, T, p, dl, rl, stl, branchLiquid, false)
+		}
+		return f.rootResult(op, T, p, dv, rv, stv, branchVapor, false)
+	case stl == rootFound:
+		return f.rootResult(op, T, p, dl, rl, stl, branchLiquid, false)
+	case stv == rootFound:
+		return f.rootResult(op, T, p, dv, rv, stv, branchVapor, false)
+	}
+	return f.rootResult(op, T, p, dl, rl, stl, branchLiquid, false)
+}
+
+// auxSide decides the stable branch at (T, p), T < Tc, from the auxiliary
+// vapour pressure when p lies outside its uncertainty band. ok is false
+// when it cannot decide.
+func (f *Fluid) auxSide(T, p float64) (branch, bool) {
+	if f.aux.psat == nil || T < f.triple.T {
+		return 0, false
+	}
+	ps := f.aux.psat(T)
+	switch {
+	case p > ps*(1+auxBand):
+		return branchLiquid, true
+	case p < ps*(1-auxBand):
+		return branchVapor, true
+	}
+	return 0, false
+}
+
+// stableBranch returns the stable branch at (T, p) for T < Tc, given the
+// root (d, r) already found on branch b.
+func (f *Fluid) stableBranch(T, tau, pi float64, b branch, d float64, r *helmholtz.Derivs) branch {
+	if s, ok := f.auxSide(T, pi*f.rhoc*f.r*T); ok {
+		return s
+	}
+	if T >= f.triple.T {
+		if s, ok := f.satT(tau); ok {
+			if pi >= s.pi() {
+				return branchLiquid
+			}
+			return branchVapor
+		}
+	}
+	other := branchLiquid
+	if b == branchLiquid {
+		other = branchVapor
+	}
+	d2, r2, st := f.solveDelta(tau, pi, other, 0)
+	if st != rootFound {
+		return b
+	}
+	g1, g2 := gibbsReduced(d, r), gibbsReduced(d2, &r2)
+	if g2 < g1 || (g2 == g1 && other == branchLiquid) {
+		return other
+	}
+	return b
+}
+
+// gibbsReduced returns g/(RT) less its τ-only ideal-gas part: ln δ + αʳ +
+// δαʳ_δ. Differences of it between two densities at one temperature are
+// differences of g/(RT).
+func gibbsReduced(d float64, r *helmholtz.Derivs) float64 {
+	return math.Log(d) + r.A + d*r.D
+}
+
+// rootResult turns a solver status into the Density result.
+func (f *Fluid) rootResult(op string, T, p, d float64, r helmholtz.Derivs, st rootStatus, b branch, meta bool) (float64, helmholtz.Derivs, bool, error) {
+	if st == rootFound {
+		return d * f.rhoc, r, meta, nil
+	}
+	in := []Input{{"T", T, "K"}, {"p", p, "Pa"}}
+	switch st {
+	case rootAboveCeil:
+		return 0, r, false, &Error{Op: op, Inputs: in, Err: ErrOutOfRange,
+			Range: "no liquid-like root: p exceeds the pressures of the liquid branch at this T up to the accepted " +
+				fmtG(f.limits.RhoCeil) + " kg/m3 for " + f.name}
+	case rootBeyondSpinodal:
+		what := "no liquid-like root: p is below the liquid spinodal pressure at this T"
+		if b == branchVapor {
+			what = "no vapour-like root: p is above the vapour spinodal pressure at this T"
+		}
+		return 0, r, false, &Error{Op: op, Inputs: in, Err: ErrUnstable, Range: what}
+	}
+	return 0, r, false, &Error{Op: op, Inputs: in, Err: ErrNoConvergence,
+		Range: "the density iteration did not converge"}
+}
+
+// branch of p(ρ) at fixed T on which a root is sought.
+type branch int8
+
+const (
+	branchVapor  branch = iota // rising from ρ = 0 up to the vapour spinodal, ρ < ρc
+	branchLiquid               // rising from the liquid spinodal on, ρ > ρc
+	branchSingle               // T ≥ Tc: rising throughout
+)
+
+type rootStatus int8
+
+const (
+	rootFound rootStatus = iota
+	rootBeyondSpinodal
+	rootAboveCeil
+	rootNoConvergence
+)
+
+// solveDelta finds the reduced density δ on branch b where the reduced
+// pressure δ(1 + δαʳ_δ) equals pi = p/(ρc R T), at τ = Tc/T. g > 0 is a
+// starting value. It returns δ with the residual derivatives there.
+//
+// The bracket (lo, hi) always holds the root if it exists: for the vapour
+// branch, lo has p below the target on the rising branch and hi either p
+// above it or (∂p/∂ρ)_T ≤ 0 (beyond the spinodal); for the liquid branch
+// the mirror image. Newton steps that leave the bracket are replaced by
+// bisection, so every iteration shrinks it or converges.
+func (f *Fluid) solveDelta(tau, pi float64, b branch, g float64) (float64, helmholtz.Derivs, rootStatus) {
+	lo, hi := 0.0, f.limits.RhoCeil/f.rhoc
+	var x float64
+	switch b {
+	case branchVapor:
+		hi = 1
+		x = pi // ideal gas
+	case branchLiquid:
+		lo = 1
+		if f.aux.rhoLiq != nil {
+			// Below its range the auxiliary equation's extrapolation
+			// can leave the liquid branch: start from its end.
+			x = f.aux.rhoLiq(max(f.tc/tau, f.limits.TMin)) / f.rhoc
+		} else {
+			x = f.triple.RhoLiquid / f.rhoc
+		}
+	default:
+		x = pi
+	}
+	if g > 0 {
+		x = g
+	}
+	// Status of the bracket ends: whether a stable point with p above
+	// (vapour, single: hi) or below (liquid: lo) the target was seen.
+	hiAbove, loBelow := false, false
+	// A stable liquid point seen: far from the critical point and below
+	// the triple point p(ρ) of some equations falls again at densities
+	// above the liquid branch, so an unstable point denser than it lies
+	// above the branch, not below.
+	anchor := math.Inf(1)
+	var r helmholtz.Derivs
+	for it := 0; it < 300; it++ {
+		if !(x > lo && x < hi) {
+			x = bracketMid(lo, hi, b)
+		}
+		r = f.residual(x, tau)
+		P := x * (1 + x*r.D)
+		dP := 1 + 2*x*r.D + x*x*r.DD
+		res := P - pi
+		stable := dP > 0
+		switch b {
+		case branchVapor:
+			if !stable || res > 0 {
+				hi, hiAbove = x, stable
+			} else {
+				lo = x
+			}
+		case branchLiquid:
+			switch {
+			case !stable && x > anchor:
+				hi = x
+			case !stable || res < 0:
+				lo, loBelow = x, stable
+			default:
+				hi, hiAbove = x, true
+			}
+			if stable {
+				anchor = min(anchor, x)
+			}
+		default:
+			if res < 0 {
+				lo = x
+			} else {
+				hi, hiAbove = x, true
+			}
+		}
+		if stable {
+			step := -res / dP
+			if math.Abs(step) <= rhoStepTol*x {
+				return x, r, rootFound
+			}
+			xn := x + step
+			if b != branchLiquid && P > 0 && pi > 0 {
+				// Newton in ln ρ on ln p: nearly linear for gases.
+				xn = x * math.Exp(-math.Log(P/pi)*P/(x*dP))
+			}
+			x = xn
+		} else {
+			x = math.NaN() // bisect
+		}
+		if hi-lo <= 4e-16*hi {
+			break
+		}
+	}
+	switch {
+	case b == branchVapor && !hiAbove, b == branchLiquid && hiAbove && !loBelow:
+		return x, r, rootBeyondSpinodal
+	case b != branchVapor && !hiAbove:
+		return x, r, rootAboveCeil
+	}
+	if hi-lo <= 4e-16*hi {
+		// The bracket closed on the root at rounding level.
+		r = f.residual(hi, tau)
+		return hi, r, rootFound
+	}
+	return x, r, rootNoConvergence
+}
+
+// bracketMid returns a point inside (lo, hi), geometric where the bracket
+// spans orders of magnitude of a gas density.
+func bracketMid(lo, hi float64, b branch) float64 {
+	if b != branchLiquid && lo > 0 && hi > 4*lo {
+		return math.Sqrt(lo * hi)
+	}
+	if lo == 0 && b != branchLiquid {
+		return hi / 8
+	}
+	return 0.5 * (lo + hi)
+}

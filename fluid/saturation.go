@@ -1,0 +1,752 @@
+package fluid
+
+import (
+	"math"
+
+	"github.com/tripoint-thermo/tripoint/helmholtz"
+)
+
+// Saturation is a point of the vapour–liquid coexistence curve of a fluid's
+// equation of state: temperature T in K, pressure P in Pa, and the
+// properties of the saturated liquid (T, ρ′) and vapour (T, ρ″). Liquid
+// and Vapor carry the Saturated flag; Flags is Saturated, with AtCritical
+// at the critical point itself and Extrapolated where the phases are.
+type Saturation struct {
+	T, P          float64
+	Liquid, Vapor Props
+	Flags         Flags
+}
+
+// satPair is a solution of the phase-equilibrium conditions in reduced
+// variables, with the residual derivatives of both phases.
+type satPair struct {
+	tau, dl, dv float64
+	rl, rv      helmholtz.Derivs
+	strict      bool // Newton's method met its residual bounds (not only the rounding floor)
+}
+
+// pi returns the reduced pressure p/(ρc R T) of the vapour side.
+func (s *satPair) pi() float64 { return s.dv * (1 + s.dv*s.rv.D) }
+
+// Tolerances of the saturation Newton iterations. An iterate is converged
+// when the residuals of the reduced conditions are at the rounding level
+// of the equation: |ΔP| ≤ satTolP and |ΔG| ≤ satTolG. The rounding of a
+// reduced pressure P = δ(1 + δαʳ_δ) grows with δ and with τ: in a cold
+// liquid 1 + δαʳ_δ is a small difference of terms of order 10² (IAPWS-95
+// liquid at 273.16 K, τ = 2.37, scatters by 1e-12 in P and 3e-13 in G
+// between neighbouring floating-point densities; near the critical point
+// by 1e-15). The bounds model that as 1e-14·τ⁴. Near the critical point
+// the densities are uncertain even at these residuals (the Jacobian is
+// nearly singular). See newtonWatch for iterations that stall.
+
+// newtonWatch watches the residual of a Newton iteration, scaled so that
+// 1 is the convergence bound. check reports conv when the iteration is
+// to stop: converged (res ≤ 1/16, or res ≤ 1 on two successive
+// iterates: the caller keeps the better one), or stalled (three
+// iterations without halving the best residual: rounding noise drives
+// the steps), in which case ok says whether the residual is within 5
+// times the bound, the rounding floor of the equation.
+type newtonWatch struct {
+	best float64
+	n    int
+	near bool // the previous iterate met the bound
+}
+
+func (w *newtonWatch) check(res float64) (conv, ok bool) {
+	if res <= 1.0/16 || res <= 1 && w.near {
+		return true, true
+	}
+	w.near = res <= 1
+	if res < 0.5*w.best {
+		w.best, w.n = res, 0
+		return false, false
+	}
+	w.n++
+	if w.n >= 3 {
+		return true, res <= 5
+	}
+	return false, false
+}
+
+// satTolP and satTolG are the tolerances at reduced pressure P, density δ
+// and inverse reduced temperature τ.
+func satTolP(P, delta, tau float64) float64 {
+	t2 := tau * tau
+	return 1e-14 * (delta*t2*t2 + math.Abs(P))
+}
+
+func satTolG(tau float64) float64 {
+	t2 := tau * tau
+	return 1e-14 * t2 * t2
+}
+
+// SaturationAtT returns the vapour–liquid saturation of f at temperature T
+// in K, from the triple point to the critical point.
+//
+// It solves the phase-equilibrium conditions of the equation of state,
+//
+//	p(T, ρ′) = p(T, ρ″),   g(T, ρ′) = g(T, ρ″),
+//
+// by Newton's method in the reduced densities (δ′, δ″) with the analytic
+// Jacobian, started from the auxiliary saturated-density equations. If
+// Newton's method fails, it falls back on a bracketed
+// Newton iteration in p on g′(p) − g″(p) = 0, whose derivative is
+// 1/ρ′ − 1/ρ″, with both densities from Density, and polishes the result
+// with the first method.
+//
+// Accuracy: down to Tc − 1 mK the residuals |Δp| and |Δg|/(RT) are at
+// the rounding level of the equation itself (in a cold liquid its
+// pressure scatters by about 1e-13·ρ′RT between neighbouring
+// floating-point densities; elsewhere |Δp|/p and |Δg|/(RT) are about
+// 1e-14). Between Tc − 1 mK and Tc the two densities close as
+// (Tc − T)^β, the Jacobian becomes singular and the Gibbs-energy
+// difference that tells the phases apart sinks below rounding: there
+// Newton's method is started from a model of the curve anchored at the
+// equation's own solutions at Tc − 1 mK, 0.1 mK, 10 µK and 1 µK (where
+// they converge) and at the critical point (see nearCrit), and the
+// model's values are returned
+// where Newton's method cannot resolve the densities. In that band P is
+// the model's pressure, rising to pc; p, ρ′ and −ρ″ rise monotonically
+// toward the critical point; ρ″ < ρc < ρ′; and the residuals |Δp|/p,
+// |Δg|/(RT) and the difference between P and the vapour's own pressure
+// stay within 1e-12 (TestSaturationNearCritical). The equation itself
+// fixes the densities there only loosely: at Tc − 10 µK, IAPWS-95 states
+// whose ρ′ differ by 3e-5 relative satisfy the conditions equally well.
+//
+// Special cases are:
+//
+//	T NaN, ±Inf or ≤ 0: ErrInvalidInput
+//	T > Tc: ErrOutOfRange (no saturation above the critical temperature)
+//	T < Tt, the triple-point temperature: ErrOutOfRange (no vapour–liquid
+//	  saturation below the triple point: the liquid freezes)
+//	T = Tc: the critical point, ρ′ = ρ″ = ρc, P = Critical().P, flags
+//	  Saturated|AtCritical
+//
+// SaturationAtT allocates nothing unless it returns an error.
+func (f *Fluid) SaturationAtT(T float64) (Saturation, error) {
+	const op = "fluid.SaturationAtT"
+	in := Input{"T", T, "K"}
+	if !finite(T) || T <= 0 {
+		return Saturation{}, NewError(op, ErrInvalidInput, "T must be finite and positive", in)
+	}
+	if T > f.tc {
+		return Saturation{}, NewError(op, ErrOutOfRange,
+			"no vapour-liquid saturation above the critical temperature; "+f.satRange(), in)
+	}
+	if T < f.triple.T {
+		return Saturation{}, NewError(op, ErrOutOfRange,
+			"no vapour-liquid saturation below the triple point, where the liquid freezes; "+f.satRange(), in)
+	}
+	if T == f.tc {
+		return f.criticalSaturation(), nil
+	}
+	s, ok := f.satT(f.tc / T)
+	if !ok {
+		return Saturation{}, NewError(op, ErrNoConvergence, "the saturation iteration did not converge", in)
+	}
+	return f.saturation(&s, T, 0), nil
+}
+
+// SaturationAtP returns the vapour–liquid saturation of f at pressure p in
+// Pa, from the triple-point pressure to the critical pressure.
+//
+// It solves p(T, ρ′) = p, p(T, ρ″) = p and g(T, ρ′) = g(T, ρ″) by Newton's
+// method in (δ′, δ″, τ) with the analytic Jacobian, started from the
+// auxiliary equations (the vapour-pressure equation inverted for T). If
+// that fails it falls back on a bracketed Newton iteration in T on
+// SaturationAtT, with the slope of the vapour-pressure curve from the
+// Clausius–Clapeyron equation. The accuracy is that of SaturationAtT; P
+// is the given p.
+//
+// Special cases are:
+//
+//	p NaN, ±Inf or ≤ 0: ErrInvalidInput
+//	p > pc = Critical().P: ErrOutOfRange
+//	p below the equation's vapour pressure at the triple-point
+//	  temperature (which is Triple().P where the triple point is the
+//	  equation's own): ErrOutOfRange (no vapour–liquid saturation below
+//	  the triple point)
+//	p = pc: the critical point, as SaturationAtT(Tc)
+//
+// SaturationAtP allocates nothing unless it returns an error.
+func (f *Fluid) SaturationAtP(p float64) (Saturation, error) {
+	const op = "fluid.SaturationAtP"
+	in := Input{"p", p, "Pa"}
+	if !finite(p) || p <= 0 {
+		return Saturation{}, NewError(op, ErrInvalidInput, "p must be finite and positive", in)
+	}
+	if p > f.crit.P {
+		return Saturation{}, NewError(op, ErrOutOfRange,
+			"no vapour-liquid saturation above the critical pressure; "+f.satRangeP(), in)
+	}
+	belowTriple := func() error {
+		return NewError(op, ErrOutOfRange,
+			"no vapour-liquid saturation below the triple-point pressure, where vapour meets the solid; "+f.satRangeP(), in)
+	}
+	if p < 0.9*f.triple.P {
+		return Saturation{}, belowTriple()
+	}
+	if p == f.crit.P {
+		return f.criticalSaturation(), nil
+	}
+	s, ok := f.satP(p)
+	if !ok {
+		return Saturation{}, NewError(op, ErrNoConvergence, "the saturation iteration did not converge", in)
+	}
+	T := f.tc / s.tau
+	if T < f.triple.T*(1-1e-12) {
+		return Saturation{}, belowTriple()
+	}
+	return f.saturation(&s, T, p), nil
+}
+
+func (f *Fluid) satRange() string {
+	return "valid range " + fmtG(f.triple.T) + " <= T <= " + fmtG(f.tc) + " K for " + f.name
+}
+
+func (f *Fluid) satRangeP() string {
+	return "valid range from the vapour pressure at the triple-point temperature " + fmtG(f.triple.T) +
+		" K (about " + fmtG(f.triple.P) + " Pa) to " + fmtG(f.crit.P) + " Pa for " + f.name
+}
+
+// criticalSaturation returns the critical point as a saturation state.
+func (f *Fluid) criticalSaturation() Saturation {
+	c := f.props(f.tc, f.rhoc)
+	c.Flags |= Saturated
+	return Saturation{T: f.tc, P: f.crit.P, Liquid: c, Vapor: c,
+		Flags: Saturated | AtCritical | c.Flags&Extrapolated}
+}
+
+// saturation builds the exported result; p > 0 overrides the pressure.
+func (f *Fluid) saturation(s *satPair, T, p float64) Saturation {
+	l := f.propsFromResidual(T, s.dl*f.rhoc, &s.rl)
+	v := f.propsFromResidual(T, s.dv*f.rhoc, &s.rv)
+	l.Flags |= Saturated
+	v.Flags |= Saturated
+	if p <= 0 {
+		p = v.P
+	}
+	return Saturation{T: T, P: p, Liquid: l, Vapor: v,
+		Flags: Saturated | (l.Flags|v.Flags)&Extrapolated}
+}
+
+// auxDensities returns starting reduced densities at τ from the auxiliary
+// equations, clamped to δ″ < 1 < δ′.
+func (f *Fluid) auxDensities(tau float64) (dl, dv float64) {
+	T := f.tc / tau
+	if f.aux.rhoLiq != nil && f.aux.rhoVap != nil {
+		dl, dv = f.aux.rhoLiq(T)/f.rhoc, f.aux.rhoVap(T)/f.rhoc
+	} else {
+		// No auxiliary equations: a rough corresponding-states start.
+		th := math.Max(1-T/f.tc, 0)
+		dl, dv = 1+2*math.Cbrt(th), math.Exp(-8*math.Cbrt(th))
+	}
+	if !(dl > 1) || !finite(dl) {
+		dl = 1 + 1e-3
+	}
+	if !(dv < 1) || !(dv > 0) {
+		dv = 1 - 1e-3
+	}
+	return dl, dv
+}
+
+// satT solves the saturation at τ > 1.
+func (f *Fluid) satT(tau float64) (satPair, bool) {
+	if T := f.tc / tau; f.tc-T < critBand {
+		return f.nearCritT(T)
+	}
+	return f.satTSolve(tau)
+}
+
+// satTSolve solves the saturation at τ by Newton's method with the
+// pressure iteration as fallback.
+func (f *Fluid) satTSolve(tau float64) (satPair, bool) {
+	dl, dv := f.auxDensities(tau)
+	if s, ok := f.satNewtonT(tau, dl, dv); ok {
+		return s, true
+	}
+	return f.satByPressure(tau)
+}
+
+// satNewtonT is Newton's method in (δ′, δ″) on the reduced conditions
+//
+//	P(δ′) − P(δ″) = 0,  G(δ′) − G(δ″) = 0,
+//
+// P = δ(1 + δαʳ_δ) = p/(ρc R T), G = ln δ + αʳ + δαʳ_δ (g/(RT) less its
+// τ-only part). With P_δ = 1 + 2δαʳ_δ + δ²αʳ_δδ, G_δ = P_δ/δ, so the
+// Jacobian is [[P′_δ, −P″_δ], [P′_δ/δ′, −P″_δ/δ″]].
+func (f *Fluid) satNewtonT(tau, dl, dv float64) (satPair, bool) {
+	var s satPair
+	s.tau = tau
+	w := newtonWatch{best: math.Inf(1)}
+	bestRes := math.Inf(1)
+	for it := 0; it < 40; it++ {
+		rl := f.residual(dl, tau)
+		rv := f.residual(dv, tau)
+		Pl, Pv := dl*(1+dl*rl.D), dv*(1+dv*rv.D)
+		dPl := 1 + 2*dl*rl.D + dl*dl*rl.DD
+		dPv := 1 + 2*dv*rv.D + dv*dv*rv.DD
+		F1 := Pl - Pv
+		F2 := gibbsReduced(dl, &rl) - gibbsReduced(dv, &rv)
+		det := dPl * dPv * (1/dl - 1/dv)
+		a := (F1*dPv/dv - F2*dPv) / det
+		b := (F1*dPl/dl - F2*dPl) / det
+		if !finite(a) || !finite(b) {
+			return s, false
+		}
+		res := max(math.Abs(F1)/satTolP(Pv, dl, tau), math.Abs(F2)/satTolG(tau))
+		good := dPl > 0 && dPv > 0 && dl > 1 && dv < 1
+		conv, ok := w.check(res)
+		if good && res < bestRes {
+			bestRes = res
+			s.dl, s.dv, s.rl, s.rv, s.strict = dl, dv, rl, rv, res <= 1
+		}
+		if conv {
+			return s, ok && bestRes <= 5
+		}
+		// Keep δ″ < 1 < δ′ (the trivial solution δ′ = δ″ lies between).
+		dl = stepAbove(dl, a, 1)
+		dv = stepBelow(dv, b, 1)
+	}
+	return s, false
+}
+
+// stepAbove returns x + dx, or halfway to the bound lo if that would not
+// stay above it.
+func stepAbove(x, dx, lo float64) float64 {
+	if x+dx > lo {
+		return x + dx
+	}
+	return 0.5 * (x + lo)
+}
+
+// stepBelow returns x + dx, or halfway to the bound hi (or to 0) if that
+// would not stay within (0, hi).
+func stepBelow(x, dx, hi float64) float64 {
+	switch y := x + dx; {
+	case y >= hi:
+		return 0.5 * (x + hi)
+	case y <= 0:
+		return 0.5 * x
+	default:
+		return y
+	}
+}
+
+// satByPressure solves the saturation at τ by a bracketed Newton iteration
+// in the reduced pressure π on D(π) = G(δ′(π)) − G(δ″(π)) = 0, where
+// dD/dπ = 1/δ′ − 1/δ″ < 0; a π at which a root does not exist (beyond a
+// spinodal) bounds the bracket. The result is polished by satNewtonT.
+func (f *Fluid) satByPressure(tau float64) (satPair, bool) {
+	var s satPair
+	T := f.tc / tau
+	pi := 0.0
+	if f.aux.psat != nil {
+		pi = f.aux.psat(T) / (f.rhoc * f.r * T)
+	}
+	lo, hi := 0.0, math.Inf(1)
+	if !(pi > 0) || !finite(pi) {
+		pi = f.crit.P / (f.rhoc * f.r * T) * 0.5
+	}
+	var gl, gv float64 // density guesses
+	for it := 0; it < 100; it++ {
+		if !(pi > lo && pi < hi) {
+			switch {
+			case math.IsInf(hi, 1):
+				pi = 2 * lo
+			case lo == 0:
+				pi = hi / 2
+			default:
+				pi = 0.5 * (lo + hi)
+			}
+		}
+		dv, rv, stv := f.solveDelta(tau, pi, branchVapor, gv)
+		if stv != rootFound {
+			hi = pi
+			pi = math.NaN()
+			continue
+		}
+		dl, rl, stl := f.solveDelta(tau, pi, branchLiquid, gl)
+		if stl != rootFound {
+			lo = pi
+			pi = math.NaN()
+			continue
+		}
+		gl, gv = dl, dv
+		D := gibbsReduced(dl, &rl) - gibbsReduced(dv, &rv)
+		if D > 0 {
+			lo = pi
+		} else {
+			hi = pi
+		}
+		step := -D / (1/dl - 1/dv)
+		if math.Abs(D) <= satTolG(tau) || math.Abs(step) <= 1e-15*pi || hi-lo <= 1e-15*hi {
+			if p, ok := f.satNewtonT(tau, dl, dv); ok {
+				return p, true
+			}
+			s.tau, s.dl, s.dv, s.rl, s.rv = tau, dl, dv, rl, rv
+			return s, dl > 1 && dv < 1 && math.Abs(D) <= 5*satTolG(tau)
+		}
+		pi += step
+	}
+	return s, false
+}
+
+// satP solves the saturation at pressure p, pt ≤ p < pc.
+func (f *Fluid) satP(p float64) (satPair, bool) {
+	near := p > 0.99*f.crit.P
+	if near && f.aux.psat != nil {
+		near = p > f.aux.psat(f.tc-3*critBand)
+	}
+	if near {
+		if s, in, ok := f.nearCritP(p); in || !ok {
+			return s, ok
+		}
+	}
+	T := f.auxTsat(p)
+	tau := f.tc / T
+	dl, dv := f.auxDensities(tau)
+	if s, ok := f.satNewtonP(p, tau, dl, dv); ok {
+		return s, true
+	}
+	return f.satPByT(p, T)
+}
+
+// auxTsat inverts the auxiliary vapour-pressure equation for T by the
+// secant method in 1/T on ln p, started from the line through the triple
+// and critical points; without an auxiliary equation it returns that
+// line's estimate.
+func (f *Fluid) auxTsat(p float64) float64 {
+	tt, tc := 0.99*f.triple.T, f.tc
+	lp := math.Log(p)
+	x0, y0 := 1/tc, math.Log(f.crit.P)
+	slope := (math.Log(f.triple.P) - y0) / (1/tt - x0)
+	x := x0 + (lp-y0)/slope
+	if f.aux.psat == nil {
+		return clampT(1/x, tt, tc)
+	}
+	for it := 0; it < 8; it++ {
+		T := clampT(1/x, tt, tc)
+		x = 1 / T
+		y := math.Log(f.aux.psat(T))
+		if !finite(y) {
+			break
+		}
+		if math.Abs(y-lp) < 1e-9 {
+			return T
+		}
+		if x != x0 {
+			slope = (y - y0) / (x - x0)
+		}
+		x0, y0 = x, y
+		x += (lp - y) / slope
+	}
+	return clampT(1/x, tt, tc)
+}
+
+// clampT keeps a temperature estimate inside [lo, hi·(1 − 1e-7)].
+func clampT(T, lo, hi float64) float64 {
+	if !(T >= lo) {
+		return lo
+	}
+	if T > hi*(1-1e-7) {
+		return hi * (1 - 1e-7)
+	}
+	return T
+}
+
+// satNewtonP is Newton's method in (δ′, δ″, τ) on
+//
+//	E1 = P(δ′, τ)/(τ πc) − 1,  E2 = P(δ″, τ)/(τ πc) − 1,  E3 = G(δ′) − G(δ″),
+//
+// where p = ρc R Tc P/τ and πc = p/(ρc R Tc); ∂P/∂τ = δ²αʳ_δτ and
+// ∂G/∂τ = αʳ_τ + δαʳ_δτ. The Jacobian has zeros at (1,2) and (2,1), so
+// the step follows in closed form from the Schur complement in τ.
+func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
+	var s satPair
+	pc := p / (f.rhoc * f.r * f.tc)
+	w := newtonWatch{best: math.Inf(1)}
+	bestRes := math.Inf(1)
+	for it := 0; it < 40; it++ {
+		rl := f.residual(dl, tau)
+		rv := f.residual(dv, tau)
+		Pl, Pv := dl*(1+dl*rl.D), dv*(1+dv*rv.D)
+		dPl := 1 + 2*dl*rl.D + dl*dl*rl.DD
+		dPv := 1 + 2*dv*rv.D + dv*dv*rv.DD
+		k := 1 / (tau * pc)
+		E1 := Pl*k - 1
+		E2 := Pv*k - 1
+		E3 := gibbsReduced(dl, &rl) - gibbsReduced(dv, &rv)
+		a11, a13 := dPl*k, (dl*dl*rl.DT-Pl/tau)*k
+		a22, a23 := dPv*k, (dv*dv*rv.DT-Pv/tau)*k
+		a31, a32 := dPl/dl, -dPv/dv
+		a33 := (rl.T + dl*rl.DT) - (rv.T + dv*rv.DT)
+		schur := a33 - a31*a13/a11 - a32*a23/a22
+		dt := (-E3 + a31*E1/a11 + a32*E2/a22) / schur
+		ddl := (-E1 - a13*dt) / a11
+		ddv := (-E2 - a23*dt) / a22
+		if !finite(dt) || !finite(ddl) || !finite(ddv) {
+			return s, false
+		}
+		// Residuals of the pressures in units of the reduced pressure
+		// P, as in satNewtonT.
+		res := max(math.Abs(E1/k)/satTolP(Pv, dl, tau), math.Abs(E2/k)/satTolP(Pv, dv, tau),
+			math.Abs(E3)/satTolG(tau))
+		good := dPl > 0 && dPv > 0 && dl > 1 && dv < 1 && tau > 1
+		conv, ok := w.check(res)
+		if good && res < bestRes {
+			bestRes = res
+			s.tau, s.dl, s.dv, s.rl, s.rv, s.strict = tau, dl, dv, rl, rv, res <= 1
+		}
+		if conv {
+			return s, ok && bestRes <= 5
+		}
+		dl = stepAbove(dl, ddl, 1)
+		dv = stepBelow(dv, ddv, 1)
+		tau = stepAbove(tau, dt, 1)
+	}
+	return s, false
+}
+
+// satPByT solves the saturation at p by a bracketed Newton iteration in T
+// on psat(T) = p, with dpsat/dT = (s″ − s′)/(1/ρ″ − 1/ρ′) from the
+// Clausius–Clapeyron equation.
+func (f *Fluid) satPByT(p, T float64) (satPair, bool) {
+	lo, hi := 0.99*f.triple.T, f.tc-critBand
+	var s satPair
+	for it := 0; it < 100; it++ {
+		if !(T > lo && T < hi) {
+			T = 0.5 * (lo + hi)
+		}
+		tau := f.tc / T
+		var ok bool
+		s, ok = f.satTSolve(tau)
+		if !ok {
+			return s, false
+		}
+		ps := s.pi() * f.rhoc * f.r * T
+		if ps < p {
+			lo = T
+		} else {
+			hi = T
+		}
+		step := (p - ps) / f.clapeyron(&s)
+		if math.Abs(p-ps) <= 1e-14*p || hi-lo <= 1e-15*hi {
+			return s, true
+		}
+		T += step
+	}
+	return s, false
+}
+
+// critBand is the interval below Tc, in K, in which the saturation is
+// started from the near-critical model instead of the auxiliary
+// equations, and where Newton's method cannot resolve the densities, taken
+// from the model.
+const critBand = 1e-3
+
+// nearCrit is the saturation curve between T1 = Tc − critBand and Tc,
+// in x = (Tc − T)/critBand:
+//
+//	p(T) = pc + A y + B y²,  y = T − Tc,
+//	δ′, δ″ = m ± h,
+//
+// with A and B making p and its Clausius–Clapeyron slope continuous at
+// T1 and p = pc at Tc, and m (the mean of δ′ and δ″) and h (half their
+// difference) interpolated between anchors, the equation's own
+// saturation solved at x = 1, 1e-1, 1e-2, 1e-3 as far down as Newton's
+// method converges to its residual bounds: m linearly in x, ln h linearly
+// in ln x (a local power law x^β); below the last anchor, h follows the
+// last segment's exponent β (bounded to [0.3, 0.5]: about 0.34 for
+// Span–Wagner CO2 and 0.49 for IAPWS-95 just below 1 mK, tending to the
+// classical 1/2 at Tc) and m tends linearly to 1.
+type nearCrit struct {
+	pc, A, B float64
+	n        int        // anchors in use
+	x, m, h  [4]float64 // anchors
+	s1       satPair    // the solution at T1
+	p1       float64
+	// closes is false where the anchors show no closing of the curve
+	// toward Tc (an exponent below 0.2: the equation's own critical
+	// point lies above its reducing temperature); the model is then not
+	// used for values.
+	closes bool
+}
+
+// nearCritAnchors are the x of the anchors.
+var nearCritAnchors = [4]float64{1, 1e-1, 1e-2, 1e-3}
+
+// nearCritModel builds the near-critical model of f with the anchors
+// needed down to x, 0 < x ≤ 1 (x ≤ 0: only the pressure model).
+func (f *Fluid) nearCritModel(x float64) (nearCrit, bool) {
+	var m nearCrit
+	T1 := f.tc - critBand
+	s1, ok := f.satTSolve(f.tc / T1)
+	if !ok {
+		return m, false
+	}
+	m.s1 = s1
+	m.p1 = s1.pi() * f.rhoc * f.r * T1
+	m.pc = f.crit.P
+	slope := f.clapeyron(&s1)
+	y1 := -critBand
+	m.B = (slope*y1 - (m.p1 - m.pc)) / (y1 * y1)
+	m.A = slope - 2*m.B*y1
+	if m.A+2*m.B*y1 <= 0 || m.A <= 0 {
+		// Not monotone: the straight line through T1 and Tc.
+		m.A, m.B = (m.pc-m.p1)/critBand, 0
+	}
+	m.x[0], m.m[0], m.h[0], m.n = 1, 0.5*(s1.dl+s1.dv), 0.5*(s1.dl-s1.dv), 1
+	for k := 1; k < len(nearCritAnchors) && m.x[m.n-1] > x && x > 0; k++ {
+		xa := nearCritAnchors[k]
+		tau := f.tc / (f.tc - xa*critBand)
+		dl, dv := m.densities(xa)
+		s, ok := f.satNewtonT(tau, dl, dv)
+		if !ok || !s.strict {
+			// From the last anchor's densities: right where the curve
+			// does not close toward Tc.
+			s, ok = f.satNewtonT(tau, m.m[m.n-1]+m.h[m.n-1], m.m[m.n-1]-m.h[m.n-1])
+		}
+		if !ok || !s.strict || !(s.dl-s.dv > 0) {
+			break
+		}
+		m.x[m.n], m.m[m.n], m.h[m.n] = xa, 0.5*(s.dl+s.dv), 0.5*(s.dl-s.dv)
+		m.n++
+	}
+	m.closes = true
+	for k := 1; k < m.n; k++ {
+		if math.Log(m.h[k-1]/m.h[k])/math.Log(m.x[k-1]/m.x[k]) < 0.2 {
+			m.closes = false
+		}
+	}
+	return m, true
+}
+
+// densities returns the model's reduced densities at x.
+func (m *nearCrit) densities(x float64) (dl, dv float64) {
+	k := 0
+	for k+1 < m.n && m.x[k+1] > x {
+		k++
+	}
+	var mean, h float64
+	if k+1 < m.n {
+		// Between anchors k and k+1.
+		u := (x - m.x[k+1]) / (m.x[k] - m.x[k+1])
+		mean = m.m[k+1] + (m.m[k]-m.m[k+1])*u
+		beta := math.Log(m.h[k]/m.h[k+1]) / math.Log(m.x[k]/m.x[k+1])
+		h = m.h[k+1] * math.Pow(x/m.x[k+1], beta)
+	} else {
+		// Below the last anchor.
+		beta := 0.5
+		if m.n > 1 {
+			beta = math.Log(m.h[m.n-2]/m.h[m.n-1]) / math.Log(m.x[m.n-2]/m.x[m.n-1])
+			beta = min(max(beta, 0.3), 0.5)
+		}
+		xl := m.x[m.n-1]
+		mean = 1 + (m.m[m.n-1]-1)*x/xl
+		h = m.h[m.n-1] * math.Pow(x/xl, beta)
+	}
+	return mean + h, mean - h
+}
+
+// p returns the model's pressure at y = T − Tc.
+func (m *nearCrit) p(y float64) float64 { return m.pc + (m.A+m.B*y)*y }
+
+// y returns T − Tc where the model's pressure is p, p1 ≤ p ≤ pc.
+func (m *nearCrit) y(p float64) float64 {
+	d := p - m.pc
+	disc := m.A*m.A + 4*m.B*d
+	if disc < 0 {
+		disc = 0
+	}
+	y := 2 * d / (m.A + math.Sqrt(disc))
+	return math.Max(y, -critBand)
+}
+
+// nearCritT returns the saturation at T, Tc − critBand < T < Tc.
+func (f *Fluid) nearCritT(T float64) (satPair, bool) {
+	y := T - f.tc
+	m, ok := f.nearCritModel(-y / critBand)
+	if !ok {
+		return satPair{}, false
+	}
+	return f.nearCritAt(&m, y, 0), true
+}
+
+// nearCritP returns the saturation at p if p lies at or above the model's
+// pressure at Tc − critBand; ok is false otherwise.
+func (f *Fluid) nearCritP(p float64) (s satPair, in, ok bool) {
+	m, ok := f.nearCritModel(0)
+	if !ok {
+		return s, false, false
+	}
+	if p < m.p1 {
+		return s, false, true
+	}
+	y := m.y(p)
+	if m, ok = f.nearCritModel(-y / critBand); !ok {
+		return s, true, false
+	}
+	return f.nearCritAt(&m, y, p), true, true
+}
+
+// nearCritAt returns the saturation at y = T − Tc in [−critBand, 0):
+// Newton's method (in the densities, or with p > 0 at that pressure in
+// densities and τ) started from the model, where it converges to its
+// residual bounds, or to the rounding floor without leaving the model's
+// neighbourhood; the model otherwise.
+func (f *Fluid) nearCritAt(m *nearCrit, y, p float64) satPair {
+	x := -y / critBand
+	if x >= 1 {
+		return m.s1
+	}
+	tau := f.tc / (f.tc + y)
+	dl, dv := m.densities(x)
+	h := 0.5 * (dl - dv)
+	var s satPair
+	var ok bool
+	if p > 0 {
+		s, ok = f.satNewtonP(p, tau, dl, dv)
+	} else {
+		s, ok = f.satNewtonT(tau, dl, dv)
+	}
+	// Close to Tc the equation cannot tell apart states within a band of
+	// densities, and Newton's method, driven by rounding noise, may
+	// wander in it even while its residuals meet their bounds: its
+	// result stands only where it stays near the model (within 5 % of
+	// h), and the model's own values, monotone by construction and equal
+	// to rounding in the residuals there, are returned otherwise.
+	if ok && (!m.closes && s.strict || math.Abs(s.dl-dl) <= 0.05*h && math.Abs(s.dv-dv) <= 0.05*h &&
+		math.Abs(s.tau-tau) <= 0.01*critBand/f.tc) {
+		return s
+	}
+	if m.closes {
+		s = satPair{tau: tau, dl: dl, dv: dv}
+		s.rl = f.residual(dl, tau)
+		s.rv = f.residual(dv, tau)
+		return s
+	}
+	// An equation whose coexistence curve does not close at its
+	// reducing point (the model then misleads): the regular solver.
+	if p <= 0 {
+		if s, ok := f.satTSolve(tau); ok && s.strict {
+			return s
+		}
+	} else if s, ok := f.satNewtonP(p, f.tc/(f.tc-critBand), m.s1.dl, m.s1.dv); ok && s.strict {
+		return s
+	}
+	s = satPair{tau: tau, dl: dl, dv: dv}
+	s.rl = f.residual(dl, tau)
+	s.rv = f.residual(dv, tau)
+	return s
+}
+
+// clapeyron returns the slope dp/dT of the vapour-pressure curve at the
+// solution s, in Pa/K, from the Clausius–Clapeyron equation
+// dp/dT = (s″ − s′)/(1/ρ″ − 1/ρ′). s = R(τα_τ − α): the ideal-gas τ terms
+// are equal in both phases and cancel, leaving ln δ.
+func (f *Fluid) clapeyron(s *satPair) float64 {
+	sl := s.tau*s.rl.T - s.rl.A - math.Log(s.dl)
+	sv := s.tau*s.rv.T - s.rv.A - math.Log(s.dv)
+	return f.r * (sv - sl) / (1/(s.dv*f.rhoc) - 1/(s.dl*f.rhoc))
+}
