@@ -96,18 +96,64 @@ func (f *Fluid) Density(T, p float64, root Root) (float64, error) {
 // p in Pa on the requested root (see Density), starting Newton's method
 // from rhoGuess in kg/m³ when it is positive (a warm start from a nearby
 // state; 0 means none). A state on a root that is not the stable phase at
-// (T, p) carries the Metastable flag. Special cases are those of Density
-// and Props.
+// (T, p) carries the Metastable flag; at exactly the vapour pressure (to
+// rounding) RootStable takes the liquid and flags it Indeterminate.
+// Special cases are those of Density and Props.
 func (f *Fluid) PropsTP(T, p float64, root Root, rhoGuess float64) (Props, error) {
-	rho, r, meta, err := f.densityTP("fluid.PropsTP", T, p, root, rhoGuess, true)
+	rho, r, fl, err := f.densityTP("fluid.PropsTP", T, p, root, rhoGuess, true)
 	if err != nil {
 		return Props{}, err
 	}
 	pr := f.propsFromResidual(T, rho, &r)
-	if meta {
-		pr.Flags |= Metastable
-	}
+	pr.Flags |= fl
 	return pr, f.checkProps("fluid.PropsTP", &pr)
+}
+
+// StableRoot returns the root of the stable fluid phase of f at
+// temperature T in K and pressure p in Pa, as RootStable decides it:
+// RootLiquid or RootVapor below Tc (at exactly the vapour pressure,
+// RootLiquid with Indeterminate set in flags), RootStable at and above
+// Tc, where the fluid has one phase. Away from the vapour pressure it
+// costs no evaluation of the equation; within 5 % of it, one saturation
+// (SaturationAtT); below the triple-point temperature, the two roots.
+// It does not judge solid phases. Errors are those of Density.
+func (f *Fluid) StableRoot(T, p float64) (root Root, flags Flags, err error) {
+	const op = "fluid.StableRoot"
+	if err := f.checkTP(op, T, p); err != nil {
+		return 0, 0, err
+	}
+	if T >= f.tc {
+		return RootStable, 0, nil
+	}
+	if b, ok := f.auxSide(T, p); ok {
+		return rootOf(b), 0, nil
+	}
+	tau := f.tc / T
+	pi := p / (f.rhoc * f.r * T)
+	if T >= f.triple.T {
+		if s, ok := f.satT(tau); ok {
+			ps := s.pi()
+			if math.Abs(pi-ps) <= 4e-16*ps {
+				return RootLiquid, Indeterminate, nil
+			}
+			if pi > ps {
+				return RootLiquid, 0, nil
+			}
+			return RootVapor, 0, nil
+		}
+	}
+	d, r, st := f.solveDelta(tau, pi, branchVapor, 0)
+	if st != rootFound {
+		return RootLiquid, 0, nil
+	}
+	return rootOf(f.stableBranch(T, tau, pi, branchVapor, d, &r)), 0, nil
+}
+
+func rootOf(b branch) Root {
+	if b == branchLiquid {
+		return RootLiquid
+	}
+	return RootVapor
 }
 
 // propsFromResidual builds Props at (T, ρ) from residual derivatives
@@ -137,14 +183,15 @@ func (f *Fluid) checkTP(op string, T, p float64) error {
 }
 
 // densityTP solves for the density at (T, p) on root. It returns the
-// density, the residual derivatives there and, when wantMeta, whether the
-// root found is metastable.
-func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wantMeta bool) (float64, helmholtz.Derivs, bool, error) {
+// density, the residual derivatives there and flags: Indeterminate for
+// RootStable at exactly the vapour pressure and, when wantMeta,
+// Metastable for a root that is not the stable phase.
+func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wantMeta bool) (float64, helmholtz.Derivs, Flags, error) {
 	if err := f.checkTP(op, T, p); err != nil {
-		return 0, helmholtz.Derivs{}, false, err
+		return 0, helmholtz.Derivs{}, 0, err
 	}
 	if root < RootStable || root > RootVapor {
-		return 0, helmholtz.Derivs{}, false, NewError(op, ErrInvalidInput,
+		return 0, helmholtz.Derivs{}, 0, NewError(op, ErrInvalidInput,
 			"root must be RootStable (0), RootLiquid (1) or RootVapor (2)",
 			Input{"T", T, "K"}, Input{"p", p, "Pa"}, Input{"root", float64(root), ""})
 	}
@@ -156,7 +203,7 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 	}
 	if T >= f.tc {
 		d, r, st := f.solveDelta(tau, pi, branchSingle, g)
-		return f.rootResult(op, T, p, d, r, st, branchSingle, false)
+		return f.rootResult(op, T, p, d, r, st, branchSingle, 0)
 	}
 	switch root {
 	case RootLiquid, RootVapor:
@@ -165,25 +212,32 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 			b = branchVapor
 		}
 		d, r, st := f.solveDelta(tau, pi, b, g)
-		meta := false
-		if wantMeta && st == rootFound {
-			meta = f.stableBranch(T, tau, pi, b, d, &r) != b
+		var fl Flags
+		if wantMeta && st == rootFound && f.stableBranch(T, tau, pi, b, d, &r) != b {
+			fl = Metastable
 		}
-		return f.rootResult(op, T, p, d, r, st, b, meta)
+		return f.rootResult(op, T, p, d, r, st, b, fl)
 	}
 	// RootStable.
 	if b, ok := f.auxSide(T, p); ok {
 		d, r, st := f.solveDelta(tau, pi, b, g)
-		return f.rootResult(op, T, p, d, r, st, b, false)
+		return f.rootResult(op, T, p, d, r, st, b, 0)
 	}
 	if T >= f.triple.T {
 		if s, ok := f.satT(tau); ok {
 			b := branchVapor
-			if pi >= s.pi() {
+			ps := s.pi()
+			if pi >= ps {
 				b = branchLiquid
 			}
+			var fl Flags
+			if math.Abs(pi-ps) <= 4e-16*ps {
+				// On the vapour-pressure curve to rounding: the inputs
+				// do not fix the phase.
+				fl = Indeterminate
+			}
 			d, r, st := f.solveDelta(tau, pi, b, g)
-			return f.rootResult(op, T, p, d, r, st, b, false)
+			return f.rootResult(op, T, p, d, r, st, b, fl)
 		}
 	}
 	// Both roots, the lower Gibbs energy wins.
@@ -192,15 +246,15 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 	switch {
 	case stl == rootFound && stv == rootFound:
 		if gibbsReduced(dl, &rl) <= gibbsReduced(dv, &rv) {
-			return f.rootResult(op, T, p, dl, rl, stl, branchLiquid, false)
+			return f.rootResult(op, T, p, dl, rl, stl, branchLiquid, 0)
 		}
-		return f.rootResult(op, T, p, dv, rv, stv, branchVapor, false)
+		return f.rootResult(op, T, p, dv, rv, stv, branchVapor, 0)
 	case stl == rootFound:
-		return f.rootResult(op, T, p, dl, rl, stl, branchLiquid, false)
+		return f.rootResult(op, T, p, dl, rl, stl, branchLiquid, 0)
 	case stv == rootFound:
-		return f.rootResult(op, T, p, dv, rv, stv, branchVapor, false)
+		return f.rootResult(op, T, p, dv, rv, stv, branchVapor, 0)
 	}
-	return f.rootResult(op, T, p, dl, rl, stl, branchLiquid, false)
+	return f.rootResult(op, T, p, dl, rl, stl, branchLiquid, 0)
 }
 
 // auxSide decides the stable branch at (T, p), T < Tc, from the auxiliary
@@ -257,14 +311,14 @@ func gibbsReduced(d float64, r *helmholtz.Derivs) float64 {
 }
 
 // rootResult turns a solver status into the Density result.
-func (f *Fluid) rootResult(op string, T, p, d float64, r helmholtz.Derivs, st rootStatus, b branch, meta bool) (float64, helmholtz.Derivs, bool, error) {
+func (f *Fluid) rootResult(op string, T, p, d float64, r helmholtz.Derivs, st rootStatus, b branch, fl Flags) (float64, helmholtz.Derivs, Flags, error) {
 	if st == rootFound {
-		return d * f.rhoc, r, meta, nil
+		return d * f.rhoc, r, fl, nil
 	}
 	in := []Input{{"T", T, "K"}, {"p", p, "Pa"}}
 	switch st {
 	case rootAboveCeil:
-		return 0, r, false, &Error{Op: op, Inputs: in, Err: ErrOutOfRange,
+		return 0, r, 0, &Error{Op: op, Inputs: in, Err: ErrOutOfRange,
 			Range: "no liquid-like root: p exceeds the pressures of the liquid branch at this T up to the accepted " +
 				fmtG(f.limits.RhoCeil) + " kg/m3 for " + f.name}
 	case rootBeyondSpinodal:
@@ -272,9 +326,9 @@ func (f *Fluid) rootResult(op string, T, p, d float64, r helmholtz.Derivs, st ro
 		if b == branchVapor {
 			what = "no vapour-like root: p is above the vapour spinodal pressure at this T"
 		}
-		return 0, r, false, &Error{Op: op, Inputs: in, Err: ErrUnstable, Range: what}
+		return 0, r, 0, &Error{Op: op, Inputs: in, Err: ErrUnstable, Range: what}
 	}
-	return 0, r, false, &Error{Op: op, Inputs: in, Err: ErrNoConvergence,
+	return 0, r, 0, &Error{Op: op, Inputs: in, Err: ErrNoConvergence,
 		Range: "the density iteration did not converge"}
 }
 

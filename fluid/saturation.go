@@ -200,6 +200,64 @@ func (f *Fluid) SaturationAtP(p float64) (Saturation, error) {
 	return f.saturation(&s, T, p), nil
 }
 
+// SaturationAtTFrom is SaturationAtT started from the saturated densities
+// rhoL and rhoV in kg/m³ of a nearby saturation state (a warm start);
+// where they are not usable (not finite, not on either side of ρc) it is
+// SaturationAtT.
+func (f *Fluid) SaturationAtTFrom(T, rhoL, rhoV float64) (Saturation, error) {
+	if !f.warmUsable(T, rhoL, rhoV) {
+		return f.SaturationAtT(T)
+	}
+	if s, ok := f.satNewtonT(f.tc/T, rhoL/f.rhoc, rhoV/f.rhoc); ok && s.strict {
+		return f.saturation(&s, T, 0), nil
+	}
+	return f.SaturationAtT(T)
+}
+
+// SaturationAtPFrom is SaturationAtP started from the temperature T in K
+// and the saturated densities rhoL and rhoV in kg/m³ of a nearby
+// saturation state (a warm start); where they are not usable it is
+// SaturationAtP.
+func (f *Fluid) SaturationAtPFrom(p, T, rhoL, rhoV float64) (Saturation, error) {
+	if !f.warmUsable(T, rhoL, rhoV) || !(p >= f.triple.P && p < f.crit.P) {
+		return f.SaturationAtP(p)
+	}
+	if s, ok := f.satNewtonP(p, f.tc/T, rhoL/f.rhoc, rhoV/f.rhoc); ok && s.strict {
+		if Ts := f.tc / s.tau; Ts >= f.triple.T && Ts < f.tc-critBand {
+			return f.saturation(&s, Ts, p), nil
+		}
+	}
+	return f.SaturationAtP(p)
+}
+
+// warmUsable reports whether a warm start lies where Newton's method
+// applies: Tt ≤ T < Tc − critBand, ρ″ < ρc < ρ′.
+func (f *Fluid) warmUsable(T, rhoL, rhoV float64) bool {
+	return T >= f.triple.T && T < f.tc-critBand && rhoL > f.rhoc && rhoL < f.limits.RhoCeil &&
+		rhoV > 0 && rhoV < f.rhoc
+}
+
+// AuxSaturationTemperature returns the saturation temperature in K at
+// pressure p in Pa from f's auxiliary vapour-pressure equation, inverted
+// by the secant method in 1/T on ln p: an estimate for starting values
+// and phase checks, as accurate as that equation. It returns an error
+// wrapping ErrUndefined for a fluid without one, ErrInvalidInput for a
+// p that is not finite and positive, and ErrOutOfRange outside
+// Triple().P ≤ p ≤ Critical().P.
+func (f *Fluid) AuxSaturationTemperature(p float64) (float64, error) {
+	const op = "fluid.AuxSaturationTemperature"
+	in := Input{"p", p, "Pa"}
+	switch {
+	case f.aux.psat == nil:
+		return 0, NewError(op, ErrUndefined, "no auxiliary vapour-pressure equation for "+f.name, in)
+	case !finite(p) || p <= 0:
+		return 0, NewError(op, ErrInvalidInput, "p must be finite and positive", in)
+	case p < f.triple.P || p > f.crit.P:
+		return 0, NewError(op, ErrOutOfRange, "valid range "+fmtG(f.triple.P)+" <= p <= "+fmtG(f.crit.P)+" Pa", in)
+	}
+	return f.auxTsat(p), nil
+}
+
 func (f *Fluid) satRange() string {
 	return "valid range " + fmtG(f.triple.T) + " <= T <= " + fmtG(f.tc) + " K for " + f.name
 }

@@ -1,0 +1,113 @@
+package flash
+
+import (
+	"math"
+
+	"github.com/tripoint-thermo/tripoint/fluid"
+)
+
+// phaseState returns the PhaseState of pr as phase ph with mass fraction x.
+func phaseState(pr *fluid.Props, ph Phase, x float64) PhaseState {
+	return PhaseState{Phase: ph, Fraction: x, Rho: pr.Rho, H: pr.H, S: pr.S, U: pr.U,
+		Cp: pr.Cp, Cv: pr.Cv, W: pr.W}
+}
+
+// single returns the single-phase state of pr as phase ph.
+func single(pr *fluid.Props, ph Phase) State {
+	st := State{T: pr.T, P: pr.P, Rho: pr.Rho, H: pr.H, S: pr.S, U: pr.U,
+		Cp: pr.Cp, Cv: pr.Cv, W: pr.W, Phase: ph, N: 1, Flags: pr.Flags}
+	if ph == Vapor {
+		st.Quality = 1
+	}
+	st.Phases[0] = phaseState(pr, ph, 1)
+	return st
+}
+
+// fluidPhase names the phase of a single-phase fluid state (DESIGN.md):
+// Supercritical above Tc and pc; at or below Tc the liquid-like branch
+// (ρ > ρc) is Liquid; otherwise Vapor.
+func fluidPhase(f *fluid.Fluid, T, p, rho float64) Phase {
+	c := f.Critical()
+	switch {
+	case T > c.T && p > c.P:
+		return Supercritical
+	case T > c.T:
+		return Vapor
+	case p > c.P || rho > c.Rho:
+		return Liquid
+	}
+	return Vapor
+}
+
+// twoPhase returns the liquid–vapour state of saturation s at vapour mass
+// fraction q. q = 0 and q = 1 give the saturated liquid and vapour as
+// single-phase states, flagged Saturated.
+//
+// The mixture's ρ, h, s and u follow from its phases (1/ρ = (1−q)/ρ′ +
+// q/ρ″, h = (1−q)h′ + q h″, …) and Cp = +Inf. Cv and W are derivatives of
+// the mixture along its equilibrium paths, computed analytically from the
+// properties of the two phases. With γ = dp_sat/dT = (s″ − s′)/(v″ − v′)
+// (Clausius–Clapeyron), each saturated phase i changes along the curve as
+//
+//	dρᵢ/dT = (γ − (∂p/∂T)ᵢ)/(∂p/∂ρ)ᵢ,
+//	duᵢ/dT = cvᵢ + (p − T(∂p/∂T)ᵢ)/ρᵢ² · dρᵢ/dT,
+//	dsᵢ/dT = cvᵢ/T − (∂p/∂T)ᵢ/ρᵢ² · dρᵢ/dT,
+//
+// so that at fixed v = v′ + q(v″ − v′), with dq/dT = −(dv′ + q d(v″−v′))/(v″ − v′),
+//
+//	cv = du′/dT + q d(u″−u′)/dT + (u″ − u′) dq/dT,
+//
+// and at fixed s, with dq/dT = −(ds′ + q d(s″−s′))/(s″ − s′), the
+// homogeneous-equilibrium speed of sound (phases in mechanical, thermal
+// and phase equilibrium, moving together) is
+//
+//	w² = (∂p/∂ρ)_s = −v² γ / (dv/dT)_s,
+//	(dv/dT)_s = dv′/dT + q d(v″−v′)/dT + (v″ − v′) dq/dT.
+//
+// At the critical point itself (T = Tc) the state is the critical state,
+// with cv = cp = +Inf and w = 0 where the equation has nonanalytic terms.
+func twoPhase(f *fluid.Fluid, s *fluid.Saturation, q float64) State {
+	l, v := &s.Liquid, &s.Vapor
+	if q <= 0 {
+		st := single(l, Liquid)
+		st.Flags |= Saturated | s.Flags&AtCritical
+		return st
+	}
+	if q >= 1 {
+		st := single(v, Vapor)
+		st.Flags |= Saturated | s.Flags&AtCritical
+		return st
+	}
+	st := State{T: s.T, P: s.P, Phase: TwoPhase, Quality: q, N: 2,
+		Flags: Saturated | s.Flags&(Extrapolated|AtCritical) | (l.Flags|v.Flags)&Extrapolated}
+	vl, vv := 1/l.Rho, 1/v.Rho
+	st.Rho = 1 / (vl + q*(vv-vl))
+	st.H = l.H + q*(v.H-l.H)
+	st.S = l.S + q*(v.S-l.S)
+	st.U = l.U + q*(v.U-l.U)
+	st.Cp = math.Inf(1)
+	st.Phases[0] = phaseState(l, Liquid, 1-q)
+	st.Phases[1] = phaseState(v, Vapor, q)
+	if s.Flags&AtCritical != 0 {
+		st.Cv, st.W = l.Cv, l.W
+		return st
+	}
+	T := s.T
+	gamma := (v.S - l.S) / (vv - vl)
+	type dd struct{ v, u, s float64 }
+	along := func(pr *fluid.Props) dd {
+		drho := (gamma - pr.DpDT) / pr.DpDrho
+		r2 := pr.Rho * pr.Rho
+		return dd{v: -drho / r2, u: pr.Cv + (pr.P-T*pr.DpDT)/r2*drho, s: pr.Cv/T - pr.DpDT/r2*drho}
+	}
+	dl, dv := along(l), along(v)
+	dqv := -(dl.v + q*(dv.v-dl.v)) / (vv - vl)
+	st.Cv = dl.u + q*(dv.u-dl.u) + (v.U-l.U)*dqv
+	dqs := -(dl.s + q*(dv.s-dl.s)) / (v.S - l.S)
+	dvdT := dl.v + q*(dv.v-dl.v) + (vv-vl)*dqs
+	vm := 1 / st.Rho
+	if w2 := -vm * vm * gamma / dvdT; w2 > 0 && isFinite(w2) {
+		st.W = math.Sqrt(w2)
+	}
+	return st
+}

@@ -1,0 +1,739 @@
+package flash
+
+import (
+	"errors"
+	"math"
+	"strconv"
+
+	"github.com/tripoint-thermo/tripoint/fluid"
+)
+
+// call carries what every flash needs: the fluid, the operation and its
+// inputs (for errors), the options and the solid curves.
+type call struct {
+	f   *fluid.Fluid
+	op  string
+	in  [2]fluid.Input
+	opt Options
+	c   curves
+}
+
+func newCall(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options) (*call, error) {
+	k := &call{f: f, op: op, in: [2]fluid.Input{a, b}}
+	if opt != nil {
+		k.opt = *opt
+	}
+	if f == nil {
+		return nil, k.fail(fluid.ErrInvalidInput, "nil fluid")
+	}
+	if !isFinite(a.Value) || !isFinite(b.Value) {
+		return nil, k.fail(fluid.ErrInvalidInput, "inputs must be finite")
+	}
+	switch k.opt.Phase {
+	case Unknown, Liquid, Vapor, Supercritical, TwoPhase:
+	default:
+		return nil, k.fail(fluid.ErrInvalidInput, "Options.Phase must be Unknown, Liquid, Vapor, Supercritical or TwoPhase")
+	}
+	k.c = curvesOf(f)
+	return k, nil
+}
+
+func (k *call) fail(sentinel error, why string) error {
+	return fluid.NewError(k.op, sentinel, why, k.in[0], k.in[1])
+}
+
+// rewrap returns err (from package fluid) as an error of this flash,
+// keeping its sentinel and explanation.
+func (k *call) rewrap(err error) error {
+	var fe *fluid.Error
+	if errors.As(err, &fe) {
+		return k.fail(fe.Err, fe.Range)
+	}
+	return k.fail(fluid.ErrNoConvergence, err.Error())
+}
+
+func (k *call) positive(i int) error {
+	if !(k.in[i].Value > 0) {
+		return k.fail(fluid.ErrInvalidInput, k.in[i].Name+" must be positive")
+	}
+	return nil
+}
+
+func (k *call) quality(q float64) error {
+	if !(q >= 0 && q <= 1) {
+		return k.fail(fluid.ErrInvalidInput, "q must lie in 0 <= q <= 1")
+	}
+	return nil
+}
+
+// guessRho returns the density of the warm-start phase on root, or 0.
+func (k *call) guessRho(root fluid.Root) float64 {
+	g := k.opt.Guess
+	if g == nil || g.N < 1 {
+		return 0
+	}
+	for i := 0; i < g.N && i < 3; i++ {
+		ph := g.Phases[i].Phase
+		if root == fluid.RootStable || ph == Supercritical ||
+			(root == fluid.RootLiquid && ph == Liquid) || (root == fluid.RootVapor && ph == Vapor) {
+			return g.Phases[i].Rho
+		}
+	}
+	return 0
+}
+
+// guessSat returns the warm-start saturation state (T, ρ′, ρ″), if the
+// guess has one.
+func (k *call) guessSat() (T, rl, rv float64, ok bool) {
+	g := k.opt.Guess
+	if g == nil || g.N != 2 || g.Phase != TwoPhase {
+		return 0, 0, 0, false
+	}
+	return g.T, g.Phases[0].Rho, g.Phases[1].Rho, true
+}
+
+// rootFor maps a requested phase to a density root.
+func rootFor(ph Phase) fluid.Root {
+	switch ph {
+	case Liquid:
+		return fluid.RootLiquid
+	case Vapor:
+		return fluid.RootVapor
+	}
+	return fluid.RootStable
+}
+
+// satisfies reports whether state phase got meets the request want.
+func satisfies(want, got Phase) bool {
+	switch want {
+	case Unknown:
+		return true
+	case Liquid, Vapor:
+		return got == want || got == Supercritical
+	}
+	return got == want
+}
+
+// notWanted is the error for a state whose stable phase is not the
+// requested one.
+func (k *call) notWanted(got Phase) error {
+	why := "the stable state is " + got.String() + ", not the requested " + k.opt.Phase.String()
+	if k.opt.Phase == Liquid || k.opt.Phase == Vapor {
+		why += " (set AllowMetastable for a metastable state)"
+	}
+	return k.fail(fluid.ErrOutOfRange, why)
+}
+
+// finish checks a single-phase result against the solid curves and the
+// request, and builds the state.
+func (k *call) finish(pr *fluid.Props) (State, error) {
+	if lim := k.f.Limits(); pr.P > lim.PCeil*(1+1e-9) {
+		return State{}, k.fail(fluid.ErrOutOfRange, "p = "+fmtG(pr.P)+" Pa exceeds the accepted "+
+			fmtG(lim.PCeil)+" Pa of "+k.f.Name())
+	}
+	r, on, why := k.c.classify(pr.T, pr.P)
+	if r != regionFluid {
+		return State{}, k.c.regionError(k.op, r, why, k.in[0], k.in[1])
+	}
+	st := single(pr, fluidPhase(k.f, pr.T, pr.P, pr.Rho))
+	if on {
+		st.Flags |= Indeterminate | Saturated
+	}
+	return st, nil
+}
+
+// stable reports whether a single-phase result pr on its branch is the
+// stable fluid phase at its (T, p), with the Indeterminate flag of a
+// state exactly on the vapour-pressure curve.
+func (k *call) stable(pr *fluid.Props) (bool, Flags) {
+	root, fl, err := k.f.StableRoot(pr.T, pr.P)
+	if err != nil || root == fluid.RootStable {
+		return err == nil, fl
+	}
+	c := k.f.Critical()
+	return (root == fluid.RootLiquid) == (pr.Rho > c.Rho), fl
+}
+
+// stableAtRho is stable for a state found at a given or solved density
+// (DT, DU, TS, PD): below Tc, p(ρ) of a multiparameter equation can rise
+// in places inside the saturation dome, so a root there is checked
+// against the root of its branch at its (T, p) where the auxiliary
+// saturated densities do not settle it.
+func (k *call) stableAtRho(pr *fluid.Props) (bool, Flags) {
+	ok, fl := k.stable(pr)
+	c := k.f.Critical()
+	if !ok || pr.T >= c.T {
+		return ok, fl
+	}
+	liquid := pr.Rho > c.Rho
+	root := fluid.RootVapor
+	if liquid {
+		root = fluid.RootLiquid
+		if rl, err := k.f.AuxLiquidDensity(pr.T); err == nil && pr.Rho > 1.05*rl {
+			return true, fl
+		}
+	} else if rv, err := k.f.AuxVaporDensity(pr.T); err == nil && pr.Rho < 0.95*rv {
+		return true, fl
+	}
+	b, err := k.f.PropsTP(pr.T, pr.P, root, 0)
+	return err == nil && math.Abs(b.Rho-pr.Rho) <= 1e-8*pr.Rho, fl
+}
+
+// ---------------------------------------------------------------------
+// PT, TQ, PQ
+
+// PT returns the state of f at pressure p in Pa and temperature T in K.
+//
+// Below Tc the stable phase is the liquid above the equation's own vapour
+// pressure and the vapour below it; exactly on the vapour-pressure curve
+// (to rounding) the inputs do not fix the state, and PT returns the
+// saturated liquid flagged Indeterminate and Saturated. Below the
+// triple-point temperature it returns the vapour below the sublimation
+// curve and (water) the liquid above the melting curve, flagged
+// Extrapolated where beyond the equation's published range.
+//
+// Special cases are:
+//
+//	p or T NaN, ±Inf or ≤ 0: ErrInvalidInput
+//	(p, T) in a solid region by the published sublimation and melting
+//	  curves: ErrOutOfRange (solid models are not yet available;
+//	  ErrUndefined for a fluid without solid data)
+//	outside the equation's accepted range: ErrOutOfRange
+func PT(f *fluid.Fluid, p, T float64) (State, error) { return PTWith(f, p, T, Options{}) }
+
+// PTWith is PT with options: a warm start from opt.Guess, and with
+// opt.Phase Liquid or Vapor the root of that phase, metastable up to its
+// spinodal if opt.AllowMetastable (else an error where it is not the
+// stable one). TwoPhase cannot be requested: ErrInvalidInput.
+func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
+	k, err := newCall(f, "flash.PT", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
+		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt)
+	if err != nil {
+		return State{}, err
+	}
+	if err := k.positive(0); err != nil {
+		return State{}, err
+	}
+	if err := k.positive(1); err != nil {
+		return State{}, err
+	}
+	if k.opt.Phase == TwoPhase {
+		return State{}, k.fail(fluid.ErrInvalidInput, "(p, T) cannot fix a two-phase state")
+	}
+	r, on, why := k.c.classify(T, p)
+	if r != regionFluid {
+		return State{}, k.c.regionError(k.op, r, why, k.in[0], k.in[1])
+	}
+	root := rootFor(k.opt.Phase)
+	if T < k.c.tt && root == fluid.RootStable {
+		// Below the triple point the curves have decided the phase.
+		root = fluid.RootVapor
+		if p > k.c.psub(T) {
+			root = fluid.RootLiquid
+		}
+	}
+	pr, err := f.PropsTP(T, p, root, k.guessRho(root))
+	if err != nil {
+		return State{}, k.rewrap(err)
+	}
+	if pr.Flags&Metastable != 0 && !k.opt.AllowMetastable {
+		ph := Liquid
+		if pr.Rho > f.Critical().Rho {
+			ph = Vapor
+		}
+		return State{}, k.notWanted(ph)
+	}
+	st := single(&pr, fluidPhase(f, T, p, pr.Rho))
+	if on {
+		st.Flags |= Indeterminate
+	}
+	if st.Flags&Indeterminate != 0 {
+		st.Flags |= Saturated // on a coexistence curve
+	}
+	return st, nil
+}
+
+// TQ returns the saturation state of f at temperature T in K and vapour
+// mass fraction q, from the triple point to the critical point. q = 0
+// and q = 1 return the saturated liquid and vapour as single-phase
+// states (Phase Liquid or Vapor, flag Saturated); 0 < q < 1 a two-phase
+// state (see State). Below the triple-point temperature, q = 1 returns
+// the vapour on the published sublimation curve (flag Saturated); at
+// exactly the triple-point temperature the solid fraction is not fixed
+// and TQ returns the state without solid, flagged Indeterminate. At Tc
+// the critical point itself.
+//
+// Special cases are:
+//
+//	T NaN, ±Inf or ≤ 0, q NaN or outside [0, 1]: ErrInvalidInput
+//	T > Tc: ErrOutOfRange
+//	T below the triple point, q < 1: the solid region (ErrOutOfRange)
+func TQ(f *fluid.Fluid, T, q float64) (State, error) { return TQWith(f, T, q, Options{}) }
+
+// TQWith is TQ with a warm start from opt.Guess (a two-phase state).
+func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
+	k, err := newCall(f, "flash.TQ", fluid.Input{Name: "T", Value: T, Unit: "K"},
+		fluid.Input{Name: "q", Value: q}, &opt)
+	if err != nil {
+		return State{}, err
+	}
+	if err := k.positive(0); err != nil {
+		return State{}, err
+	}
+	if err := k.quality(q); err != nil {
+		return State{}, err
+	}
+	if T < k.c.tt {
+		return k.sublimation(T, 0, q)
+	}
+	var s fluid.Saturation
+	if gT, rl, rv, ok := k.guessSat(); ok && math.Abs(gT-T) < 0.1*T {
+		s, err = f.SaturationAtTFrom(T, rl, rv)
+	} else {
+		s, err = f.SaturationAtT(T)
+	}
+	if err != nil {
+		return State{}, k.rewrap(err)
+	}
+	return k.finishSat(&s, q)
+}
+
+// PQ returns the saturation state of f at pressure p in Pa and vapour
+// mass fraction q, from the triple-point pressure to the critical
+// pressure; as TQ, with the vapour on the sublimation curve for q = 1
+// below the triple-point pressure.
+//
+// Special cases are:
+//
+//	p NaN, ±Inf or ≤ 0, q NaN or outside [0, 1]: ErrInvalidInput
+//	p > pc: ErrOutOfRange
+//	p below the triple point, q < 1: the solid region (ErrOutOfRange)
+func PQ(f *fluid.Fluid, p, q float64) (State, error) { return PQWith(f, p, q, Options{}) }
+
+// PQWith is PQ with a warm start from opt.Guess (a two-phase state).
+func PQWith(f *fluid.Fluid, p, q float64, opt Options) (State, error) {
+	k, err := newCall(f, "flash.PQ", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
+		fluid.Input{Name: "q", Value: q}, &opt)
+	if err != nil {
+		return State{}, err
+	}
+	if err := k.positive(0); err != nil {
+		return State{}, err
+	}
+	if err := k.quality(q); err != nil {
+		return State{}, err
+	}
+	s, err := k.satP(p)
+	if err != nil {
+		if p < k.c.pt && errors.Is(err, fluid.ErrOutOfRange) {
+			return k.sublimation(0, p, q)
+		}
+		return State{}, err
+	}
+	return k.finishSat(&s, q)
+}
+
+// satP returns the saturation at p, warm-started from the guess.
+func (k *call) satP(p float64) (fluid.Saturation, error) {
+	var s fluid.Saturation
+	var err error
+	if gT, rl, rv, ok := k.guessSat(); ok {
+		s, err = k.f.SaturationAtPFrom(p, gT, rl, rv)
+	} else {
+		s, err = k.f.SaturationAtP(p)
+	}
+	if err != nil {
+		return s, k.rewrap(err)
+	}
+	return s, nil
+}
+
+// finishSat builds the state of saturation s at quality q, with the
+// request checked and the triple point flagged.
+func (k *call) finishSat(s *fluid.Saturation, q float64) (State, error) {
+	st := twoPhase(k.f, s, q)
+	if s.T == k.c.tt {
+		st.Flags |= Indeterminate
+	}
+	if !satisfies(k.opt.Phase, st.Phase) {
+		return State{}, k.notWanted(st.Phase)
+	}
+	return st, nil
+}
+
+// sublimation returns the vapour on the sublimation curve at T (or, with
+// T = 0, at p) for q = 1, and the solid-region error otherwise.
+func (k *call) sublimation(T, p, q float64) (State, error) {
+	if !k.c.hasSub {
+		return State{}, k.c.solidError(k.op, "below the triple point", k.in[0], k.in[1])
+	}
+	if q < 1 {
+		return State{}, k.c.solidError(k.op, "a solid-vapour mixture below the triple point", k.in[0], k.in[1])
+	}
+	if T == 0 {
+		T, _ = k.c.freezeT(p)
+	} else {
+		if T < k.c.subLo {
+			return State{}, k.c.regionError(k.op, regionBeyond, "below the range of the sublimation curve", k.in[0], k.in[1])
+		}
+		p = k.c.psub(T)
+	}
+	pr, err := k.f.PropsTP(T, p, fluid.RootVapor, 0)
+	if err != nil {
+		return State{}, k.rewrap(err)
+	}
+	st := single(&pr, Vapor)
+	st.Flags |= Saturated
+	if !satisfies(k.opt.Phase, Vapor) {
+		return State{}, k.notWanted(Vapor)
+	}
+	return st, nil
+}
+
+// ---------------------------------------------------------------------
+// PH, PS
+
+// PH returns the state of f at pressure p in Pa and specific enthalpy h
+// in J/kg: liquid, vapour, supercritical or two-phase.
+//
+// Below pc the auxiliary vapour-pressure equation places h against the
+// saturated enthalpies; within its uncertainty of the curve, the
+// equation's own saturation (SaturationAtP) decides. Single-phase states
+// come from Newton's method in (T, ρ) on p and h with the analytic
+// Jacobian, with a bracketed search along the isobar where it fails.
+// Exactly on the triple line (p = pt, the enthalpy of a state there) the
+// solid fraction is not fixed and the state without solid is returned,
+// flagged Indeterminate.
+//
+// Special cases are:
+//
+//	p NaN, ±Inf or ≤ 0, h NaN or ±Inf: ErrInvalidInput
+//	h below the fluid at the sublimation or melting temperature: the
+//	  solid region (ErrOutOfRange; ErrUndefined without solid data)
+//	outside the equation's accepted range: ErrOutOfRange
+func PH(f *fluid.Fluid, p, h float64) (State, error) { return PHWith(f, p, h, Options{}) }
+
+// PHWith is PH with options (see Options): a warm start from opt.Guess,
+// a requested phase, and metastable states up to the spinodal.
+func PHWith(f *fluid.Fluid, p, h float64, opt Options) (State, error) {
+	k, err := newCall(f, "flash.PH", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
+		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt)
+	if err != nil {
+		return State{}, err
+	}
+	if err := k.positive(0); err != nil {
+		return State{}, err
+	}
+	return k.isobaric(p, qH, h)
+}
+
+// PS returns the state of f at pressure p in Pa and specific entropy s
+// in J/(kg·K), as PH does for enthalpy.
+func PS(f *fluid.Fluid, p, s float64) (State, error) { return PSWith(f, p, s, Options{}) }
+
+// PSWith is PS with options (see Options).
+func PSWith(f *fluid.Fluid, p, s float64, opt Options) (State, error) {
+	k, err := newCall(f, "flash.PS", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
+		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt)
+	if err != nil {
+		return State{}, err
+	}
+	if err := k.positive(0); err != nil {
+		return State{}, err
+	}
+	return k.isobaric(p, qS, s)
+}
+
+// dXdT returns (∂X/∂T)_p at pr: cp for h, cp/T for s.
+func dXdT(X quantity, pr *fluid.Props) float64 {
+	if X == qS {
+		return pr.Cp / pr.T
+	}
+	return pr.Cp
+}
+
+// side selects the branch a single-phase iteration keeps to.
+type side int8
+
+const (
+	anySide    side = iota // above pc: one fluid phase
+	liquidSide             // ρ > ρc below Tc
+	vaporSide              // ρ < ρc below Tc
+)
+
+// onBranch returns a keep function for newton2 that holds a single-phase
+// iteration on its side below Tc (and below pc), and within [tlo, thi].
+func onBranch(f *fluid.Fluid, sd side, tlo, thi float64) func(*fluid.Props) bool {
+	c := f.Critical()
+	return func(pr *fluid.Props) bool {
+		if pr.T < tlo || pr.T > thi {
+			return false
+		}
+		if sd == anySide || pr.T >= c.T {
+			return true
+		}
+		return (pr.Rho > c.Rho) == (sd == liquidSide)
+	}
+}
+
+func sideOf(liquid bool) side {
+	if liquid {
+		return liquidSide
+	}
+	return vaporSide
+}
+
+// isobaric is PH (X = h) and PS (X = s).
+func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
+	f := k.f
+	c := f.Critical()
+	lim := f.Limits()
+	if p > lim.PCeil {
+		return State{}, k.fail(fluid.ErrOutOfRange, "p exceeds the accepted "+fmtG(lim.PCeil)+" Pa")
+	}
+	want := k.opt.Phase
+	if st, ok := k.isobaricWarm(p, X, x); ok {
+		return st, nil
+	}
+	Tf, floor := k.c.freezeT(p)
+	if p >= c.P || p < k.c.pt {
+		// One fluid phase along the isobar.
+		sd := anySide
+		root := fluid.RootStable
+		T0 := c.T
+		if p < k.c.pt {
+			root, T0, sd = fluid.RootVapor, Tf, vaporSide
+		}
+		pr0, err := f.PropsTP(T0, p, root, 0)
+		if err != nil {
+			return State{}, k.rewrap(err)
+		}
+		if p < k.c.pt && x < X.of(&pr0)-X.tol(f, &pr0, x) {
+			return State{}, k.c.lowError(k.op, floor, k.in[0], k.in[1])
+		}
+		return k.isobarSingle(p, X, x, &pr0, sd, Tf, lim.TCeil, false)
+	}
+	// pt <= p < pc: place x against the saturated phases.
+	var s fluid.Saturation
+	Ts, err := f.AuxSaturationTemperature(p)
+	var pl, pv fluid.Props
+	if err == nil {
+		rl, _ := f.AuxLiquidDensity(Ts)
+		rv, _ := f.AuxVaporDensity(Ts)
+		var okl, okv bool
+		pl, okl = props(f, Ts, rl)
+		pv, okv = props(f, Ts, rv)
+		if okl && okv && want != TwoPhase {
+			// The auxiliary equation's 5 % band in p, as a band in T.
+			dTm := 0.05 * f.GasConstant() * Ts * Ts / math.Max(pv.H-pl.H, 1e-300)
+			switch {
+			case x < X.of(&pl)-dXdT(X, &pl)*dTm && Ts-dTm > Tf:
+				return k.isobarSingle(p, X, x, &pl, liquidSide, Tf, Ts, false)
+			case x > X.of(&pv)+dXdT(X, &pv)*dTm:
+				return k.isobarSingle(p, X, x, &pv, vaporSide, Ts, lim.TCeil, false)
+			}
+		}
+		s, err = f.SaturationAtPFrom(p, Ts, rl, rv)
+	} else {
+		s, err = f.SaturationAtP(p)
+	}
+	if err != nil {
+		if errors.Is(err, fluid.ErrOutOfRange) && p < k.c.pt*1.01 {
+			// Between the stored triple-point pressure and the
+			// equation's vapour pressure at Tt: vapour only.
+			pr0, err := f.PropsTP(max(Tf, k.c.tt), p, fluid.RootVapor, 0)
+			if err != nil {
+				return State{}, k.rewrap(err)
+			}
+			if x < X.of(&pr0) {
+				return State{}, k.c.solidError(k.op, "below the triple-point temperature", k.in[0], k.in[1])
+			}
+			return k.isobarSingle(p, X, x, &pr0, vaporSide, pr0.T, lim.TCeil, false)
+		}
+		return State{}, k.rewrap(err)
+	}
+	return k.isobaricSat(p, X, x, &s)
+}
+
+// isobaricSat finishes PH/PS with the equation's saturation s at p.
+func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation) (State, error) {
+	f := k.f
+	lim := f.Limits()
+	want := k.opt.Phase
+	xl, xv := X.of(&s.Liquid), X.of(&s.Vapor)
+	Tf, _ := k.c.freezeT(p)
+	switch {
+	case x < xl:
+		return k.isobarSingle(p, X, x, &s.Liquid, liquidSide, Tf, s.T, false)
+	case x > xv:
+		return k.isobarSingle(p, X, x, &s.Vapor, vaporSide, s.T, lim.TCeil, false)
+	}
+	if (want == Liquid || want == Vapor) && k.opt.AllowMetastable {
+		start := &s.Liquid
+		if want == Vapor {
+			start = &s.Vapor
+		}
+		return k.isobarSingle(p, X, x, start, sideOf(want == Liquid), Tf, lim.TCeil, true)
+	}
+	q := (x - xl) / (xv - xl)
+	if xv == xl {
+		q = 0.5
+	}
+	return k.finishSat(s, q)
+}
+
+// isobaricWarm tries the warm start of PH/PS.
+func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
+	g := k.opt.Guess
+	if g == nil || g.N < 1 || !(g.T > 0) || k.opt.AllowMetastable {
+		return State{}, false
+	}
+	f := k.f
+	if gT, rl, rv, ok := k.guessSat(); ok {
+		c := f.Critical()
+		if !(p < c.P && p >= k.c.pt) {
+			return State{}, false
+		}
+		s, err := f.SaturationAtPFrom(p, gT, rl, rv)
+		if err != nil {
+			return State{}, false
+		}
+		st, err := k.isobaricSat(p, X, x, &s)
+		return st, err == nil
+	}
+	if g.N != 1 {
+		return State{}, false
+	}
+	liquid := g.Rho > f.Critical().Rho
+	lim := f.Limits()
+	sd := sideOf(liquid)
+	if p >= f.Critical().P {
+		sd = anySide
+	}
+	pr, ok := newton2(f, qP, p, X, x, g.T, g.Rho, onBranch(f, sd, lim.TFloor, lim.TCeil), nil)
+	if !ok {
+		return State{}, false
+	}
+	if st, _ := k.stable(&pr); !st {
+		return State{}, false
+	}
+	st, err := k.finish(&pr)
+	if err != nil || !satisfies(k.opt.Phase, st.Phase) {
+		return State{}, false
+	}
+	return st, true
+}
+
+// isobarSingle solves a single-phase state at p with X = x on side sd,
+// between tlo and thi, from the state start; meta allows a metastable
+// result (flagged). It tries Newton's method in (T, ρ) from the start
+// extrapolated with (∂X/∂T)_p, then from the far end of the bracket (near
+// the critical point the start's cp misleads), then a bracketed search
+// along the isobar, between the equation's own saturation temperature
+// and the far end below pc.
+func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props, sd side, tlo, thi float64, meta bool) (State, error) {
+	f := k.f
+	c := f.Critical()
+	lim := f.Limits()
+	keepLo, keepHi := tlo*(1-1e-11), thi*(1+1e-11)
+	if meta {
+		keepLo, keepHi = lim.TFloor, lim.TCeil
+	}
+	keep := onBranch(f, sd, keepLo, keepHi)
+	T0, rho0 := extrapolate(X, x, start, sd, tlo, thi)
+	pr, ok := newton2(f, qP, p, X, x, T0, rho0, keep, start)
+	if !ok && !meta {
+		// From the far end of the bracket.
+		root := fluid.RootVapor
+		Ta := min(thi, 2*start.T)
+		switch {
+		case sd == anySide:
+			root = fluid.RootStable
+			Ta = tlo
+			if x > X.of(start) {
+				Ta = min(thi, 2*start.T)
+			}
+		case sd == liquidSide:
+			root, Ta = fluid.RootLiquid, tlo
+		}
+		if pa, err := f.PropsTP(Ta, p, root, 0); err == nil {
+			T0, rho0 := extrapolate(X, x, &pa, sd, tlo, thi)
+			pr, ok = newton2(f, qP, p, X, x, T0, rho0, keep, &pa)
+		}
+		if !ok {
+			if sd != anySide && p < c.P && p >= k.c.pt {
+				if s, err := f.SaturationAtP(p); err == nil {
+					if sd == liquidSide {
+						thi = s.T
+					} else {
+						tlo = s.T
+					}
+				}
+			}
+			var below, above bool
+			pr, ok, below, above = isobar(f, p, X, x, tlo, thi, root)
+			switch {
+			case below && sd == liquidSide && thi < c.T || above && sd == vaporSide:
+				// The auxiliary equation misplaced the dome's edge.
+				if s, err := f.SaturationAtP(p); err == nil {
+					xl, xv := X.of(&s.Liquid), X.of(&s.Vapor)
+					if x >= xl && x <= xv {
+						q := (x - xl) / (xv - xl)
+						return k.finishSat(&s, q)
+					}
+				}
+				return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
+			case below:
+				_, floor := k.c.freezeT(p)
+				return State{}, k.c.lowError(k.op, floor || tlo <= lim.TFloor, k.in[0], k.in[1])
+			case below || above:
+				return State{}, k.fail(fluid.ErrOutOfRange, "beyond the accepted temperature range "+
+					fmtG(lim.TFloor)+" <= T <= "+fmtG(lim.TCeil)+" K")
+			}
+		}
+	}
+	if !ok {
+		if meta {
+			return State{}, k.fail(fluid.ErrUnstable, "no metastable "+k.opt.Phase.String()+" state with these inputs before the spinodal")
+		}
+		return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
+	}
+	Tf, floor := k.c.freezeT(p)
+	if pr.T < Tf*(1-1e-11) && !meta {
+		return State{}, k.c.lowError(k.op, floor, k.in[0], k.in[1])
+	}
+	st, err := k.finish(&pr)
+	if err != nil {
+		return State{}, err
+	}
+	if meta {
+		if ok, _ := k.stable(&pr); !ok {
+			st.Flags |= Metastable
+		}
+	}
+	if !satisfies(k.opt.Phase, st.Phase) {
+		return State{}, k.notWanted(st.Phase)
+	}
+	return st, nil
+}
+
+// extrapolate returns a starting (T, ρ) for X = x at the pressure of the
+// state start, by (∂X/∂T)_p and the expansivity (the ideal gas on the
+// vapour side), T kept in [tlo, thi].
+func extrapolate(X quantity, x float64, start *fluid.Props, sd side, tlo, thi float64) (T0, rho0 float64) {
+	d := dXdT(X, start)
+	T0 = start.T
+	if d > 0 && isFinite(d) {
+		T0 = min(max(start.T+(x-X.of(start))/d, tlo), thi)
+	}
+	rho0 = start.Rho * math.Exp(-start.Expansivity*(T0-start.T))
+	if !isFinite(rho0) || rho0 <= 0 {
+		rho0 = start.Rho
+	}
+	if sd == vaporSide && T0 > start.T {
+		rho0 = start.Rho * start.T / T0
+	}
+	return T0, rho0
+}
+
+func fmtG(x float64) string { return strconv.FormatFloat(x, 'g', -1, 64) }

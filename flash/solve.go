@@ -1,0 +1,387 @@
+package flash
+
+import (
+	"errors"
+	"math"
+
+	"github.com/tripoint-thermo/tripoint/fluid"
+)
+
+// quantity names a state function that a flash takes as input.
+type quantity int8
+
+const (
+	qT quantity = iota
+	qP
+	qRho
+	qH
+	qS
+	qU
+)
+
+// of returns the quantity at pr.
+func (q quantity) of(pr *fluid.Props) float64 {
+	switch q {
+	case qT:
+		return pr.T
+	case qP:
+		return pr.P
+	case qRho:
+		return pr.Rho
+	case qH:
+		return pr.H
+	case qS:
+		return pr.S
+	}
+	return pr.U
+}
+
+// partials returns ∂q/∂T at constant ρ and ∂q/∂ρ at constant T, from
+//
+//	(∂h/∂T)_ρ = cv + (∂p/∂T)_ρ/ρ,  (∂h/∂ρ)_T = ((∂p/∂ρ)_T − T(∂p/∂T)_ρ/ρ)/ρ,
+//	(∂s/∂T)_ρ = cv/T,             (∂s/∂ρ)_T = −(∂p/∂T)_ρ/ρ²,
+//	(∂u/∂T)_ρ = cv,               (∂u/∂ρ)_T = (p − T(∂p/∂T)_ρ)/ρ².
+func (q quantity) partials(pr *fluid.Props) (dT, dRho float64) {
+	rho := pr.Rho
+	switch q {
+	case qT:
+		return 1, 0
+	case qP:
+		return pr.DpDT, pr.DpDrho
+	case qRho:
+		return 0, 1
+	case qH:
+		return pr.Cv + pr.DpDT/rho, (pr.DpDrho - pr.T*pr.DpDT/rho) / rho
+	case qS:
+		return pr.Cv / pr.T, -pr.DpDT / (rho * rho)
+	}
+	return pr.Cv, (pr.P - pr.T*pr.DpDT) / (rho * rho)
+}
+
+// tol returns the convergence tolerance of q at the target value v and
+// the state pr: 1/100 of the backward-residual floors of DESIGN.md
+// (|Δp| ≤ 1e-10·p + 1e-12·ρRT, |Δh|, |Δu| ≤ 1e-10·max(|h|, R·Tc),
+// |Δs| ≤ 1e-10·max(|s|, R), |Δρ| ≤ 1e-10·ρ), except for the pressure of
+// a dense liquid, which double precision resolves only to about
+// 3e-13·ρRT: there half the floor.
+func (q quantity) tol(f *fluid.Fluid, pr *fluid.Props, v float64) float64 {
+	R := f.GasConstant()
+	switch q {
+	case qT, qRho:
+		return 1e-12 * math.Abs(v)
+	case qP:
+		return 1e-12*math.Abs(v) + 5e-13*pr.Rho*R*pr.T
+	case qH, qU:
+		Tc, _ := f.Reducing()
+		return 1e-12 * max(math.Abs(v), R*Tc)
+	}
+	return 1e-12 * max(math.Abs(v), R)
+}
+
+// floor returns the backward-residual floor of DESIGN.md for q.
+func (q quantity) floor(f *fluid.Fluid, pr *fluid.Props, v float64) float64 {
+	if q == qP {
+		return 1e-10*math.Abs(v) + 1e-12*pr.Rho*f.GasConstant()*pr.T
+	}
+	return 100 * q.tol(f, pr, v)
+}
+
+// props evaluates f at (T, ρ) for an iteration; ok is false where there
+// is no usable state (outside the accepted T and ρ, or mechanically
+// unstable). A pressure above the accepted ceiling is usable on the way
+// (Props returns its values with the error); results are checked by
+// finish.
+func props(f *fluid.Fluid, T, rho float64) (fluid.Props, bool) {
+	pr, err := f.Props(T, rho)
+	if err != nil && !(errors.Is(err, fluid.ErrOutOfRange) && pr.P > f.Limits().PCeil) {
+		return pr, false
+	}
+	return pr, finiteProps(&pr)
+}
+
+func finiteProps(pr *fluid.Props) bool {
+	return isFinite(pr.P) && isFinite(pr.H) && isFinite(pr.S) && isFinite(pr.U) && pr.DpDrho > 0
+}
+
+func isFinite(x float64) bool { return x-x == 0 }
+
+// watch tracks the scaled residual of an iteration (1 = converged); see
+// check.
+type watch struct {
+	best float64
+	n    int
+}
+
+// check reports whether to stop: converged (res ≤ 1) or stalled at the
+// rounding floor (three iterations without halving the best residual,
+// with the last relative step, step, below 1e-9).
+func (w *watch) check(res, step float64) (stop bool) {
+	if res <= 1 {
+		return true
+	}
+	if res < 0.5*w.best {
+		w.best, w.n = res, 0
+		return false
+	}
+	if step > 1e-9 {
+		w.n = 0
+		return false
+	}
+	w.n++
+	return w.n >= 3
+}
+
+// newton2 solves a(T, ρ) = va, b(T, ρ) = vb by Newton's method in (T, ρ)
+// with the analytic Jacobian, from (T, ρ), with steps limited to a
+// quarter of T and half of ρ and halved back toward the last good point
+// where they leave the accepted region, meet an unstable state or leave
+// the branch that keep accepts. It returns the state and whether it
+// converged (to 1/100 of the floors, or to the floors where rounding
+// stalls the iteration).
+//
+// start, if not nil, is a valid state near (T, ρ) to fall back toward if
+// (T, ρ) itself is not usable.
+func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, rho float64,
+	keep func(*fluid.Props) bool, start *fluid.Props) (fluid.Props, bool) {
+	lim := f.Limits()
+	var prev fluid.Props
+	havePrev := false
+	if start != nil {
+		prev, havePrev = *start, true
+	}
+	w := watch{best: math.Inf(1)}
+	backs := 0
+	lastStep := math.Inf(1)
+	for it := 0; it < 60; it++ {
+		pr, ok := props(f, T, rho)
+		if !ok || (keep != nil && !keep(&pr)) {
+			if !havePrev || backs > 40 {
+				return pr, false
+			}
+			backs++
+			T, rho = 0.5*(T+prev.T), 0.5*(rho+prev.Rho)
+			continue
+		}
+		ra, rb := a.of(&pr)-va, b.of(&pr)-vb
+		ta, tb := a.tol(f, &pr, va), b.tol(f, &pr, vb)
+		res := max(math.Abs(ra)/ta, math.Abs(rb)/tb)
+		if w.check(res, lastStep) {
+			return pr, math.Abs(ra) <= a.floor(f, &pr, va) && math.Abs(rb) <= b.floor(f, &pr, vb)
+		}
+		a1, a2 := a.partials(&pr)
+		b1, b2 := b.partials(&pr)
+		det := a1*b2 - a2*b1
+		dT := (-ra*b2 + rb*a2) / det
+		dRho := (-rb*a1 + ra*b1) / det
+		if !isFinite(dT) || !isFinite(dRho) {
+			return pr, false
+		}
+		s := 1.0
+		if math.Abs(dT) > 0.25*T {
+			s = 0.25 * T / math.Abs(dT)
+		}
+		if dRho < -0.5*rho {
+			s = min(s, 0.5*rho/-dRho)
+		} else if dRho > rho {
+			s = min(s, rho/dRho)
+		}
+		prev, havePrev = pr, true
+		lastStep = s * max(math.Abs(dT)/T, math.Abs(dRho)/rho)
+		T = min(max(T+s*dT, lim.TFloor), lim.TCeil)
+		rho = min(rho+s*dRho, lim.RhoCeil)
+	}
+	return prev, false
+}
+
+// newton1 solves q(T, ρ) = v in one unknown, T (varyT) or ρ, kept in the
+// bracket [lo, hi] in which q is monotone, by Newton's method (in ln ρ for
+// ρ, where gases make q nearly linear) with bisection where a step leaves
+// the bracket.
+func newton1(f *fluid.Fluid, q quantity, v, T, rho float64, varyT bool, lo, hi float64) (fluid.Props, bool) {
+	// The iteration variable: T, or ln ρ.
+	x, fwd := T, func(x float64) float64 { return x }
+	if !varyT {
+		lo, hi = math.Log(lo), math.Log(hi)
+		x, fwd = math.Log(rho), math.Exp
+	}
+	if !(x >= lo && x <= hi) {
+		x = 0.5 * (lo + hi)
+	}
+	lo0, hi0 := lo, hi
+	w := watch{best: math.Inf(1)}
+	var pr fluid.Props
+	sign := 0.0 // the sign of dq/dx, learnt from the first good point
+	good, haveGood := 0.0, false
+	lastStep := math.Inf(1)
+	for it := 0; it < 200; it++ {
+		if varyT {
+			T = x
+		} else {
+			rho = fwd(x)
+		}
+		var ok bool
+		pr, ok = props(f, T, rho)
+		if !ok {
+			// No usable state here: bound the bracket on this side of
+			// the last good point and step back halfway toward it.
+			switch {
+			case !haveGood && x-lo < hi-x:
+				lo = x
+			case !haveGood:
+				hi = x
+			case x > good:
+				hi = x
+			default:
+				lo = x
+			}
+			if haveGood {
+				x = 0.5 * (x + good)
+			} else {
+				x = 0.5 * (lo + hi)
+			}
+			if hi-lo <= 1e-15*math.Abs(hi) {
+				return pr, false
+			}
+			continue
+		}
+		good, haveGood = x, true
+		r := q.of(&pr) - v
+		res := math.Abs(r) / q.tol(f, &pr, v)
+		if w.check(res, lastStep) {
+			return pr, math.Abs(r) <= q.floor(f, &pr, v)
+		}
+		dT, dRho := q.partials(&pr)
+		d := dT
+		if !varyT {
+			d = dRho * rho
+		}
+		if sign == 0 && d != 0 {
+			sign = math.Copysign(1, d)
+		}
+		if r*sign > 0 {
+			hi = x
+		} else {
+			lo = x
+		}
+		xn := x - r/d
+		switch {
+		case !isFinite(xn):
+			xn = 0.5 * (lo + hi)
+		case xn <= lo && x != lo0 && lo == lo0:
+			xn = lo0 // the root may lie at the end of the bracket
+		case xn >= hi && x != hi0 && hi == hi0:
+			xn = hi0
+		case !(xn > lo && xn < hi):
+			xn = 0.5 * (lo + hi)
+		}
+		lastStep = math.Abs(xn-x) / max(math.Abs(x), 1)
+		x = xn
+		if hi-lo <= 1e-15*math.Abs(hi) {
+			return pr, math.Abs(r) <= q.floor(f, &pr, v)
+		}
+	}
+	return pr, false
+}
+
+// isobar solves X(T, p) = x for T in [lo, hi] at fixed p on root, with
+// the density from fluid.PropsTP at each T, by the Illinois variant of
+// regula falsi: slower than newton2 but bracketed, for where it fails.
+// below and above report x outside [X(lo), X(hi)] (X rises with T).
+func isobar(f *fluid.Fluid, p float64, X quantity, x, lo, hi float64, root fluid.Root) (pr fluid.Props, ok, below, above bool) {
+	rhoGuess := 0.0
+	eval := func(T float64) (fluid.Props, bool) {
+		pr, err := f.PropsTP(T, p, root, rhoGuess)
+		if err != nil && !errors.Is(err, fluid.ErrUnstable) || !isFinite(pr.H) || pr.Rho == 0 {
+			return pr, false
+		}
+		rhoGuess = pr.Rho
+		return pr, true
+	}
+	pa, oka := eval(lo)
+	pb, okb := eval(hi)
+	if !oka || !okb {
+		return pr, false, false, false
+	}
+	fa, fb := X.of(&pa)-x, X.of(&pb)-x
+	if fa > 0 {
+		return pa, false, true, false
+	}
+	if fb < 0 {
+		return pb, false, false, true
+	}
+	var last fluid.Props
+	good := true
+	g := func(T float64) float64 {
+		var ok bool
+		last, ok = eval(T)
+		if !ok {
+			good = false
+			return 0
+		}
+		return X.of(&last) - x
+	}
+	T := illinois(g, lo, hi, fa, fb, 1e-14*hi)
+	if !good {
+		return last, false, false, false
+	}
+	pr, okc := eval(T)
+	if !okc {
+		return pr, false, false, false
+	}
+	return pr, math.Abs(X.of(&pr)-x) <= X.floor(f, &pr, x), false, false
+}
+
+// solve1 is newton1 with a fallback for where q is not monotone in the
+// bracket (liquid water below its density maximum, where s rises with ρ
+// along an isotherm and p falls with T along an isochore): a scan of the
+// bracket (in ln ρ for ρ) for the first sign change from lo, refined by
+// regula falsi. It returns the solution nearest lo.
+func solve1(f *fluid.Fluid, q quantity, v, T, rho float64, varyT bool, lo, hi float64) (fluid.Props, bool) {
+	if pr, ok := newton1(f, q, v, T, rho, varyT, lo, hi); ok {
+		return pr, true
+	}
+	at := func(x float64) (fluid.Props, bool) {
+		if varyT {
+			return props(f, x, rho)
+		}
+		return props(f, T, math.Exp(x))
+	}
+	a, b := lo, hi
+	if !varyT {
+		a, b = math.Log(lo), math.Log(hi)
+	}
+	const n = 64
+	var pr fluid.Props
+	prevX, prevR, havePrev := 0.0, 0.0, false
+	for i := 0; i <= n; i++ {
+		x := a + (b-a)*float64(i)/n
+		if i == 0 {
+			x = a + (b-a)*1e-9
+		}
+		p, ok := at(x)
+		if !ok {
+			havePrev = false
+			continue
+		}
+		r := q.of(&p) - v
+		if havePrev && r*prevR <= 0 {
+			good := true
+			g := func(x float64) float64 {
+				var ok bool
+				pr, ok = at(x)
+				if !ok {
+					good = false
+					return 0
+				}
+				return q.of(&pr) - v
+			}
+			xr := illinois(g, prevX, x, prevR, r, 1e-15*max(math.Abs(x), 1))
+			pr, ok = at(xr)
+			if good && ok && math.Abs(q.of(&pr)-v) <= q.floor(f, &pr, v) {
+				return pr, true
+			}
+		}
+		prevX, prevR, havePrev = x, r, true
+	}
+	return pr, false
+}

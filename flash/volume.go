@@ -1,0 +1,414 @@
+package flash
+
+import (
+	"math"
+
+	"github.com/tripoint-thermo/tripoint/fluid"
+)
+
+// ---------------------------------------------------------------------
+// DT, DU, PD
+
+// DT returns the state of f at density rho in kg/m³ and temperature T in
+// K: the equation of state itself where (T, ρ) is a stable single phase,
+// and the liquid–vapour mixture of that overall density where ρ lies
+// between the saturated densities at T. At exactly the triple-point
+// temperature a mixture's solid fraction is not fixed: the state without
+// solid is returned, flagged Indeterminate.
+//
+// Special cases are:
+//
+//	rho or T NaN, ±Inf or ≤ 0: ErrInvalidInput
+//	below the triple-point temperature, between the vapour on the
+//	  sublimation curve and the liquid on the melting curve: the solid
+//	  region (ErrOutOfRange; ErrUndefined without solid data)
+//	outside the equation's accepted range: ErrOutOfRange
+func DT(f *fluid.Fluid, rho, T float64) (State, error) { return DTWith(f, rho, T, Options{}) }
+
+// DTWith is DT with options: a requested phase, and with
+// opt.AllowMetastable the single-phase state at (T, ρ) inside the
+// saturation dome, up to the spinodal, flagged Metastable.
+func DTWith(f *fluid.Fluid, rho, T float64, opt Options) (State, error) {
+	k, err := newCall(f, "flash.DT", fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"},
+		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt)
+	if err != nil {
+		return State{}, err
+	}
+	if err := k.positive(0); err != nil {
+		return State{}, err
+	}
+	if err := k.positive(1); err != nil {
+		return State{}, err
+	}
+	c := f.Critical()
+	pr, perr := f.Props(T, rho)
+	ok := (perr == nil || isRangeErr(perr) && pr.P > f.Limits().PCeil) && finiteProps(&pr)
+	if T >= c.T || T < k.c.tt {
+		if !ok {
+			if T < k.c.tt && perr != nil && !isRangeErr(perr) {
+				return State{}, k.c.solidError(k.op, "between the vapour and the condensed phases below the triple point", k.in[0], k.in[1])
+			}
+			return State{}, k.rewrap(perr)
+		}
+		if T < k.c.tt {
+			// The vapour below the sublimation curve, the liquid above
+			// the melting curve; and the branch must match.
+			r, _, why := k.c.classify(T, pr.P)
+			if r == regionFluid && (pr.Rho < c.Rho) != (pr.P <= k.c.psub(T)) {
+				r, why = regionSolid, "between the vapour and the condensed phases below the triple point"
+			}
+			if r != regionFluid {
+				return State{}, k.c.regionError(k.op, r, why, k.in[0], k.in[1])
+			}
+		}
+		return k.wanted(k.finish(&pr))
+	}
+	if ok {
+		if st, fl := k.stableAtRho(&pr); st {
+			s, err := k.finish(&pr)
+			s.Flags |= fl
+			return k.wanted(s, err)
+		}
+		if want := k.opt.Phase; (want == Liquid || want == Vapor) && k.opt.AllowMetastable &&
+			(want == Liquid) == (rho > c.Rho) {
+			s, err := k.finish(&pr)
+			s.Flags |= Metastable
+			return s, err
+		}
+	}
+	s, err := k.satT(T)
+	if err != nil {
+		return State{}, err
+	}
+	q, in := qualityOf(rho, &s)
+	if !in {
+		if ok {
+			return k.wanted(k.finish(&pr))
+		}
+		return State{}, k.rewrap(perr)
+	}
+	return k.finishSat(&s, q)
+}
+
+// isRangeErr reports whether err is an accepted-range error of Props.
+func isRangeErr(err error) bool {
+	fe, ok := err.(*fluid.Error)
+	return ok && fe.Err == fluid.ErrOutOfRange
+}
+
+// wanted checks a single-phase state against the requested phase.
+func (k *call) wanted(st State, err error) (State, error) {
+	if err != nil {
+		return st, err
+	}
+	if !satisfies(k.opt.Phase, st.Phase) {
+		return State{}, k.notWanted(st.Phase)
+	}
+	return st, nil
+}
+
+// qualityOf returns the vapour mass fraction of a mixture of overall
+// density rho at saturation s, and whether rho lies between ρ″ and ρ′.
+func qualityOf(rho float64, s *fluid.Saturation) (float64, bool) {
+	rl, rv := s.Liquid.Rho, s.Vapor.Rho
+	if !(rho < rl && rho > rv) {
+		return 0, false
+	}
+	return (1/rho - 1/rl) / (1/rv - 1/rl), true
+}
+
+// satT returns the saturation at T, warm-started from the guess.
+func (k *call) satT(T float64) (fluid.Saturation, error) {
+	var s fluid.Saturation
+	var err error
+	if gT, rl, rv, ok := k.guessSat(); ok && math.Abs(gT-T) < 0.1*T {
+		s, err = k.f.SaturationAtTFrom(T, rl, rv)
+	} else {
+		s, err = k.f.SaturationAtT(T)
+	}
+	if err != nil {
+		return s, k.rewrap(err)
+	}
+	return s, nil
+}
+
+// DU returns the state of f at density rho in kg/m³ and specific
+// internal energy u in J/kg: a closed vessel of fixed volume and mass
+// after heat or work exchange, or during blowdown.
+//
+// Along an isochore u rises with T, in one phase and across the
+// saturation dome alike, so DU solves u(T) = u along it: Newton's method
+// in T with cv in a single phase, and in the dome with the mixture's cv
+// (see State) over saturation states at each T, bracketed. Isochores
+// that cross the dome twice (water's liquid near 4 °C, whose saturated
+// density has a maximum) are handled, since the function of T is the
+// same. On the triple line (T = Tt) with u below the liquid–vapour
+// mixture there, the state has solid: an error.
+//
+// Special cases are:
+//
+//	rho NaN, ±Inf or ≤ 0, u NaN or ±Inf: ErrInvalidInput
+//	u below the fluid states of the isochore: the solid region
+//	  (ErrOutOfRange; ErrUndefined without solid data)
+//	outside the equation's accepted range: ErrOutOfRange
+func DU(f *fluid.Fluid, rho, u float64) (State, error) { return DUWith(f, rho, u, Options{}) }
+
+// DUWith is DU with options: a warm start from opt.Guess, a requested
+// phase, metastable single-phase states with opt.AllowMetastable.
+func DUWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
+	k, err := newCall(f, "flash.DU", fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"},
+		fluid.Input{Name: "u", Value: u, Unit: "J/kg"}, &opt)
+	if err != nil {
+		return State{}, err
+	}
+	if err := k.positive(0); err != nil {
+		return State{}, err
+	}
+	return k.isochoric(rho, qU, u)
+}
+
+// isochoric solves X(T, ρ) = x along the isochore ρ, X rising with T
+// (u, or p outside water's density maximum).
+func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
+	f := k.f
+	c := f.Critical()
+	lim := f.Limits()
+	if rho > lim.RhoCeil {
+		return State{}, k.fail(fluid.ErrOutOfRange, "rho exceeds the accepted "+fmtG(lim.RhoCeil)+" kg/m3")
+	}
+	want := k.opt.Phase
+	meta := k.opt.AllowMetastable && (want == Liquid || want == Vapor)
+	T0 := 1.1 * c.T
+	g := k.opt.Guess
+	if g != nil && g.T > 0 {
+		T0 = g.T
+	}
+	// A single phase first.
+	pr, ok := newton1(f, X, x, T0, rho, true, lim.TFloor, lim.TCeil)
+	if ok && want != TwoPhase {
+		switch {
+		case pr.T >= c.T:
+			return k.wanted(k.finish(&pr))
+		case pr.T < k.c.tt:
+			return k.belowTriple(&pr)
+		}
+		if st, fl := k.stableAtRho(&pr); st {
+			s, err := k.finish(&pr)
+			s.Flags |= fl
+			return k.wanted(s, err)
+		}
+		if meta && (want == Liquid) == (rho > c.Rho) {
+			s, err := k.finish(&pr)
+			s.Flags |= Metastable
+			return s, err
+		}
+	}
+	// Along the isochore through the dome: E(T) = X of the mixture at T
+	// with the overall density rho, or of the single phase where rho lies
+	// outside the saturated densities at T.
+	var sat fluid.Saturation
+	var sp fluid.Props
+	inside := false
+	var gl, gv float64 // warm starts of the saturation
+	if gT, rl, rv, okg := k.guessSat(); okg {
+		gl, gv = rl, rv
+		T0 = gT
+	} else if ok && pr.T > k.c.tt && pr.T < c.T {
+		T0 = pr.T
+	} else {
+		T0 = 0.5 * (k.c.tt + c.T)
+	}
+	var failed error
+	eval := func(T float64) (r, d float64) {
+		var s fluid.Saturation
+		var err error
+		if gl > 0 {
+			s, err = f.SaturationAtTFrom(T, gl, gv)
+		} else {
+			s, err = f.SaturationAtT(T)
+		}
+		if err != nil {
+			failed = err
+			return 0, 1
+		}
+		gl, gv = s.Liquid.Rho, s.Vapor.Rho
+		sat = s
+		q, in := qualityOf(rho, &s)
+		inside = in
+		if in {
+			st := twoPhase(f, &s, q)
+			v := st.U
+			if X == qP {
+				v = st.P
+			}
+			// dX/dT along the isochore: the mixture's cv for u; γ for p.
+			d := st.Cv
+			if X == qP {
+				d = (s.Vapor.S - s.Liquid.S) / (1/s.Vapor.Rho - 1/s.Liquid.Rho)
+			}
+			return v - x, d
+		}
+		pr, err := f.Props(T, rho)
+		if err != nil && !isFinite(pr.U) {
+			failed = err
+			return 0, 1
+		}
+		sp = pr
+		dT, _ := X.partials(&pr)
+		return X.of(&pr) - x, dT
+	}
+	lo, hi := k.c.tt, c.T*(1-1e-12)
+	rlo, _ := eval(lo)
+	if failed != nil {
+		return State{}, k.rewrap(failed)
+	}
+	if rlo > 0 {
+		// Below the triple line: a vapour below the sublimation curve,
+		// or solid.
+		if inside || !ok {
+			return State{}, k.c.solidError(k.op, "below the liquid-vapour states at the triple-point temperature", k.in[0], k.in[1])
+		}
+		return k.belowTriple(&pr)
+	}
+	rhi, _ := eval(hi)
+	if failed != nil {
+		return State{}, k.rewrap(failed)
+	}
+	if rhi < 0 {
+		// Above Tc, where the single-phase attempt failed.
+		pr, ok := newton1(f, X, x, 1.1*c.T, rho, true, c.T, lim.TCeil)
+		if !ok {
+			return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
+		}
+		return k.wanted(k.finish(&pr))
+	}
+	T := min(max(T0, lo), hi)
+	converged := false
+	for it := 0; it < 200; it++ {
+		r, d := eval(T)
+		if failed != nil {
+			return State{}, k.rewrap(failed)
+		}
+		ref := &sat.Liquid
+		if !inside {
+			ref = &sp
+		}
+		if math.Abs(r) <= X.tol(f, ref, x) {
+			converged = true
+			break
+		}
+		if hi-lo <= 1e-14*hi {
+			converged = math.Abs(r) <= X.floor(f, ref, x)
+			break
+		}
+		if r > 0 {
+			hi = T
+		} else {
+			lo = T
+		}
+		Tn := T - r/d
+		if !(Tn > lo && Tn < hi) {
+			Tn = 0.5 * (lo + hi)
+		}
+		T = Tn
+	}
+	if !converged {
+		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
+	}
+	if inside {
+		q, _ := qualityOf(rho, &sat)
+		return k.finishSat(&sat, q)
+	}
+	if !finiteProps(&sp) {
+		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
+	}
+	return k.wanted(k.finish(&sp))
+}
+
+// belowTriple finishes a single-phase state below the triple-point
+// temperature: fluid only where the solid curves say so, and on the
+// branch they allow.
+func (k *call) belowTriple(pr *fluid.Props) (State, error) {
+	c := k.f.Critical()
+	r, _, why := k.c.classify(pr.T, pr.P)
+	if r == regionFluid && k.c.hasSub && (pr.Rho < c.Rho) != (pr.P <= k.c.psub(pr.T)) {
+		r, why = regionSolid, "between the vapour and the condensed phases below the triple point"
+	}
+	if r != regionFluid {
+		return State{}, k.c.regionError(k.op, r, why, k.in[0], k.in[1])
+	}
+	return k.wanted(k.finish(pr))
+}
+
+// PD returns the state of f at pressure p in Pa and density rho in kg/m³.
+// Below pc, a density between the saturated densities at p gives the
+// liquid–vapour mixture at the saturation temperature; otherwise the
+// single phase, by Newton's method in T along the isochore. Where p falls
+// along the isochore (water's liquid below about 4 °C) the solution may
+// not be unique: PD returns the one it reaches.
+//
+// Special cases are:
+//
+//	p or rho NaN, ±Inf or ≤ 0: ErrInvalidInput
+//	a state in a solid region: ErrOutOfRange (ErrUndefined without
+//	  solid data)
+//	outside the equation's accepted range: ErrOutOfRange
+func PD(f *fluid.Fluid, p, rho float64) (State, error) { return PDWith(f, p, rho, Options{}) }
+
+// PDWith is PD with options: a warm start and a requested phase.
+func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
+	k, err := newCall(f, "flash.PD", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
+		fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"}, &opt)
+	if err != nil {
+		return State{}, err
+	}
+	if err := k.positive(0); err != nil {
+		return State{}, err
+	}
+	if err := k.positive(1); err != nil {
+		return State{}, err
+	}
+	c := f.Critical()
+	lim := f.Limits()
+	tlo, thi := lim.TFloor, lim.TCeil
+	T0 := p / (rho * f.GasConstant())
+	if p >= c.P {
+		T0 = max(T0, c.T*1.01)
+	}
+	Tf, _ := k.c.freezeT(p)
+	tlo = max(tlo, Tf*(1-1e-11))
+	// The liquid-like side: T between the freezing temperature and the
+	// saturation (or critical) temperature, started at the top: the
+	// isochore meets the dome below the solution, not above it.
+	switch {
+	case p < c.P && p >= k.c.pt:
+		s, err := k.satP(p)
+		if err == nil {
+			if q, in := qualityOf(rho, &s); in {
+				return k.finishSat(&s, q)
+			}
+			if rho >= s.Liquid.Rho {
+				thi, T0 = s.T, s.T*(1-1e-9)
+			} else {
+				// The vapour, from the saturated vapour's Z.
+				tlo = s.T
+				T0 = max(s.T, p/(rho*f.GasConstant()*s.Vapor.Z))
+			}
+		}
+	case p >= c.P && rho > c.Rho:
+		if pc, err := f.PropsTP(c.T, p, fluid.RootStable, 0); err == nil && rho >= pc.Rho {
+			thi, T0 = c.T, c.T
+		}
+	}
+	if g := k.opt.Guess; g != nil && g.T > 0 {
+		T0 = g.T
+	}
+	pr, ok := solve1(f, qP, p, min(max(T0, tlo), thi), rho, true, tlo, thi)
+	if !ok {
+		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
+	}
+	if pr.T < k.c.tt {
+		return k.belowTriple(&pr)
+	}
+	return k.wanted(k.finish(&pr))
+}
