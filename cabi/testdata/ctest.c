@@ -110,7 +110,7 @@ static int errors(void) {
     double out[3];
     int32_t stat[3];
     int32_t s = tp_prop_n(h, TP_PT, TP_PROP_RHO, 3, a, b, out, stat, &err);
-    printf("vector %d %d %d %d %d\n", s, stat[0], stat[1], stat[2], isnan(out[1]));
+    printf("vector %d %d %d %d %d\n", s, stat[0], stat[1], stat[2], isnan(out[1]) ? 1 : 0);
     printf("version %d %d\n", tp_version(), TP_VERSION_MAJOR * 10000 + TP_VERSION_MINOR * 100 + TP_VERSION_PATCH);
     return 0;
 }
