@@ -15,6 +15,7 @@ import (
 	"strings"
 	"sync"
 	"testing"
+	"time"
 
 	"github.com/tripoint-thermo/tripoint/flash"
 	"github.com/tripoint-thermo/tripoint/fluid"
@@ -32,6 +33,11 @@ func buildAll(t *testing.T) (lib, ctest string) {
 	if testing.Short() {
 		t.Skip("builds the shared library; run without -short")
 	}
+	return buildAllB(t)
+}
+
+func buildAllB(t testing.TB) (lib, ctest string) {
+	t.Helper()
 	built.once.Do(func() {
 		dir, err := os.MkdirTemp("", "tripoint-cabi-")
 		if err != nil {
@@ -292,5 +298,53 @@ func TestStatusMapping(t *testing.T) {
 		if got := statusOf(c.err); got != c.code {
 			t.Errorf("statusOf(%v) = %d, want %d", c.err, got, c.code)
 		}
+	}
+}
+
+// BenchmarkBoundary compares a PH flash of CO2 called from C, one state a
+// call and n states in one vector call, with the same flash called from
+// Go, measured in the same run (best of 7 batches each). It reports the
+// ratios C/Go; the goals are 1.2 (scalar) and 1.05 (vector).
+func BenchmarkBoundary(b *testing.B) {
+	if testing.Short() {
+		b.Skip("builds the shared library")
+	}
+	_, ctest := buildAllB(b)
+	f, err := fluid.Lookup("CO2")
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, c := range []struct {
+		name string
+		p, h float64
+	}{
+		{"liquid", 10e6, -250e3}, {"twophase", 3e6, -150e3}, {"vapour", 1e6, -50e3},
+	} {
+		b.Run(c.name, func(b *testing.B) {
+			const n = 3000
+			goNs := math.Inf(1)
+			for r := 0; r < 7; r++ {
+				t0 := time.Now()
+				for i := 0; i < n; i++ {
+					if _, err := flash.PH(f, c.p, c.h); err != nil {
+						b.Fatal(err)
+					}
+				}
+				goNs = math.Min(goNs, float64(time.Since(t0).Nanoseconds())/n)
+			}
+			out, err := exec.Command(ctest, "bench", strconv.Itoa(n), pyRepr(c.p), pyRepr(c.h)).Output()
+			if err != nil {
+				b.Fatal(err)
+			}
+			var sc, vec float64
+			if _, err := fmt.Sscanf(string(out), "scalar %g vector %g", &sc, &vec); err != nil {
+				b.Fatalf("ctest bench printed %q: %v", out, err)
+			}
+			for b.Loop() {
+			}
+			b.ReportMetric(goNs, "go-ns/op")
+			b.ReportMetric(sc/goNs, "C-scalar/Go")
+			b.ReportMetric(vec/goNs, "C-vector/Go")
+		})
 	}
 }

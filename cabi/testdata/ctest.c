@@ -12,6 +12,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <time.h>
 
 #include "tripoint.h"
 
@@ -115,7 +116,38 @@ static int errors(void) {
     return 0;
 }
 
+static double now_ns(void) {
+    struct timespec ts;
+    clock_gettime(CLOCK_MONOTONIC, &ts);
+    return ts.tv_sec * 1e9 + ts.tv_nsec;
+}
+
+/* bench: best-of-7 ns per PH flash of CO2 at (p, h), scalar calls and one
+ * vector call of n states. */
+static int bench(long n, double p, double h) {
+    int32_t fl = tp_fluid("CO2", TP_REF_DEFAULT, NULL);
+    double *a = malloc(n * sizeof *a), *b = malloc(n * sizeof *b);
+    tp_state *out = malloc(n * sizeof *out);
+    for (long i = 0; i < n; i++) { a[i] = p; b[i] = h; out[i].size = sizeof *out; }
+    double best_s = 1e300, best_v = 1e300;
+    for (int r = 0; r < 7; r++) {
+        tp_state st;
+        st.size = sizeof st;
+        double t0 = now_ns();
+        for (long i = 0; i < n; i++) tp_flash(fl, TP_PH, p, h, NULL, &st, NULL);
+        double t1 = now_ns();
+        tp_flash_n(fl, TP_PH, (int32_t)n, a, b, NULL, out, NULL, NULL);
+        double t2 = now_ns();
+        if ((t1 - t0) / n < best_s) best_s = (t1 - t0) / n;
+        if ((t2 - t1) / n < best_v) best_v = (t2 - t1) / n;
+    }
+    printf("scalar %.1f vector %.1f\n", best_s, best_v);
+    free(a); free(b); free(out);
+    return 0;
+}
+
 int main(int argc, char **argv) {
+    if (argc >= 5 && strcmp(argv[1], "bench") == 0) return bench(atol(argv[2]), atof(argv[3]), atof(argv[4]));
     if (argc >= 2 && strcmp(argv[1], "table") == 0) return table();
     if (argc >= 3 && strcmp(argv[1], "threads") == 0) return threads(atol(argv[2]));
     if (argc >= 2 && strcmp(argv[1], "errors") == 0) return errors();
