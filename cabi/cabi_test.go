@@ -1,0 +1,350 @@
+package main
+
+import (
+	"bufio"
+	"bytes"
+	"errors"
+	"fmt"
+	"math"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"regexp"
+	"slices"
+	"strconv"
+	"strings"
+	"sync"
+	"testing"
+	"time"
+
+	"github.com/tripoint-thermo/tripoint/flash"
+	"github.com/tripoint-thermo/tripoint/fluid"
+)
+
+// built holds the shared library and the C test program, built once per
+// test binary into a temporary folder.
+var built struct {
+	once     sync.Once
+	dir, err string
+}
+
+func buildAll(t *testing.T) (lib, ctest string) {
+	t.Helper()
+	if testing.Short() {
+		t.Skip("builds the shared library; run without -short")
+	}
+	return buildAllB(t)
+}
+
+func buildAllB(t testing.TB) (lib, ctest string) {
+	t.Helper()
+	built.once.Do(func() {
+		dir, err := os.MkdirTemp("", "tripoint-cabi-")
+		if err != nil {
+			built.err = err.Error()
+			return
+		}
+		built.dir = dir
+		cmds := [][]string{
+			{"go", "build", "-buildmode=c-shared", "-o", filepath.Join(dir, "libtripoint.so"), "."},
+			{"gcc", "-O2", "-Wall", "-Werror", "-I.", "-o", filepath.Join(dir, "ctest"), "testdata/ctest.c",
+				"-L" + dir, "-ltripoint", "-lpthread", "-lm", "-Wl,-rpath," + dir},
+		}
+		for _, c := range cmds {
+			out, err := exec.Command(c[0], c[1:]...).CombinedOutput()
+			if err != nil {
+				built.err = fmt.Sprintf("%v: %v\n%s", c, err, out)
+				return
+			}
+		}
+	})
+	if built.err != "" {
+		t.Fatal(built.err)
+	}
+	return filepath.Join(built.dir, "libtripoint.so"), filepath.Join(built.dir, "ctest")
+}
+
+type caseIn struct {
+	fluid string
+	ref   fluid.RefState
+	pair  int
+	a, b  float64
+}
+
+// cases crosses the regions of each fluid; the values are inputs of our
+// own, and the expected results are the Go API's.
+func cases() []caseIn {
+	return []caseIn{
+		{"water", 0, pairPT, 101325, 300}, {"water", 0, pairPT, 1e6, 600}, {"water", 0, pairPT, 30e6, 700},
+		{"water", 0, pairTQ, 373.15, 0.3}, {"water", 0, pairPQ, 1e5, 1}, {"water", 0, pairPH, 1e5, 1e6},
+		{"water", 0, pairPS, 1e6, 6500}, {"water", 0, pairDU, 10, 2e6}, {"water", 0, pairDT, 500, 500},
+		{"water", 0, pairHS, 2.8e6, 6500},
+		{"CO2", 0, pairPT, 1e5, 300}, {"CO2", 0, pairPT, 10e6, 310}, {"CO2", 0, pairPT, 6e6, 280},
+		{"CO2", 0, pairTQ, 280, 0.5}, {"CO2", 0, pairPH, 3e6, -200e3}, {"CO2", 0, pairDU, 600, -250e3},
+		{"CO2", 1, pairPT, 3e6, 260},
+		{"water", 0, pairPT, math.NaN(), 300}, {"water", 0, pairTQ, 300, 2},
+	}
+}
+
+func TestCMatchesGo(t *testing.T) {
+	_, ctest := buildAll(t)
+	var in bytes.Buffer
+	cs := cases()
+	for _, c := range cs {
+		fmt.Fprintf(&in, "%s %d %d %016x %016x\n", c.fluid, c.ref, c.pair, math.Float64bits(c.a), math.Float64bits(c.b))
+	}
+	cmd := exec.Command(ctest, "table")
+	cmd.Stdin = &in
+	out, err := cmd.Output()
+	if err != nil {
+		t.Fatalf("ctest table: %v", err)
+	}
+	lines := strings.Split(strings.TrimSpace(string(out)), "\n")
+	if len(lines) != len(cs) {
+		t.Fatalf("ctest printed %d lines for %d cases:\n%s", len(lines), len(cs), out)
+	}
+	for i, c := range cs {
+		f, err := fluid.Lookup(c.fluid)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if f, err = f.WithReference(c.ref); err != nil {
+			t.Fatal(err)
+		}
+		st, err := run(f, int32ToC(c.pair), c.a, c.b, flash.Options{})
+		if got := strings.Fields(lines[i]); got[0] != strconv.Itoa(int(statusOf(err))) {
+			t.Errorf("case %+v: C status %s, Go error %v", c, got[0], err)
+			continue
+		}
+		if err != nil {
+			continue
+		}
+		want := fmt.Sprintf("%d %d %d %d", statusOK, st.Phase, st.Flags, st.N)
+		for _, v := range []float64{st.T, st.P, st.Rho, st.H, st.S, st.U, st.Cp, st.Cv, st.W, st.Quality, st.Solid} {
+			want += fmt.Sprintf(" %016x", math.Float64bits(v))
+		}
+		for k := 0; k < int(st.N); k++ {
+			p := st.Phases[k]
+			want += fmt.Sprintf(" %d", p.Phase)
+			for _, v := range []float64{p.Fraction, p.Rho, p.H, p.S, p.U, p.Cp, p.Cv, p.W} {
+				want += fmt.Sprintf(" %016x", math.Float64bits(v))
+			}
+		}
+		if lines[i] != want {
+			t.Errorf("case %+v:\n C: %s\nGo: %s", c, lines[i], want)
+		}
+	}
+}
+
+func TestCThreads(t *testing.T) {
+	_, ctest := buildAll(t)
+	out, err := exec.Command(ctest, "threads", "100000").CombinedOutput()
+	if err != nil {
+		t.Fatalf("ctest threads: %v\n%s", err, out)
+	}
+	if strings.TrimSpace(string(out)) != "mismatches 0" {
+		t.Errorf("8 threads x 100000 calls: %s", out)
+	}
+}
+
+func TestCErrors(t *testing.T) {
+	_, ctest := buildAll(t)
+	out, err := exec.Command(ctest, "errors").CombinedOutput()
+	if err != nil {
+		t.Fatalf("ctest errors: %v\n%s", err, out)
+	}
+	want := map[string]int{
+		"water-handle": statusOK, "nan-pressure": statusInvalidInput, "negative-pressure": statusInvalidInput,
+		"bad-quality": statusInvalidInput, "bad-pair": statusInvalidInput, "bad-handle": statusInvalidInput,
+		"out-of-range": statusOutOfRange, "null-err": statusInvalidInput, "small-state": statusInvalidInput,
+		"bad-prop": statusInvalidInput, "unknown-fluid": statusUndefined, "co2-nbp": statusUndefined,
+	}
+	seen := map[string]bool{}
+	sc := bufio.NewScanner(bytes.NewReader(out))
+	for sc.Scan() {
+		f := strings.Fields(sc.Text())
+		switch {
+		case len(f) >= 2 && f[0] == "vector":
+			// status of the first failure, per-element statuses, NaN flag
+			if strings.Join(f[1:], " ") != fmt.Sprintf("%d %d %d %d 1", statusInvalidInput, statusOK, statusInvalidInput, statusOK) {
+				t.Errorf("vector call: %s", sc.Text())
+			}
+			seen["vector"] = true
+		case len(f) >= 3 && f[0] == "version":
+			if f[1] != f[2] {
+				t.Errorf("tp_version %s, header %s", f[1], f[2])
+			}
+			seen["version"] = true
+		case len(f) >= 2:
+			code, ok := want[f[0]]
+			if !ok {
+				t.Errorf("unexpected line %q", sc.Text())
+				continue
+			}
+			seen[f[0]] = true
+			if f[1] != strconv.Itoa(code) {
+				t.Errorf("%s: status %s, want %d (%s)", f[0], f[1], code, sc.Text())
+			}
+			msg := strings.Join(f[2:], " ")
+			if code != statusOK && f[0] != "null-err" && msg == "" {
+				t.Errorf("%s: empty message", f[0])
+			}
+		}
+	}
+	for k := range want {
+		if !seen[k] {
+			t.Errorf("no result for %s:\n%s", k, out)
+		}
+	}
+}
+
+// TestHeaderSymbols checks that tripoint.h declares exactly the functions
+// cabi.go exports, and that the built library defines them.
+func TestHeaderSymbols(t *testing.T) {
+	hdr, err := os.ReadFile("tripoint.h")
+	if err != nil {
+		t.Fatal(err)
+	}
+	src, err := os.ReadFile("cabi.go")
+	if err != nil {
+		t.Fatal(err)
+	}
+	declared := uniq(regexp.MustCompile(`(?m)^\s*(?:int32_t|double)\s+(tp_\w+)\s*\(`).FindAllSubmatch(hdr, -1))
+	exported := uniq(regexp.MustCompile(`(?m)^//export (tp_\w+)`).FindAllSubmatch(src, -1))
+	if !slices.Equal(declared, exported) {
+		t.Errorf("header declares %v\ncabi.go exports %v", declared, exported)
+	}
+	if testing.Short() {
+		return
+	}
+	lib, _ := buildAll(t)
+	out, err := exec.Command("nm", "-D", "--defined-only", lib).Output()
+	if err != nil {
+		t.Fatalf("nm: %v", err)
+	}
+	var defined []string
+	for _, l := range strings.Split(string(out), "\n") {
+		f := strings.Fields(l)
+		if len(f) == 3 && strings.HasPrefix(f[2], "tp_") {
+			defined = append(defined, f[2])
+		}
+	}
+	slices.Sort(defined)
+	if !slices.Equal(defined, declared) {
+		t.Errorf("library defines %v\nheader declares %v", defined, declared)
+	}
+}
+
+func uniq(ms [][][]byte) []string {
+	var s []string
+	for _, m := range ms {
+		s = append(s, string(m[1]))
+	}
+	slices.Sort(s)
+	return slices.Compact(s)
+}
+
+func TestPython(t *testing.T) {
+	lib, _ := buildAll(t)
+	py, err := exec.LookPath("python3")
+	if err != nil {
+		t.Fatal("python3 not found: run .ci/setup, which installs it")
+	}
+	var exp bytes.Buffer
+	for _, c := range cases() {
+		if c.ref != 0 {
+			continue
+		}
+		f, _ := fluid.Lookup(c.fluid)
+		st, err := run(f, int32ToC(c.pair), c.a, c.b, flash.Options{})
+		if err != nil {
+			continue
+		}
+		fmt.Fprintf(&exp, "%s %d %s %s %s %s %s\n", c.fluid, c.pair, pyRepr(c.a), pyRepr(c.b), pyRepr(st.T), pyRepr(st.Rho), pyRepr(st.H))
+	}
+	ef := filepath.Join(t.TempDir(), "expect.txt")
+	if err := os.WriteFile(ef, exp.Bytes(), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cmd := exec.Command(py, "-m", "unittest", "-v", "test_tripoint")
+	cmd.Dir = "python"
+	cmd.Env = append(os.Environ(), "TRIPOINT_LIB="+lib, "TRIPOINT_EXPECT="+ef, "PYTHONDONTWRITEBYTECODE=1")
+	out, err := cmd.CombinedOutput()
+	if err != nil {
+		t.Fatalf("python tests failed: %v\n%s", err, out)
+	}
+	if !strings.Contains(string(out), "OK") {
+		t.Fatalf("python tests did not report OK:\n%s", out)
+	}
+}
+
+// pyRepr formats x so that Python's float() reads back the same bits.
+func pyRepr(x float64) string { return strconv.FormatFloat(x, 'g', -1, 64) }
+
+// TestStatusMapping checks the one-to-one map from sentinels to codes.
+func TestStatusMapping(t *testing.T) {
+	for _, c := range []struct {
+		err  error
+		code int32
+	}{
+		{nil, statusOK},
+		{fluid.NewError("x", fluid.ErrInvalidInput, ""), statusInvalidInput},
+		{fluid.NewError("x", fluid.ErrOutOfRange, ""), statusOutOfRange},
+		{fluid.NewError("x", fluid.ErrNoConvergence, ""), statusNoConvergence},
+		{fluid.NewError("x", fluid.ErrUnstable, ""), statusUnstable},
+		{fluid.NewError("x", fluid.ErrUndefined, ""), statusUndefined},
+		{errors.New("other"), statusInternal},
+	} {
+		if got := statusOf(c.err); got != c.code {
+			t.Errorf("statusOf(%v) = %d, want %d", c.err, got, c.code)
+		}
+	}
+}
+
+// BenchmarkBoundary compares a PH flash of CO2 called from C, one state a
+// call and n states in one vector call, with the same flash called from
+// Go, measured in the same run (best of 7 batches each). It reports the
+// ratios C/Go; the goals are 1.2 (scalar) and 1.05 (vector).
+func BenchmarkBoundary(b *testing.B) {
+	if testing.Short() {
+		b.Skip("builds the shared library")
+	}
+	_, ctest := buildAllB(b)
+	f, err := fluid.Lookup("CO2")
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, c := range []struct {
+		name string
+		p, h float64
+	}{
+		{"liquid", 10e6, -250e3}, {"twophase", 3e6, -150e3}, {"vapour", 1e6, -50e3},
+	} {
+		b.Run(c.name, func(b *testing.B) {
+			const n = 3000
+			goNs := math.Inf(1)
+			for r := 0; r < 7; r++ {
+				t0 := time.Now()
+				for i := 0; i < n; i++ {
+					if _, err := flash.PH(f, c.p, c.h); err != nil {
+						b.Fatal(err)
+					}
+				}
+				goNs = math.Min(goNs, float64(time.Since(t0).Nanoseconds())/n)
+			}
+			out, err := exec.Command(ctest, "bench", strconv.Itoa(n), pyRepr(c.p), pyRepr(c.h)).Output()
+			if err != nil {
+				b.Fatal(err)
+			}
+			var sc, vec float64
+			if _, err := fmt.Sscanf(string(out), "scalar %g vector %g", &sc, &vec); err != nil {
+				b.Fatalf("ctest bench printed %q: %v", out, err)
+			}
+			for b.Loop() {
+			}
+			b.ReportMetric(goNs, "go-ns/op")
+			b.ReportMetric(sc/goNs, "C-scalar/Go")
+			b.ReportMetric(vec/goNs, "C-vector/Go")
+		})
+	}
+}

@@ -1,0 +1,156 @@
+/* ctest: the C caller used by cabi's Go tests.
+ *
+ *   ctest table    reads "fluid ref pair a b" lines (a, b as 16-digit hex
+ *                  bits) from stdin and prints each state's status and
+ *                  fields as hex bits, for comparison with the Go API.
+ *   ctest threads N  runs 8 threads x N tp_prop calls each over a fixed set
+ *                  of states and prints "mismatches M" against one thread.
+ *   ctest errors   prints the status of a catalogue of bad calls.
+ */
+#include <math.h>
+#include <pthread.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <time.h>
+
+#include "tripoint.h"
+
+static double frombits(unsigned long long u) { double d; memcpy(&d, &u, 8); return d; }
+static unsigned long long bits(double d) { unsigned long long u; memcpy(&u, &d, 8); return u; }
+
+static int table(void) {
+    char name[64];
+    int ref, pair;
+    unsigned long long ua, ub;
+    while (scanf("%63s %d %d %llx %llx", name, &ref, &pair, &ua, &ub) == 5) {
+        tp_error err;
+        err.size = sizeof err;
+        int32_t h = tp_fluid(name, ref, &err);
+        if (h <= 0) { printf("handle %d\n", err.code); continue; }
+        tp_state st;
+        st.size = sizeof st;
+        int32_t s = tp_flash(h, pair, frombits(ua), frombits(ub), NULL, &st, &err);
+        printf("%d %d %u %d", s, st.phase, st.flags, st.n);
+        double v[] = {st.t, st.p, st.rho, st.h, st.s, st.u, st.cp, st.cv, st.w, st.quality, st.solid};
+        for (int i = 0; i < 11; i++) printf(" %016llx", bits(v[i]));
+        for (int k = 0; k < st.n; k++) {
+            tp_phase_state *q = &st.phases[k];
+            double w[] = {q->fraction, q->rho, q->h, q->s, q->u, q->cp, q->cv, q->w};
+            printf(" %d", q->phase);
+            for (int i = 0; i < 8; i++) printf(" %016llx", bits(w[i]));
+        }
+        /* The single-property call must agree with the flash. */
+        double hp = tp_prop(h, pair, frombits(ua), frombits(ub), TP_PROP_H, NULL);
+        if (s == TP_OK && bits(hp) != bits(st.h)) printf(" PROP-MISMATCH");
+        if (s != TP_OK && !isnan(hp)) printf(" PROP-NOT-NAN");
+        printf("\n");
+    }
+    return 0;
+}
+
+enum { NSTATES = 6 };
+static int32_t th_handle;
+static const double th_p[NSTATES] = {1e5, 5e5, 2e6, 6e6, 9e6, 2e7};
+static const double th_t[NSTATES] = {250, 280, 300, 320, 350, 400};
+static double th_ref[NSTATES];
+static long th_calls;
+
+static void *worker(void *arg) {
+    long *bad = arg;
+    for (long i = 0; i < th_calls; i++) {
+        int k = (int)(i % NSTATES);
+        double v = tp_prop(th_handle, TP_PT, th_p[k], th_t[k], TP_PROP_H, NULL);
+        if (bits(v) != bits(th_ref[k])) (*bad)++;
+    }
+    return NULL;
+}
+
+static int threads(long n) {
+    th_calls = n;
+    th_handle = tp_fluid("CO2", TP_REF_DEFAULT, NULL);
+    if (th_handle <= 0) { printf("no handle\n"); return 1; }
+    for (int k = 0; k < NSTATES; k++) th_ref[k] = tp_prop(th_handle, TP_PT, th_p[k], th_t[k], TP_PROP_H, NULL);
+    pthread_t t[8];
+    long bad[8] = {0};
+    for (int i = 0; i < 8; i++) pthread_create(&t[i], NULL, worker, &bad[i]);
+    long total = 0;
+    for (int i = 0; i < 8; i++) { pthread_join(t[i], NULL); total += bad[i]; }
+    printf("mismatches %ld\n", total);
+    return 0;
+}
+
+static void report(const char *what, int32_t status, const tp_error *err) {
+    printf("%s %d %s\n", what, status, err ? err->message : "");
+}
+
+static int errors(void) {
+    tp_error err;
+    err.size = sizeof err;
+    tp_state st;
+    st.size = sizeof st;
+    int32_t h = tp_fluid("water", TP_REF_DEFAULT, &err);
+    report("water-handle", h > 0 ? 0 : err.code, &err);
+    report("nan-pressure", tp_flash(h, TP_PT, NAN, 300, NULL, &st, &err), &err);
+    report("negative-pressure", tp_flash(h, TP_PT, -1, 300, NULL, &st, &err), &err);
+    report("bad-quality", tp_flash(h, TP_TQ, 300, 1.5, NULL, &st, &err), &err);
+    report("bad-pair", tp_flash(h, 99, 1e5, 300, NULL, &st, &err), &err);
+    report("bad-handle", tp_flash(12345, TP_PT, 1e5, 300, NULL, &st, &err), &err);
+    report("out-of-range", tp_flash(h, TP_PT, 1e5, 1e5, NULL, &st, &err), &err);
+    report("null-err", tp_flash(h, TP_PT, NAN, 300, NULL, &st, NULL), NULL);
+    tp_state small;
+    small.size = 8;
+    report("small-state", tp_flash(h, TP_PT, 1e5, 300, NULL, &small, &err), &err);
+    double v = tp_prop(h, TP_PT, 1e5, 300, 999, &err);
+    report("bad-prop", isnan(v) ? err.code : -1, &err);
+    int32_t u = tp_fluid("no-such-fluid", 0, &err);
+    report("unknown-fluid", u == 0 ? err.code : -1, &err);
+    int32_t r = tp_fluid("CO2", TP_REF_NBP, &err);
+    report("co2-nbp", r == 0 ? err.code : -1, &err);
+    double a[3] = {1e5, NAN, 2e5}, b[3] = {300, 300, 320};
+    double out[3];
+    int32_t stat[3];
+    int32_t s = tp_prop_n(h, TP_PT, TP_PROP_RHO, 3, a, b, out, stat, &err);
+    printf("vector %d %d %d %d %d\n", s, stat[0], stat[1], stat[2], isnan(out[1]) ? 1 : 0);
+    printf("version %d %d\n", tp_version(), TP_VERSION_MAJOR * 10000 + TP_VERSION_MINOR * 100 + TP_VERSION_PATCH);
+    return 0;
+}
+
+static double now_ns(void) {
+    struct timespec ts;
+    clock_gettime(CLOCK_MONOTONIC, &ts);
+    return ts.tv_sec * 1e9 + ts.tv_nsec;
+}
+
+/* bench: best-of-7 ns per PH flash of CO2 at (p, h), scalar calls and one
+ * vector call of n states. */
+static int bench(long n, double p, double h) {
+    int32_t fl = tp_fluid("CO2", TP_REF_DEFAULT, NULL);
+    double *a = malloc(n * sizeof *a), *b = malloc(n * sizeof *b);
+    tp_state *out = malloc(n * sizeof *out);
+    for (long i = 0; i < n; i++) { a[i] = p; b[i] = h; out[i].size = sizeof *out; }
+    double best_s = 1e300, best_v = 1e300;
+    for (int r = 0; r < 7; r++) {
+        tp_state st;
+        st.size = sizeof st;
+        double t0 = now_ns();
+        for (long i = 0; i < n; i++) tp_flash(fl, TP_PH, p, h, NULL, &st, NULL);
+        double t1 = now_ns();
+        tp_flash_n(fl, TP_PH, (int32_t)n, a, b, NULL, out, NULL, NULL);
+        double t2 = now_ns();
+        if ((t1 - t0) / n < best_s) best_s = (t1 - t0) / n;
+        if ((t2 - t1) / n < best_v) best_v = (t2 - t1) / n;
+    }
+    printf("scalar %.1f vector %.1f\n", best_s, best_v);
+    free(a); free(b); free(out);
+    return 0;
+}
+
+int main(int argc, char **argv) {
+    if (argc >= 5 && strcmp(argv[1], "bench") == 0) return bench(atol(argv[2]), atof(argv[3]), atof(argv[4]));
+    if (argc >= 2 && strcmp(argv[1], "table") == 0) return table();
+    if (argc >= 3 && strcmp(argv[1], "threads") == 0) return threads(atol(argv[2]));
+    if (argc >= 2 && strcmp(argv[1], "errors") == 0) return errors();
+    fprintf(stderr, "usage: ctest table|threads N|errors\n");
+    return 2;
+}
