@@ -18,8 +18,10 @@ type call struct {
 	c   curves
 }
 
-// init sets up k for a flash; it validates what every flash shares.
-func (k *call) init(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options) error {
+// init sets up k for a flash; it validates what every flash shares:
+// a fluid, finite inputs, those in the bit mask positive (1: a, 2: b)
+// positive, and the options.
+func (k *call) init(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options, positive int) error {
 	*k = call{f: f, op: op, in: [2]fluid.Input{a, b}}
 	if opt != nil {
 		k.opt = *opt
@@ -29,6 +31,11 @@ func (k *call) init(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options) e
 	}
 	if !isFinite(a.Value) || !isFinite(b.Value) {
 		return k.fail(fluid.ErrInvalidInput, "inputs must be finite")
+	}
+	for i := range 2 {
+		if positive&(1<<i) != 0 && !(k.in[i].Value > 0) {
+			return k.fail(fluid.ErrInvalidInput, k.in[i].Name+" must be positive")
+		}
 	}
 	switch k.opt.Phase {
 	case Unknown, Liquid, Vapor, Supercritical, TwoPhase:
@@ -51,13 +58,6 @@ func (k *call) rewrap(err error) error {
 		return k.fail(fe.Err, fe.Range)
 	}
 	return k.fail(fluid.ErrNoConvergence, err.Error())
-}
-
-func (k *call) positive(i int) error {
-	if !(k.in[i].Value > 0) {
-		return k.fail(fluid.ErrInvalidInput, k.in[i].Name+" must be positive")
-	}
-	return nil
 }
 
 func (k *call) quality(q float64) error {
@@ -212,13 +212,7 @@ func PT(f *fluid.Fluid, p, T float64) (State, error) { return PTWith(f, p, T, Op
 func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PT", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(1); err != nil {
+		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt, 3); err != nil {
 		return State{}, err
 	}
 	if k.opt.Phase == TwoPhase {
@@ -278,10 +272,7 @@ func TQ(f *fluid.Fluid, T, q float64) (State, error) { return TQWith(f, T, q, Op
 func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.TQ", fluid.Input{Name: "T", Value: T, Unit: "K"},
-		fluid.Input{Name: "q", Value: q}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
+		fluid.Input{Name: "q", Value: q}, &opt, 1); err != nil {
 		return State{}, err
 	}
 	if err := k.quality(q); err != nil {
@@ -313,10 +304,7 @@ func PQ(f *fluid.Fluid, p, q float64) (State, error) { return PQWith(f, p, q, Op
 func PQWith(f *fluid.Fluid, p, q float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PQ", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "q", Value: q}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
+		fluid.Input{Name: "q", Value: q}, &opt, 1); err != nil {
 		return State{}, err
 	}
 	if err := k.quality(q); err != nil {
@@ -417,10 +405,7 @@ func PH(f *fluid.Fluid, p, h float64) (State, error) { return PHWith(f, p, h, Op
 func PHWith(f *fluid.Fluid, p, h float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PH", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
+		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt, 1); err != nil {
 		return State{}, err
 	}
 	return k.isobaric(p, qH, h)
@@ -434,10 +419,7 @@ func PS(f *fluid.Fluid, p, s float64) (State, error) { return PSWith(f, p, s, Op
 func PSWith(f *fluid.Fluid, p, s float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PS", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
+		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
 	return k.isobaric(p, qS, s)
