@@ -675,9 +675,17 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		keepLo, keepHi = lim.TFloor, lim.TCeil
 	}
 	keep := onBranch(f, sd, keepLo, keepHi)
+	mayFreeze := !meta && sd != vaporSide && k.sol.ok && !k.decided
+	if d := dXdT(X, start); mayFreeze && d > 0 && start.T+(x-X.of(start))/d < k.freezeTHi(p) &&
+		k.belowFreezing(p, X, x) {
+		// By the start's slope the state lies near or below where the
+		// liquid freezes, and it is below the liquid there: the solid
+		// paths decide.
+		return State{}, errSolid
+	}
 	T0, rho0 := extrapolate(X, x, start, sd, tlo, thi)
 	pr, ok := newton2(f, qP, p, X, x, T0, rho0, keep, start)
-	if !ok && !meta && sd != vaporSide && k.belowFreezing(p, X, x) {
+	if !ok && mayFreeze && k.belowFreezing(p, X, x) {
 		// Below the liquid where it may freeze: the solid paths decide,
 		// without the fallbacks' search along the isobar.
 		return State{}, errSolid

@@ -379,16 +379,27 @@ func (k *call) belowFreezing(p float64, X quantity, x float64) bool {
 	if !b.ok || k.decided || p < b.n.pt {
 		return false
 	}
-	n := b.n
-	Th := n.meltEndT()
-	if !n.meltRising {
-		Th = b.tt
-	}
-	if p <= n.solidPMax() {
-		_, Th = n.meltTBounds(p)
-	}
-	pf, err := k.f.PropsTP(Th, p, fluid.RootLiquid, 0)
+	pf, err := k.f.PropsTP(k.freezeTHi(p), p, fluid.RootLiquid, 0)
 	return err == nil && x < X.of(&pf)
+}
+
+// freezeTHi returns an upper bound of the melting temperature at p ≥ pt
+// by the node tables (above the end of the melting curve, where it ends
+// or, for water, the triple point); 0 without a solid model.
+func (k *call) freezeTHi(p float64) float64 {
+	b := &k.sol
+	if !b.ok {
+		return 0
+	}
+	n := b.n
+	switch {
+	case p > n.solidPMax() && n.meltRising:
+		return n.meltEndT()
+	case p > n.solidPMax() || p < n.pt:
+		return b.tt
+	}
+	_, Th := n.meltTBounds(p)
+	return Th
 }
 
 // lowError is the error for a fluid state below the lowest fluid

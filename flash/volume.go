@@ -201,6 +201,13 @@ func DUWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 	if k.sol.ok && !k.metaFluid() && rho <= f.Limits().RhoCeil {
 		tp, _ := k.triple()
 		_, hi, three := tripleURange(tp, 1/rho)
+		if !three && rho < tp.Vapor.Rho {
+			// A vapour isochore: below its state at the triple-point
+			// temperature it meets the sublimation curve.
+			if pr, err := f.Props(tp.T, rho); err == nil {
+				three, hi = true, pr.U
+			}
+		}
 		if three && u <= hi+qU.tol(f, nil, u) || k.sol.n.meltRising && rho > f.Triple().RhoLiquid*(1-1e-9) {
 			// In or below the three-phase mixtures of this density;
 			// or dry ice, or the melting curve above the triple point.
