@@ -12,18 +12,24 @@ import (
 // TS returns the state of f at temperature T in K and specific entropy s
 // in J/(kg·K). Below Tc the saturated entropies at T place s: between
 // them the liquid–vapour mixture, outside them the single phase, by
-// Newton's method in ln ρ along the isotherm. Below the triple-point
-// temperature the fluid is the vapour below the sublimation curve and
-// (water) the liquid above the melting curve. Where s is not monotone
-// along the isotherm (liquid water below its density maximum, where s
-// rises with pressure) the state is not unique: TS returns the one of
-// lowest pressure (a saturated mixture where there is one).
+// Newton's method in ln ρ along the isotherm. For water and CO2 below the
+// triple-point temperature the entropies of the vapour and the solid on
+// the sublimation curve at T place s (solid–vapour between them, the
+// solid at the pressure where its entropy is s below), and for ice Ih
+// the liquid beyond its melting curve; above it (CO2) the liquid and the
+// solid on the melting curve. Where s is not monotone along the isotherm
+// (liquid water below its density maximum, where s rises with pressure;
+// ice, which melts to higher entropy) the state is not unique: TS returns
+// the one of lowest pressure (a saturated mixture where there is one). On
+// the triple line the state of least solid, flagged Indeterminate.
 //
 // Special cases are:
 //
 //	T NaN, ±Inf or ≤ 0, s NaN or ±Inf: ErrInvalidInput
-//	s below the fluid states of the isotherm: the solid region
-//	  (ErrOutOfRange; ErrUndefined without solid data)
+//	no state with these T and s: ErrOutOfRange
+//	a state with solid beyond the solid model: ErrOutOfRange
+//	below the triple-point temperature of a fluid without a solid model
+//	  (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
 func TS(f *fluid.Fluid, T, s float64) (State, error) { return TSWith(f, T, s, Options{}) }
 
@@ -102,16 +108,20 @@ func (k *call) ts(T, s, rhoLo, rhoHi float64) (State, error) {
 // entropy s in J/(kg·K): the end state of an isentropic compression or
 // expansion of known work, or of a nozzle.
 //
-// Along an isentrope dh = dp/ρ, so h(p) rises with p: HS solves
-// h(PS(p, s)) = h by Newton's method in ln p with slope p/ρ, bracketed,
-// each PS warm-started from the last. On the triple line every
-// three-phase mixture has h − Tt·s = g_t, so (h, s) does not fix it:
-// the state without solid is returned, flagged Indeterminate.
+// Along an isentrope dh = dp/ρ, so h(p) rises with p, through every
+// region, the solid ones included: HS solves h(PS(p, s)) = h by Newton's
+// method in ln p with slope p/ρ, bracketed by states, each PS
+// warm-started from the last; where the isentrope crosses a band without
+// a modelled state (water above 208.566 MPa below 273.16 K) a scan finds
+// the states on either side. On the triple line every three-phase
+// mixture has h − Tt·s = g_t, so (h, s) does not fix it: PS at the
+// triple-point pressure gives the state of least solid, flagged
+// Indeterminate (liquid–vapour, or solid–vapour below the liquid's s).
 //
 // Special cases are:
 //
 //	h or s NaN or ±Inf: ErrInvalidInput
-//	no fluid state with these h and s: ErrOutOfRange
+//	no state with these h and s: ErrOutOfRange or ErrNoConvergence
 func HS(f *fluid.Fluid, h, s float64) (State, error) { return HSWith(f, h, s, Options{}) }
 
 // HSWith is HS with options, passed to each PS: a warm start, a

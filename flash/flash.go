@@ -225,27 +225,40 @@ func (k *call) stableAtRho(pr *fluid.Props) (bool, Flags) {
 
 // PT returns the state of f at pressure p in Pa and temperature T in K.
 //
-// Below Tc the stable phase is the liquid above the equation's own vapour
-// pressure and the vapour below it; exactly on the vapour-pressure curve
-// (to rounding) the inputs do not fix the state, and PT returns the
-// saturated liquid flagged Indeterminate and Saturated. Below the
-// triple-point temperature it returns the vapour below the sublimation
-// curve and (water) the liquid above the melting curve, flagged
-// Extrapolated where beyond the equation's published range.
+// Below Tc the stable fluid phase is the liquid above the equation's own
+// vapour pressure and the vapour below it; exactly on the vapour-pressure
+// curve (to rounding) the inputs do not fix the state, and PT returns the
+// saturated liquid flagged Indeterminate and Saturated. For water and CO2
+// the solid is the stable phase where its Gibbs energy is below the
+// fluid's: above the sublimation curve below the triple point, beyond the
+// melting curve above it (for water: below it, at T < 273.16 K); there PT
+// returns Phase Solid. Exactly on a sublimation or melting curve (within
+// 1e-11·RT in Gibbs energy) it returns the fluid phase flagged
+// Indeterminate and Saturated; at the triple point the saturated liquid.
+// The vapour below the triple point and the liquid of water above the
+// ice Ih melting curve are flagged Extrapolated where beyond the
+// equation's published range.
 //
 // Special cases are:
 //
 //	p or T NaN, ±Inf or ≤ 0: ErrInvalidInput
-//	(p, T) in a solid region by the published sublimation and melting
-//	  curves: ErrOutOfRange (solid models are not yet available;
-//	  ErrUndefined for a fluid without solid data)
+//	water with ice Ih, or liquid below 273.16 K, above 208.566 MPa:
+//	  ErrOutOfRange naming the other ices
+//	CO2 solid above 800 MPa (the dry-ice model's limit): ErrOutOfRange
+//	water below 200 K at a pressure below the sublimation pressure at
+//	  200 K (solid and vapour cannot be told apart): ErrOutOfRange
+//	below the triple-point temperature of a fluid without a solid model
+//	  (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
 func PT(f *fluid.Fluid, p, T float64) (State, error) { return PTWith(f, p, T, Options{}) }
 
 // PTWith is PT with options: a warm start from opt.Guess, and with
 // opt.Phase Liquid or Vapor the root of that phase, metastable up to its
 // spinodal if opt.AllowMetastable (else an error where it is not the
-// stable one). TwoPhase cannot be requested: ErrInvalidInput.
+// stable one; metastable also against the solid: supercooled water,
+// supersaturated CO2 vapour). opt.Phase Solid asks for a solid state. A
+// mixture (TwoPhase, SolidVapor, SolidLiquid, Triple) cannot be
+// requested: ErrInvalidInput.
 func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PT", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
@@ -303,20 +316,25 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 }
 
 // TQ returns the saturation state of f at temperature T in K and vapour
-// mass fraction q, from the triple point to the critical point. q = 0
-// and q = 1 return the saturated liquid and vapour as single-phase
-// states (Phase Liquid or Vapor, flag Saturated); 0 < q < 1 a two-phase
-// state (see State). Below the triple-point temperature, q = 1 returns
-// the vapour on the published sublimation curve (flag Saturated); at
-// exactly the triple-point temperature the solid fraction is not fixed
-// and TQ returns the state without solid, flagged Indeterminate. At Tc
-// the critical point itself.
+// mass fraction q, from the vapour floor through the triple point to the
+// critical point. q = 0 and q = 1 return the saturated liquid and vapour
+// as single-phase states (Phase Liquid or Vapor, flag Saturated);
+// 0 < q < 1 a two-phase state (see State). Below the triple-point
+// temperature TQ returns states on the sublimation curve: q = 0 the
+// saturated solid (Phase Solid), q = 1 the saturated vapour, between them
+// SolidVapor with Quality q and Solid 1 − q (flag Saturated). On the
+// triple line the solid fraction is not fixed and TQ returns the state
+// without solid, flagged Indeterminate (for q < 1). At Tc the critical
+// point itself.
 //
 // Special cases are:
 //
 //	T NaN, ±Inf or ≤ 0, q NaN or outside [0, 1]: ErrInvalidInput
 //	T > Tc: ErrOutOfRange
-//	T below the triple point, q < 1: the solid region (ErrOutOfRange)
+//	T below the vapour floor (150 K for CO2, 200 K for water):
+//	  ErrOutOfRange
+//	T below the triple point of a fluid without a solid model (R-134a):
+//	  ErrUndefined
 func TQ(f *fluid.Fluid, T, q float64) (State, error) { return TQWith(f, T, q, Options{}) }
 
 // TQWith is TQ with a warm start from opt.Guess (a two-phase state).
@@ -346,15 +364,18 @@ func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
 }
 
 // PQ returns the saturation state of f at pressure p in Pa and vapour
-// mass fraction q, from the triple-point pressure to the critical
-// pressure; as TQ, with the vapour on the sublimation curve for q = 1
-// below the triple-point pressure.
+// mass fraction q, as TQ: below the triple-point pressure on the
+// sublimation curve (q = 0 the saturated solid, q = 1 the saturated
+// vapour, SolidVapor between), from it to the critical pressure on the
+// vapour-pressure curve.
 //
 // Special cases are:
 //
 //	p NaN, ±Inf or ≤ 0, q NaN or outside [0, 1]: ErrInvalidInput
 //	p > pc: ErrOutOfRange
-//	p below the triple point, q < 1: the solid region (ErrOutOfRange)
+//	p below the sublimation pressure at the vapour floor: ErrOutOfRange
+//	p below the triple point of a fluid without a solid model (R-134a):
+//	  ErrUndefined
 func PQ(f *fluid.Fluid, p, q float64) (State, error) { return PQWith(f, p, q, Options{}) }
 
 // PQWith is PQ with a warm start from opt.Guess (a two-phase state).
@@ -416,22 +437,32 @@ func (k *call) finishSat(s *fluid.Saturation, q float64) (State, error) {
 // PH, PS
 
 // PH returns the state of f at pressure p in Pa and specific enthalpy h
-// in J/kg: liquid, vapour, supercritical or two-phase.
+// in J/kg: liquid, vapour, supercritical or two-phase; for water and CO2
+// also solid, solid–vapour (below the triple-point pressure) and
+// solid–liquid (above it).
 //
 // Below pc the auxiliary vapour-pressure equation places h against the
 // saturated enthalpies; within its uncertainty of the curve, the
 // equation's own saturation (SaturationAtP) decides. Single-phase states
 // come from Newton's method in (T, ρ) on p and h with the analytic
 // Jacobian, with a bracketed search along the isobar where it fails.
-// Exactly on the triple line (p = pt, the enthalpy of a state there) the
-// solid fraction is not fixed and the state without solid is returned,
-// flagged Indeterminate.
+// Below the triple-point pressure h is placed against the solid and the
+// vapour on the model's sublimation curve at p, above it against the
+// solid and the liquid on its melting curve where h lies below the liquid
+// there; a solid state comes from Newton's method in T on the solid's
+// Gibbs function. On the triple line (p within 1e-10 of pt) the fractions
+// are not fixed: the state of least solid is returned, flagged
+// Indeterminate (liquid–vapour where h lies between the liquid and the
+// vapour at the triple point, else solid–vapour).
 //
 // Special cases are:
 //
 //	p NaN, ±Inf or ≤ 0, h NaN or ±Inf: ErrInvalidInput
-//	h below the fluid at the sublimation or melting temperature: the
-//	  solid region (ErrOutOfRange; ErrUndefined without solid data)
+//	h below the solid at its lowest modelled temperature: ErrOutOfRange
+//	a state with solid beyond the solid model (water above 208.566 MPa,
+//	  naming the other ices; CO2 above 800 MPa): ErrOutOfRange
+//	h below the fluid at the triple point of a fluid without a solid
+//	  model (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
 func PH(f *fluid.Fluid, p, h float64) (State, error) { return PHWith(f, p, h, Options{}) }
 

@@ -13,16 +13,23 @@ import (
 // DT returns the state of f at density rho in kg/m³ and temperature T in
 // K: the equation of state itself where (T, ρ) is a stable single phase,
 // and the liquid–vapour mixture of that overall density where ρ lies
-// between the saturated densities at T. At exactly the triple-point
-// temperature a mixture's solid fraction is not fixed: the state without
-// solid is returned, flagged Indeterminate.
+// between the saturated densities at T. For water and CO2, below the
+// triple-point temperature ρ is placed against the vapour and the solid
+// on the sublimation curve at T (solid–vapour between them, the solid at
+// the pressure where its density is ρ beyond), and for ice Ih against the
+// solid and the liquid on its melting curve; above it, dry ice denser
+// than the liquid on its melting curve at T is solid–liquid or solid. On
+// the triple line a mixture's fractions are not fixed: the state of
+// least solid is returned, flagged Indeterminate (liquid–vapour, or for
+// dry ice between the solid and the liquid densities solid–liquid).
 //
 // Special cases are:
 //
 //	rho or T NaN, ±Inf or ≤ 0: ErrInvalidInput
-//	below the triple-point temperature, between the vapour on the
-//	  sublimation curve and the liquid on the melting curve: the solid
-//	  region (ErrOutOfRange; ErrUndefined without solid data)
+//	a state with solid beyond the solid model (water above 208.566 MPa,
+//	  naming the other ices; CO2 above 800 MPa): ErrOutOfRange
+//	below the triple-point temperature of a fluid without a solid model
+//	  (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
 func DT(f *fluid.Fluid, rho, T float64) (State, error) { return DTWith(f, rho, T, Options{}) }
 
@@ -179,14 +186,23 @@ func (k *call) satT(T float64) (fluid.Saturation, error) {
 // (see State) over saturation states at each T, bracketed. Isochores
 // that cross the dome twice (water's liquid near 4 °C, whose saturated
 // density has a maximum) are handled, since the function of T is the
-// same. On the triple line (T = Tt) with u below the liquid–vapour
-// mixture there, the state has solid: an error.
+// same. At the triple point u(T) rises at fixed T: where (ρ, u) lies among
+// the three-phase mixtures DU returns Phase Triple with the fractions
+// they fix (T and p those of the triple point), below them it follows the
+// isochore through the solid–vapour, solid–liquid and solid states (with
+// their mixture cv), and for dense CO2 above the triple point along the
+// melting curve. A vessel cooled or vented through the triple point thus
+// passes through Triple states and continues as solid–vapour.
 //
 // Special cases are:
 //
 //	rho NaN, ±Inf or ≤ 0, u NaN or ±Inf: ErrInvalidInput
-//	u below the fluid states of the isochore: the solid region
-//	  (ErrOutOfRange; ErrUndefined without solid data)
+//	u below the states of the isochore at the lowest modelled
+//	  temperature: ErrOutOfRange
+//	a state with solid beyond the solid model (water above 208.566 MPa,
+//	  naming the other ices; CO2 above 800 MPa): ErrOutOfRange
+//	u below the fluid at the triple point of a fluid without a solid
+//	  model (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
 func DU(f *fluid.Fluid, rho, u float64) (State, error) { return DUWith(f, rho, u, Options{}) }
 
@@ -427,15 +443,25 @@ func (k *call) belowTriple(pr *fluid.Props) (State, error) {
 // PD returns the state of f at pressure p in Pa and density rho in kg/m³.
 // Below pc, a density between the saturated densities at p gives the
 // liquid–vapour mixture at the saturation temperature; otherwise the
-// single phase, by Newton's method in T along the isochore. Where p falls
-// along the isochore (water's liquid below about 4 °C) the solution may
-// not be unique: PD returns the one it reaches.
+// single phase, by Newton's method in T along the isochore. For water and
+// CO2 below the triple-point pressure ρ is placed against the vapour and
+// the solid on the sublimation curve at p, above it (CO2) against the
+// liquid and the solid on the melting curve. Where p falls along the
+// isochore (water's liquid below about 4 °C) the solution may not be
+// unique: PD returns the one it reaches; for water above the triple-point
+// pressure, whose ice is lighter than its liquid, (p, ρ) can also have an
+// ice or ice–liquid solution, and PD returns the fluid state where there
+// is one. On the triple line, within the three-phase densities, the state
+// of least solid, flagged Indeterminate.
 //
 // Special cases are:
 //
 //	p or rho NaN, ±Inf or ≤ 0: ErrInvalidInput
-//	a state in a solid region: ErrOutOfRange (ErrUndefined without
-//	  solid data)
+//	no state with these p and ρ (denser than the solid at its lowest
+//	  modelled temperature): ErrOutOfRange
+//	a state with solid beyond the solid model: ErrOutOfRange
+//	a state in the solid region of a fluid without a solid model
+//	  (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
 func PD(f *fluid.Fluid, p, rho float64) (State, error) { return PDWith(f, p, rho, Options{}) }
 
