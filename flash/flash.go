@@ -525,6 +525,13 @@ func sideOf(liquid bool) side {
 // by the solid paths, above it the fluid first.
 func (k *call) isobaricAll(p float64, X quantity, x float64) (State, error) {
 	if k.sol.ok && (k.belowTripleP(p) || k.onTripleP(p)) {
+		if k.fluidGuess() && k.belowTripleP(p) {
+			// A vapour from a warm start, placed against the solid by
+			// finish, before the sublimation curve is solved for.
+			if st, ok := k.isobaricWarm(p, X, x); ok {
+				return st, nil
+			}
+		}
 		return k.isobarSolid(p, X, x)
 	}
 	st, err := k.isobaric(p, X, x)

@@ -85,31 +85,30 @@ func nodesFor(f *fluid.Fluid) *curveNodes {
 
 func buildNodes(name string) *curveNodes {
 	n := &curveNodes{}
+	n.err = n.build(name)
+	return n
+}
+
+func (n *curveNodes) build(name string) error {
 	f, err := fluid.Lookup(name)
 	if err != nil {
-		n.err = err
-		return n
+		return err
 	}
 	s, err := sublimation.For(f)
 	if err != nil {
-		n.err = err
-		return n
+		return err
 	}
-	tp, err := s.Triple()
-	if err != nil {
-		n.err = err
-		return n
+	if n.tp, err = s.Triple(); err != nil {
+		return err
 	}
-	n.tt, n.pt, n.tp = tp.T, tp.P, tp
+	n.tt, n.pt = n.tp.T, n.tp.P
 	sub, err := s.SublimationCurve(nNodes)
 	if err != nil {
-		n.err = err
-		return n
+		return err
 	}
 	melt, err := s.MeltingCurve(nNodes)
 	if err != nil {
-		n.err = err
-		return n
+		return err
 	}
 	for _, c := range sub {
 		n.subT = append(n.subT, c.T)
@@ -122,15 +121,15 @@ func buildNodes(name string) *curveNodes {
 	n.meltRising = n.meltT[len(n.meltT)-1] > n.meltT[0]
 	for i := 1; i < len(n.subT); i++ {
 		if !(n.subP[i] > n.subP[i-1] && n.subT[i] > n.subT[i-1]) {
-			n.err = errors.New("sublimation curve not monotone")
+			return errors.New("flash: sublimation curve of " + name + " not monotone")
 		}
 	}
 	for i := 1; i < len(n.meltT); i++ {
 		if !(n.meltP[i] > n.meltP[i-1]) || (n.meltT[i] > n.meltT[i-1]) != n.meltRising {
-			n.err = errors.New("melting curve not monotone")
+			return errors.New("flash: melting curve of " + name + " not monotone")
 		}
 	}
-	return n
+	return nil
 }
 
 // bracket returns i with xs[i] ≤ x ≤ xs[i+1] for ascending xs, x within

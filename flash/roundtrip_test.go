@@ -165,8 +165,10 @@ func quantityOf(st *State, name string) float64 {
 }
 
 // roundTrip runs every flash on the quantities of st and checks the
-// backward residuals, the phase, and (where well conditioned) T.
-func roundTrip(t *testing.T, f *fluid.Fluid, origin string, st *State, opt Options) (n int) {
+// backward residuals, the phase, and (where well conditioned) T. If worst
+// is not nil it keeps there the largest residual of each quantity in
+// units of its floor.
+func roundTrip(t *testing.T, f *fluid.Fluid, origin string, st *State, opt Options, worst map[string]float64) (n int) {
 	t.Helper()
 	for _, fc := range flashCases {
 		a, b := quantityOf(st, fc.a), quantityOf(st, fc.b)
@@ -188,6 +190,9 @@ func roundTrip(t *testing.T, f *fluid.Fluid, origin string, st *State, opt Optio
 			if math.Abs(g-c.want) > floor {
 				t.Errorf("%s %s: %s = %.17g, off by %.3g (floor %.3g); T = %v, phase %v",
 					f.Name(), what, c.name, g, g-c.want, floor, got.T, got.Phase)
+			}
+			if worst != nil {
+				worst[c.name] = max(worst[c.name], math.Abs(g-c.want)/floor)
 			}
 		}
 		samePhase := got.Phase == st.Phase ||
@@ -277,6 +282,7 @@ func TestRoundTripPT(t *testing.T) {
 		n = 30
 	}
 	for _, f := range fluids(t) {
+		worst := map[string]float64{}
 		states, flashes := 0, 0
 		for _, T := range gridTemperatures(f, n) {
 			for _, p := range gridPressures(f, n) {
@@ -289,13 +295,13 @@ func TestRoundTripPT(t *testing.T) {
 				if g, floor := backward(f, &st, "p", p); math.Abs(g-p) > floor {
 					t.Errorf("%s PT(%v, %v): p = %v", f.Name(), p, T, g)
 				}
-				flashes += roundTrip(t, f, "PT", &st, Options{})
+				flashes += roundTrip(t, f, "PT", &st, Options{}, worst)
 			}
 		}
 		if states < n*n/3 {
 			t.Errorf("%s: only %d PT states", f.Name(), states)
 		}
-		t.Logf("%s: %d PT states, %d flashes", f.Name(), states, flashes)
+		t.Logf("%s: %d PT states, %d flashes; worst residual / floor: %v", f.Name(), states, flashes, worst)
 	}
 }
 
@@ -328,7 +334,7 @@ func TestRoundTripTQ(t *testing.T) {
 				if T == tp.T {
 					continue // on the triple line: Indeterminate
 				}
-				roundTrip(t, f, "TQ", &st, Options{})
+				roundTrip(t, f, "TQ", &st, Options{}, nil)
 				sp, err := PQ(f, st.P, q)
 				if err != nil || math.Abs(sp.T-T) > 1e-9*T || math.Abs(sp.Quality-q) > 1e-12 {
 					t.Errorf("%s PQ(%v, %v) = T %v, q %v, %v", f.Name(), st.P, q, sp.T, sp.Quality, err)

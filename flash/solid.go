@@ -226,11 +226,47 @@ func (k *call) meltAtT(T float64) (sublimation.Coexistence, error) {
 }
 
 func (k *call) meltAtP(p float64) (sublimation.Coexistence, error) {
-	c, err := k.sol.s.MeltingTemperature(max(p, k.sol.n.pt))
+	p = max(p, k.sol.n.pt)
+	c, err := k.sol.s.MeltingTemperature(p)
 	if err != nil {
 		return c, k.rewrap(err)
 	}
+	k.polish(&c, p)
 	return c, nil
+}
+
+// polish takes one more Newton step on the coexistence c at pressure p,
+// in (T, ln ρ) on p_fluid = p and g_fluid = g_solid, where the fluid's
+// pressure misses p by more than 1e-11·p: the curve solvers stop on the
+// size of their steps, and a liquid's stiffness turns a step of 1e-12 in
+// ln ρ into 1e-9 in p near the triple point of dry ice.
+func (k *call) polish(c *sublimation.Coexistence, p float64) {
+	fp := &c.Fluid
+	if math.Abs(fp.P-p) <= 1e-11*p {
+		return
+	}
+	T, rho := c.T, fp.Rho
+	rt := k.f.GasConstant() * T
+	g := k.sol.s.Derivs(T, p)
+	F1, F2 := (fp.P-p)/p, (fp.G-g.G)/rt
+	a11, a12 := fp.DpDT/p, rho*fp.DpDrho/p
+	a21, a22 := (-fp.S+fp.DpDT/rho-g.GT)/rt, fp.DpDrho/rt
+	det := a11*a22 - a12*a21
+	dT, dy := -(F1*a22-a12*F2)/det, -(a11*F2-a21*F1)/det
+	if !isFinite(dT) || !isFinite(dy) || math.Abs(dT) > 1e-6*T || math.Abs(dy) > 1e-6 {
+		return
+	}
+	nf, err := k.f.Props(T+dT, rho*math.Exp(dy))
+	if err != nil {
+		return
+	}
+	ns, err := k.sol.s.Props(T+dT, nf.P)
+	if err != nil {
+		return
+	}
+	nf.Flags |= Saturated
+	ns.Flags |= Saturated
+	*c = sublimation.Coexistence{T: T + dT, P: nf.P, Solid: ns, Fluid: nf}
 }
 
 // solidFloorT is the lowest temperature of a solid state: the model's
