@@ -217,9 +217,10 @@ func DUWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 	if k.sol.ok && !k.metaFluid() && rho <= f.Limits().RhoCeil {
 		tp, _ := k.triple()
 		_, hi, three := tripleURange(tp, 1/rho)
-		if !three && rho < tp.Vapor.Rho {
-			// A vapour isochore: below its state at the triple-point
-			// temperature it meets the sublimation curve.
+		if !three && (rho < tp.Vapor.Rho || k.sol.anomalous() && rho > tp.Liquid.Rho) {
+			// A vapour isochore, or one of liquid water denser than at
+			// the triple point: below its state at the triple-point
+			// temperature it meets the sublimation or the melting curve.
 			if pr, err := f.Props(tp.T, rho); err == nil {
 				three, hi = true, pr.U
 			}

@@ -565,8 +565,10 @@ func solve3(J [3][3]float64, F [3]float64) ([3]float64, bool) {
 // Clausius–Clapeyron line through the stored triple point.
 
 func (s Solid) guessSubP(T float64) float64 {
-	if p, err := s.f.AuxSublimationPressure(T); err == nil {
-		return p
+	if lo, hi := s.f.AuxSublimationRange(); T >= lo && T <= hi {
+		if p, err := s.f.AuxSublimationPressure(T); err == nil {
+			return p
+		}
 	}
 	t := s.f.Triple()
 	// ln p = ln pt − (Δh/R)(1/T − 1/Tt), with Δh/(R Tt) ≈ 25 for both
@@ -577,19 +579,21 @@ func (s Solid) guessSubP(T float64) float64 {
 func (s Solid) guessSubT(p float64) float64 {
 	t := s.f.Triple()
 	T := 1 / (1/t.T - math.Log(p/t.P)/(25*t.T))
-	// refine on the published curve by secant steps in (1/T, ln p).
+	// refine on the published curve by secant steps in (1/T, ln p),
+	// within its range (outside it the calls would build errors).
+	lo, hi := s.f.AuxSublimationRange()
 	for i := 0; i < 8; i++ {
-		p1, err := s.f.AuxSublimationPressure(T)
-		if err != nil {
+		T2 := T * 1.001
+		if T2 > hi {
+			T2 = T / 1.001
+		}
+		if T < lo || T > hi || T2 < lo {
 			break
 		}
-		T2 := T * 1.001
-		p2, err := s.f.AuxSublimationPressure(T2)
-		if err != nil {
-			T2 = T / 1.001
-			if p2, err = s.f.AuxSublimationPressure(T2); err != nil {
-				break
-			}
+		p1, err1 := s.f.AuxSublimationPressure(T)
+		p2, err2 := s.f.AuxSublimationPressure(T2)
+		if err1 != nil || err2 != nil {
+			break
 		}
 		slope := (math.Log(p2) - math.Log(p1)) / (1/T2 - 1/T)
 		x := 1/T + (math.Log(p)-math.Log(p1))/slope
@@ -603,8 +607,12 @@ func (s Solid) guessSubT(p float64) float64 {
 }
 
 func (s Solid) guessMeltP(T float64) float64 {
-	if p, err := s.f.AuxMeltingPressure(T); err == nil {
-		return p
+	// Within the published curve's range only: outside it the call
+	// would build an error.
+	if lo, hi := s.f.AuxMeltingRange(); T >= lo && T <= hi {
+		if p, err := s.f.AuxMeltingPressure(T); err == nil {
+			return p
+		}
 	}
 	return s.f.Triple().P
 }
