@@ -876,3 +876,60 @@ func TestSolidReferenceState(t *testing.T) {
 		}
 	}
 }
+
+// TestSolidNodes checks what the placement of states relies on: the node
+// tables build; between nodes the bounds contain the model's own curves
+// (at points off the nodes); the saturated vapour on the sublimation
+// curve has a compression factor below 1 (clearVapour: ρ < p/(RT) there
+// is vapour); and the liquid on dry ice's melting curve grows denser with
+// T (denseCO2, duSolid: an isochore less dense than the triple-point
+// liquid never meets the melting curve above the triple point).
+func TestSolidNodes(t *testing.T) {
+	for _, f := range solidFluids(t) {
+		n := nodesFor(f)
+		if n == nil || n.err != nil {
+			t.Fatalf("%s: node table: %v", f.Name(), n)
+		}
+		s := mustSolid(t, f)
+		for i := 0; i < 50; i++ {
+			x := (float64(i) + 0.37) / 50
+			T := n.subTMin() + x*(n.tt-n.subTMin())
+			c, err := s.SublimationPressure(T)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if lo, hi := n.subPBounds(T); !(c.P >= lo && c.P <= hi) {
+				t.Errorf("%s: sublimation pressure %v at %v K outside [%v, %v]", f.Name(), c.P, T, lo, hi)
+			}
+			if lo, hi := n.subTBounds(c.P); !(T >= lo && T <= hi) {
+				t.Errorf("%s: sublimation temperature %v at %v Pa outside [%v, %v]", f.Name(), T, c.P, lo, hi)
+			}
+			if c.Fluid.Z >= 1 {
+				t.Errorf("%s: saturated vapour at %v K has Z = %v", f.Name(), T, c.Fluid.Z)
+			}
+			p := n.pt + x*(n.solidPMax()-n.pt)
+			m, err := s.MeltingTemperature(p)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if lo, hi := n.meltTBounds(p); !(m.T >= lo && m.T <= hi) {
+				t.Errorf("%s: melting temperature %v at %v Pa outside [%v, %v]", f.Name(), m.T, p, lo, hi)
+			}
+			if lo, hi := n.meltPBounds(m.T); !(m.P >= lo && m.P <= hi) {
+				t.Errorf("%s: melting pressure %v at %v K outside [%v, %v]", f.Name(), m.P, m.T, lo, hi)
+			}
+		}
+		if f.Name() != "CO2" {
+			continue
+		}
+		mc, err := s.MeltingCurve(200)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i := 1; i < len(mc); i++ {
+			if !(mc[i].Fluid.Rho > mc[i-1].Fluid.Rho) || !(mc[i].Fluid.Rho > f.Triple().RhoLiquid) {
+				t.Errorf("CO2 melting curve: liquid density %v at %v K after %v", mc[i].Fluid.Rho, mc[i].T, mc[i-1].Fluid.Rho)
+			}
+		}
+	}
+}
