@@ -31,10 +31,7 @@ func TS(f *fluid.Fluid, T, s float64) (State, error) { return TSWith(f, T, s, Op
 func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.TS", fluid.Input{Name: "T", Value: T, Unit: "K"},
-		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
+		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
 	c := f.Critical()
@@ -118,7 +115,7 @@ func HS(f *fluid.Fluid, h, s float64) (State, error) { return HSWith(f, h, s, Op
 func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.HS", fluid.Input{Name: "h", Value: h, Unit: "J/kg"},
-		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt); err != nil {
+		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 0); err != nil {
 		return State{}, err
 	}
 	c := f.Critical()

@@ -18,8 +18,10 @@ type call struct {
 	c   curves
 }
 
-// init sets up k for a flash; it validates what every flash shares.
-func (k *call) init(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options) error {
+// init sets up k for a flash; it validates what every flash shares:
+// a fluid, finite inputs, those in the bit mask positive (1: a, 2: b)
+// positive, and the options.
+func (k *call) init(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options, positive int) error {
 	*k = call{f: f, op: op, in: [2]fluid.Input{a, b}}
 	if opt != nil {
 		k.opt = *opt
@@ -29,6 +31,11 @@ func (k *call) init(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options) e
 	}
 	if !isFinite(a.Value) || !isFinite(b.Value) {
 		return k.fail(fluid.ErrInvalidInput, "inputs must be finite")
+	}
+	for i := range 2 {
+		if positive&(1<<i) != 0 && !(k.in[i].Value > 0) {
+			return k.fail(fluid.ErrInvalidInput, k.in[i].Name+" must be positive")
+		}
 	}
 	switch k.opt.Phase {
 	case Unknown, Liquid, Vapor, Supercritical, TwoPhase:
@@ -51,13 +58,6 @@ func (k *call) rewrap(err error) error {
 		return k.fail(fe.Err, fe.Range)
 	}
 	return k.fail(fluid.ErrNoConvergence, err.Error())
-}
-
-func (k *call) positive(i int) error {
-	if !(k.in[i].Value > 0) {
-		return k.fail(fluid.ErrInvalidInput, k.in[i].Name+" must be positive")
-	}
-	return nil
 }
 
 func (k *call) quality(q float64) error {
@@ -212,13 +212,7 @@ func PT(f *fluid.Fluid, p, T float64) (State, error) { return PTWith(f, p, T, Op
 func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PT", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(1); err != nil {
+		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt, 3); err != nil {
 		return State{}, err
 	}
 	if k.opt.Phase == TwoPhase {
@@ -278,10 +272,7 @@ func TQ(f *fluid.Fluid, T, q float64) (State, error) { return TQWith(f, T, q, Op
 func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.TQ", fluid.Input{Name: "T", Value: T, Unit: "K"},
-		fluid.Input{Name: "q", Value: q}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
+		fluid.Input{Name: "q", Value: q}, &opt, 1); err != nil {
 		return State{}, err
 	}
 	if err := k.quality(q); err != nil {
@@ -313,10 +304,7 @@ func PQ(f *fluid.Fluid, p, q float64) (State, error) { return PQWith(f, p, q, Op
 func PQWith(f *fluid.Fluid, p, q float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PQ", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "q", Value: q}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
+		fluid.Input{Name: "q", Value: q}, &opt, 1); err != nil {
 		return State{}, err
 	}
 	if err := k.quality(q); err != nil {
@@ -417,10 +405,7 @@ func PH(f *fluid.Fluid, p, h float64) (State, error) { return PHWith(f, p, h, Op
 func PHWith(f *fluid.Fluid, p, h float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PH", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
+		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt, 1); err != nil {
 		return State{}, err
 	}
 	return k.isobaric(p, qH, h)
@@ -434,10 +419,7 @@ func PS(f *fluid.Fluid, p, s float64) (State, error) { return PSWith(f, p, s, Op
 func PSWith(f *fluid.Fluid, p, s float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PS", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
+		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
 	return k.isobaric(p, qS, s)
@@ -485,7 +467,14 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 	if st, ok := k.isobaricWarm(p, X, x); ok {
 		return st, nil
 	}
-	Tf, floor := k.c.freezeT(p)
+	// The lowest fluid temperature at p (inverting a solid curve costs a
+	// few dozen evaluations of it): needed here only below the triple
+	// point, elsewhere in the fallbacks; results are classified against
+	// the curves in finish.
+	Tf, floor := lim.TFloor, false
+	if p < k.c.pt {
+		Tf, floor = k.c.freezeT(p)
+	}
 	if p >= c.P || p < k.c.pt {
 		// One fluid phase along the isobar.
 		sd := anySide
@@ -493,8 +482,20 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 		T0 := c.T
 		if p < k.c.pt {
 			root, T0, sd = fluid.RootVapor, Tf, vaporSide
+		} else if pcr, ok := props(f, c.T, c.Rho); ok || pcr.H != 0 {
+			// Above pc: start from the liquid at the triple-point
+			// temperature or a gas well above Tc, whichever side of the
+			// critical point's X the input lies on (near Tc the cp of
+			// the isobar misleads).
+			T0 = min(1.5*c.T, 0.5*(c.T+lim.TCeil))
+			if x < X.of(&pcr) {
+				T0 = max(k.c.tt, lim.TFloor)
+			}
 		}
 		pr0, err := f.PropsTP(T0, p, root, 0)
+		if err != nil && T0 != c.T {
+			pr0, err = f.PropsTP(c.T, p, root, 0)
+		}
 		if err != nil {
 			return State{}, k.rewrap(err)
 		}
@@ -506,21 +507,22 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 	// pt <= p < pc: place x against the saturated phases.
 	var s fluid.Saturation
 	Ts, err := f.AuxSaturationTemperature(p)
-	var pl, pv fluid.Props
 	if err == nil {
 		rl, _ := f.AuxLiquidDensity(Ts)
 		rv, _ := f.AuxVaporDensity(Ts)
-		var okl, okv bool
-		pl, okl = props(f, Ts, rl)
-		pv, okv = props(f, Ts, rv)
-		if okl && okv && want != TwoPhase {
-			// The auxiliary equation's 5 % band in p, as a band in T.
-			dTm := 0.05 * f.GasConstant() * Ts * Ts / math.Max(pv.H-pl.H, 1e-300)
-			switch {
-			case x < X.of(&pl)-dXdT(X, &pl)*dTm && Ts-dTm > Tf:
-				return k.isobarSingle(p, X, x, &pl, liquidSide, Tf, Ts, false)
-			case x > X.of(&pv)+dXdT(X, &pv)*dTm:
+		if want != TwoPhase {
+			// The auxiliary equation's 5 % band in p, as a band in T by
+			// its slope, places x against the saturated phases at the
+			// auxiliary state; the vapour first, then the liquid.
+			dTm := math.Inf(1)
+			if p2, err := f.AuxVaporPressure(Ts * (1 - 1e-5)); err == nil && p2 < p {
+				dTm = 0.05 * p * Ts * 1e-5 / (p - p2)
+			}
+			if pv, ok := props(f, Ts, rv); ok && x > X.of(&pv)+dXdT(X, &pv)*dTm {
 				return k.isobarSingle(p, X, x, &pv, vaporSide, Ts, lim.TCeil, false)
+			}
+			if pl, ok := props(f, Ts, rl); ok && x < X.of(&pl)-dXdT(X, &pl)*dTm {
+				return k.isobarSingle(p, X, x, &pl, liquidSide, Tf, Ts, false)
 			}
 		}
 		s, err = f.SaturationAtPFrom(p, Ts, rl, rv)
@@ -551,7 +553,7 @@ func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation
 	lim := f.Limits()
 	want := k.opt.Phase
 	xl, xv := X.of(&s.Liquid), X.of(&s.Vapor)
-	Tf, _ := k.c.freezeT(p)
+	Tf := lim.TFloor
 	switch {
 	case x < xl:
 		return k.isobarSingle(p, X, x, &s.Liquid, liquidSide, Tf, s.T, false)
@@ -639,12 +641,12 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		switch {
 		case sd == anySide:
 			root = fluid.RootStable
-			Ta = tlo
+			Ta = max(tlo, k.c.tt)
 			if x > X.of(start) {
 				Ta = min(thi, 2*start.T)
 			}
 		case sd == liquidSide:
-			root, Ta = fluid.RootLiquid, tlo
+			root, Ta = fluid.RootLiquid, max(tlo, k.c.tt)
 		}
 		if pa, err := f.PropsTP(Ta, p, root, 0); err == nil {
 			T0, rho0 := extrapolate(X, x, &pa, sd, tlo, thi)
@@ -659,6 +661,9 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 						tlo = s.T
 					}
 				}
+			}
+			if Tf, _ := k.c.freezeT(p); Tf > tlo {
+				tlo = Tf
 			}
 			var below, above bool
 			pr, ok, below, above = isobar(f, p, X, x, tlo, thi, root)
@@ -688,10 +693,6 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		}
 		return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
 	}
-	Tf, floor := k.c.freezeT(p)
-	if pr.T < Tf*(1-1e-11) && !meta {
-		return State{}, k.c.lowError(k.op, floor, k.in[0], k.in[1])
-	}
 	st, err := k.finish(&pr)
 	if err != nil {
 		return State{}, err
@@ -714,9 +715,14 @@ func extrapolate(X quantity, x float64, start *fluid.Props, sd side, tlo, thi fl
 	d := dXdT(X, start)
 	T0 = start.T
 	if d > 0 && isFinite(d) {
-		T0 = min(max(start.T+(x-X.of(start))/d, tlo), thi)
+		// At most a quarter of T away: cp and the expansivity of the
+		// start (huge near the critical point) say little further out.
+		dT := (x - X.of(start)) / d
+		dT = max(min(dT, 0.25*start.T), -0.25*start.T)
+		T0 = min(max(start.T+dT, tlo), thi)
 	}
-	rho0 = start.Rho * math.Exp(-start.Expansivity*(T0-start.T))
+	e := max(min(-start.Expansivity*(T0-start.T), math.Ln2), -math.Ln2)
+	rho0 = start.Rho * math.Exp(e)
 	if !isFinite(rho0) || rho0 <= 0 {
 		rho0 = start.Rho
 	}

@@ -29,12 +29,13 @@ func curvesOf(f *fluid.Fluid) curves {
 	c.meltLo, c.meltHi = f.AuxMeltingRange()
 	c.hasSub, c.hasMelt = c.subHi > 0, c.meltHi > 0
 	if c.hasMelt {
-		lo, _ := f.AuxMeltingPressure(c.meltLo)
-		hi, _ := f.AuxMeltingPressure(c.meltHi)
-		c.anomalous = lo > hi
-		c.pMeltEnd = hi
-		if c.anomalous {
-			c.pMeltEnd = lo
+		// The end of the curve away from the triple point tells its
+		// slope (it starts at about pt).
+		if c.meltHi > c.tt {
+			c.pMeltEnd, _ = f.AuxMeltingPressure(c.meltHi)
+		} else {
+			c.anomalous = true
+			c.pMeltEnd, _ = f.AuxMeltingPressure(c.meltLo)
 		}
 	}
 	return c

@@ -31,13 +31,7 @@ func DT(f *fluid.Fluid, rho, T float64) (State, error) { return DTWith(f, rho, T
 func DTWith(f *fluid.Fluid, rho, T float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.DT", fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"},
-		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(1); err != nil {
+		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt, 3); err != nil {
 		return State{}, err
 	}
 	c := f.Critical()
@@ -166,10 +160,7 @@ func DU(f *fluid.Fluid, rho, u float64) (State, error) { return DUWith(f, rho, u
 func DUWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.DU", fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"},
-		fluid.Input{Name: "u", Value: u, Unit: "J/kg"}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
+		fluid.Input{Name: "u", Value: u, Unit: "J/kg"}, &opt, 1); err != nil {
 		return State{}, err
 	}
 	return k.isochoric(rho, qU, u)
@@ -402,13 +393,7 @@ func PD(f *fluid.Fluid, p, rho float64) (State, error) { return PDWith(f, p, rho
 func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PD", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(1); err != nil {
+		fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"}, &opt, 3); err != nil {
 		return State{}, err
 	}
 	c := f.Critical()
