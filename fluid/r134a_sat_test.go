@@ -184,7 +184,7 @@ func TestR134aClausiusClapeyron(t *testing.T) {
 			t.Errorf("T=%g: g' - g'' = %g J/kg, p' - p'' = %g Pa", T, s.Liquid.G-s.Vapor.G, s.Liquid.P-s.Vapor.P)
 		}
 		cc := (s.Vapor.S - s.Liquid.S) / (1/s.Vapor.Rho - 1/s.Liquid.Rho)
-		slope := fd.Derivative(ps, T, &fd.Settings{Formula: r134aCentral4, Step: 1e-3})
+		slope := fd.Derivative(ps, T, &fd.Settings{Formula: central4, Step: 1e-3})
 		if !scalar.EqualWithinRel(slope, cc, 1e-8) {
 			t.Errorf("T=%g: dp/dT = %.10g Pa/K, Clausius-Clapeyron %.10g Pa/K", T, slope, cc)
 		}

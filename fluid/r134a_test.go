@@ -6,7 +6,6 @@ import (
 	"slices"
 	"testing"
 
-	"gonum.org/v1/gonum/diff/fd"
 	"gonum.org/v1/gonum/floats"
 	"gonum.org/v1/gonum/floats/scalar"
 )
@@ -175,14 +174,6 @@ func TestR134aCriticalPoint(t *testing.T) {
 	}
 }
 
-// r134aCentral4 is the fourth-order central difference of a first
-// derivative.
-var r134aCentral4 = fd.Formula{
-	Stencil:    []fd.Point{{Loc: -2, Coeff: 1.0 / 12}, {Loc: -1, Coeff: -8.0 / 12}, {Loc: 1, Coeff: 8.0 / 12}, {Loc: 2, Coeff: -1.0 / 12}},
-	Derivative: 1,
-	Step:       1e-4,
-}
-
 // r134aGrid returns (T, ρ) states across the published range: liquid,
 // vapour, supercritical and near-critical, some of them metastable or
 // unstable, with p ≤ 70 MPa.
@@ -198,76 +189,6 @@ func r134aGrid(f *Fluid) [][2]float64 {
 		}
 	}
 	return g
-}
-
-// TestR134aDerivatives checks the analytic properties against central
-// differences of p, u, s, h and f in T and ρ, and the Maxwell relations.
-func TestR134aDerivatives(t *testing.T) {
-	t.Parallel()
-	f := r134a(t)
-	grid := r134aGrid(f)
-	if len(grid) < 200 {
-		t.Fatalf("only %d grid states", len(grid))
-	}
-	for _, s := range grid {
-		T, rho := s[0], s[1]
-		// The identities hold for every (T, ρ), stable or not: the values
-		// are taken without Props's checks (TestR134aNoNaN tests those).
-		p := f.props(T, rho)
-		ht, hr := 1e-4*T, 1e-4*rho
-		dT := func(q func(Props) float64) float64 {
-			return fd.Derivative(func(x float64) float64 { return q(f.props(x, rho)) }, T,
-				&fd.Settings{Formula: r134aCentral4, Step: ht})
-		}
-		dR := func(q func(Props) float64) float64 {
-			return fd.Derivative(func(x float64) float64 { return q(f.props(T, x)) }, rho,
-				&fd.Settings{Formula: r134aCentral4, Step: hr})
-		}
-		pOf := func(q Props) float64 { return q.P }
-		uOf := func(q Props) float64 { return q.U }
-		sOf := func(q Props) float64 { return q.S }
-		hOf := func(q Props) float64 { return q.H }
-		fOf := func(q Props) float64 { return q.F }
-		dsdr, dsdt := dR(sOf), dT(sOf)
-		dhdr, dhdt := dR(hOf), dT(hOf)
-		rt := f.r * T
-		type check struct {
-			what       string
-			got, want  float64
-			scale, tol float64
-		}
-		checks := []check{
-			{"(dp/dT)_rho", p.DpDT, dT(pOf), rho * f.r, 1e-8},
-			{"(dp/drho)_T", p.DpDrho, dR(pOf), rt, 1e-8},
-			{"cv = (du/dT)_rho", p.Cv, dT(uOf), f.r, 1e-8},
-			{"cv/T = (ds/dT)_rho", p.Cv / T, dsdt, f.r / T, 1e-8},
-			{"Maxwell (ds/drho)_T = -(dp/dT)_rho/rho^2", -p.DpDT / (rho * rho), dsdr, f.r / rho, 1e-8},
-			{"(du/drho)_T = (p - T(dp/dT))/rho^2", (p.P - T*p.DpDT) / (rho * rho), dR(uOf), rt / rho, 1e-8},
-			{"(df/drho)_T = p/rho^2", p.P / (rho * rho), dR(fOf), rt / rho, 1e-8},
-			{"(df/dT)_rho = -s", -p.S, dT(fOf), f.r, 1e-8},
-			{"g = h - Ts", p.G, p.H - T*p.S, math.Abs(p.H) + rt, 1e-14},
-			{"Z = p/(rho R T)", p.Z, p.P / (rho * rt), 1, 1e-14},
-		}
-		// cp, w and the Joule–Thomson coefficient divide by (∂p/∂ρ)_T:
-		// compared where the state is stable and not within 1 % of a
-		// spinodal.
-		if p.DpDrho > 1e-2*rt && p.Cv > 0 {
-			cp := dhdt - dhdr*p.DpDT/p.DpDrho
-			w2 := p.DpDrho - p.DpDT*dsdr/dsdt
-			jt := -(dhdr / p.DpDrho) / cp
-			checks = append(checks,
-				check{"cp = (dh/dT)_p", p.Cp, cp, p.Cp, 1e-7},
-				check{"w^2 = (dp/drho)_s", p.W * p.W, w2, p.W * p.W, 1e-7},
-				check{"mu_JT = -(dh/dp)_T/cp", p.JouleThomson, jt, math.Abs(jt) + 1/(rho*p.Cp), 1e-7},
-				check{"kappa_T", p.KappaT * rho * p.DpDrho, 1, 1, 1e-14},
-			)
-		}
-		for _, c := range checks {
-			if math.IsNaN(c.got) || math.Abs(c.got-c.want) > c.tol*(math.Abs(c.scale)+math.Abs(c.want)) {
-				t.Errorf("T=%g rho=%g: %s: analytic %.12g, check %.12g", T, rho, c.what, c.got, c.want)
-			}
-		}
-	}
 }
 
 // TestR134aVirial checks B and C against the low-density behaviour of the
