@@ -13,8 +13,14 @@ import (
 // maxRows bounds the length of a list flag and of a table.
 const maxRows = 1000000
 
-// listText is the syntax of list flags, for help texts.
+// listText is the syntax of list flags, for messages.
 const listText = "comma-separated values or FROM:TO:STEP ranges (TO included when a step lands on it), e.g. -40:30:10 or 0,4,20"
+
+// listHelp explains LIST in help texts.
+const listHelp = `A LIST is comma-separated values or FROM:TO:STEP ranges, STEP > 0, from
+FROM towards TO and including TO when a step lands on it: -40:30:10, or
+0,4,20, or 1:10:1,20,50. The unit is in the flag's name.
+`
 
 // listFlag is a flag.Value holding a list of numbers (see parseList).
 type listFlag struct {
@@ -100,6 +106,9 @@ func parseNumber(s string) (float64, error) {
 	return v, nil
 }
 
+// fmtMsg prints a computed value in a message, to 10 digits.
+func fmtMsg(x float64) string { return strconv.FormatFloat(x, 'g', 10, 64) }
+
 func round14(x float64) float64 {
 	y, _ := strconv.ParseFloat(strconv.FormatFloat(x, 'g', 14, 64), 64)
 	return y
@@ -125,7 +134,7 @@ func newFamily(fs *flag.FlagSet, q quantity, prefix, what, usage string) *family
 	fam := &family{q: q, what: what}
 	for _, u := range q.info().units {
 		l := &unitList{name: prefix + "-" + u.name, u: u}
-		fs.Var(l, l.name, usage+" in "+u.text)
+		fs.Var(l, l.name, usage+" in "+u.text+", a `LIST`")
 		fam.flags = append(fam.flags, l)
 	}
 	return fam
@@ -144,6 +153,7 @@ func (fam *family) names() string {
 // their unit and the flag's name.
 type given struct {
 	si   []float64
+	text []string // the values as given, for messages
 	u    unit
 	flag string
 }
@@ -169,9 +179,10 @@ func (fam *family) get() (g given, ok bool, err error) {
 	for _, v := range set.vals {
 		si := set.u.toSI(v)
 		if si <= 0 {
-			return given{}, false, fmt.Errorf("-%s %v: %s must be above zero (%v %s)", set.name, v, fam.q.info().what, si, fam.q.info().units[0].text)
+			return given{}, false, fmt.Errorf("-%s %v: %s must be above zero (%s %s)", set.name, v, fam.q.info().what, fmtMsg(si), fam.q.info().units[0].text)
 		}
 		g.si = append(g.si, si)
+		g.text = append(g.text, strconv.FormatFloat(v, 'g', -1, 64))
 	}
 	return g, true, nil
 }

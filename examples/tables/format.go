@@ -32,11 +32,30 @@ func formatValue(x float64, digits int) string {
 	return strconv.FormatFloat(x, 'f', digits-1-exp, 64)
 }
 
-// formatInput prints an input value exactly as short as it is, after
-// rounding away the binary noise of unit conversion (14 significant
-// digits): 233.15, not 233.14999999999998.
-func formatInput(x float64) string {
-	return strconv.FormatFloat(round14(x), 'f', -1, 64)
+// inputText prints the i-th given value in the unit u: as given if u is
+// the unit it was given in, else converted and rounded to 1e-11 of its
+// SI value, which drops the binary noise of the conversion (0.01 °C is
+// 273.16 K, not 273.16000000000003 K) and keeps every digit a person
+// gives.
+func inputText(g given, i int, u unit) string {
+	if g.u == u {
+		return g.text[i]
+	}
+	return formatConverted(g.si[i], u)
+}
+
+func formatConverted(si float64, u unit) string {
+	v := u.fromSI(si)
+	step := 1e-11 * math.Abs(si) / u.scale
+	d := max(0, int(math.Ceil(-math.Log10(step))))
+	s := strconv.FormatFloat(v, 'f', d, 64)
+	if strings.ContainsRune(s, '.') {
+		s = strings.TrimRight(strings.TrimRight(s, "0"), ".")
+	}
+	if s == "-0" {
+		s = "0"
+	}
+	return s
 }
 
 // table is a printed table: a title and notes, columns and rows in

@@ -83,8 +83,9 @@
 //     publications' check tables evaluate it), or one of the flashes
 //     p+T, p+h, p+s, T+q, p+q, rho+u, h+s, T+s, p+rho (v counts as rho).
 //   - Values are written with the digits the table prints, in its
-//     notation (0.992418352e-1): the digits written set the tolerance. An
-//     empty cell is not compared.
+//     notation (0.992418352e-1): the digits written set the tolerance. A
+//     bare 0 is exact (a quantity that vanishes identically must come out
+//     exactly zero), except in °C. An empty cell is not compared.
 //
 // The published check tables in testdata/ are in this layout as they
 // stand: iapws95-table7.csv names its units in its columns (T_K,

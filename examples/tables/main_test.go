@@ -697,3 +697,64 @@ func TestProgress(t *testing.T) {
 		t.Errorf("short run printed %q", c.String())
 	}
 }
+
+// TestDevPairs reads states back through every input pair of the layout:
+// states of an isobar table (CO2 at 60 bar, liquid, saturated, vapour,
+// to 15 digits) rewritten with each pair as inputs must reproduce the
+// other columns, since the flashes are inverses of flash.PT. A pair
+// given in the other order, or a flash with its inputs swapped, would
+// miss by far more than the bound.
+func TestDevPairs(t *testing.T) {
+	t.Parallel()
+	out, errOut, code := runTables(t, "isobar", "-fluid", "CO2", "-p-bar", "60", "-t-C", "0,40", "-digits", "15",
+		"-props", "rho,v,h,s,u,q", "-format", "csv")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	ct := parseCSVOut(t, out)
+	if len(ct.rows) != 4 {
+		t.Fatalf("%d rows, want 0 C, the saturated liquid and vapour, 40 C", len(ct.rows))
+	}
+	for _, c := range []struct {
+		cols []string
+		rows []int // rows of the table to use
+	}{
+		{[]string{"T_C", "rho_kg_m3", "p_bar", "h_kJ_kg"}, []int{0, 3}},
+		{[]string{"rho_kg_m3", "T_C", "p_bar", "s_kJ_kgK"}, []int{0, 3}},
+		{[]string{"p_bar", "T_C", "rho_kg_m3", "h_kJ_kg"}, []int{0, 3}},
+		{[]string{"T_C", "p_bar", "rho_kg_m3", "u_kJ_kg"}, []int{0, 3}},
+		{[]string{"p_bar", "h_kJ_kg", "T_C", "rho_kg_m3"}, []int{0, 1, 2, 3}},
+		{[]string{"h_kJ_kg", "p_bar", "T_C", "s_kJ_kgK"}, []int{0, 3}},
+		{[]string{"p_bar", "s_kJ_kgK", "T_C", "h_kJ_kg"}, []int{0, 1, 2, 3}},
+		{[]string{"rho_kg_m3", "u_kJ_kg", "T_C", "p_bar"}, []int{0, 3}},
+		{[]string{"h_kJ_kg", "s_kJ_kgK", "T_C", "p_bar"}, []int{0, 3}},
+		{[]string{"T_C", "s_kJ_kgK", "p_bar", "h_kJ_kg"}, []int{0, 3}},
+		{[]string{"p_bar", "rho_kg_m3", "T_C", "h_kJ_kg"}, []int{0, 3}},
+		{[]string{"p_bar", "v_m3_kg", "T_C", "s_kJ_kgK"}, []int{0, 3}},
+		{[]string{"T_C", "q", "p_bar", "rho_kg_m3", "h_kJ_kg"}, []int{1, 2}},
+		{[]string{"p_bar", "q", "T_C", "rho_kg_m3", "s_kJ_kgK"}, []int{1, 2}},
+	} {
+		var b strings.Builder
+		b.WriteString(strings.Join(c.cols, ",") + ",source\n")
+		for _, i := range c.rows {
+			for _, col := range c.cols {
+				b.WriteString(ct.rows[i][col] + ",")
+			}
+			b.WriteString("isobar table of this test\n")
+		}
+		cf, err := readCheckFile(strings.NewReader(b.String()), c.cols[0]+"+"+c.cols[1])
+		if err != nil {
+			t.Fatal(err)
+		}
+		rp, err := deviations(cf, &fluidSource{def: "CO2", ref: "default"}, limits{digits: 1, rel: 1e-9}, newProgress(nil, "", 0, nil))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !rp.ok() || rp.all.n != len(c.rows)*(len(c.cols)-2) {
+			t.Errorf("%s: %s; %d values, max rel dev %.2g", cf.path, rp.summary(), rp.all.n, rp.all.maxRel)
+			for _, f := range rp.failed {
+				t.Errorf("  line %d: %v", f.row.line, f.err)
+			}
+		}
+	}
+}

@@ -58,8 +58,23 @@ func TestFormatValue(t *testing.T) {
 			t.Errorf("formatValue(%v, %d) = %q, want %q", c.x, c.digits, got, c.want)
 		}
 	}
-	if got := formatInput(-40 + 273.15); got != "233.15" {
-		t.Errorf("formatInput(233.14999999999998) = %q", got)
+	for _, c := range []struct {
+		si   float64
+		u    unit
+		want string
+	}{
+		{-40 + 273.15, uK, "233.15"},
+		{273.16, uC, "0.01"},
+		{uC.toSI(-56.558), uC, "-56.558"},
+		{uBar.toSI(1.01325), uPa, "101325"},
+		{101325, uBar, "1.01325"},
+		{101325, ukPa, "101.325"},
+		{273.15, uC, "0"},
+		{12.5e6, uMPa, "12.5"},
+	} {
+		if got := formatConverted(c.si, c.u); got != c.want {
+			t.Errorf("formatConverted(%v, %s) = %q, want %q", c.si, c.u.name, got, c.want)
+		}
 	}
 }
 
@@ -68,18 +83,39 @@ func TestParsePrinted(t *testing.T) {
 	for _, c := range []struct {
 		s           string
 		value, unit float64
+		exact       bool
 	}{
-		{"0.992418352e-1", 0.0992418352, 1e-10},
-		{"-0.364366650", -0.36436665, 1e-9},
-		{"0.150151914e4", 1501.51914, 1e-5},
-		{"300", 300, 1},
-		{"1.5E+03", 1500, 100},
-		{"0", 0, 0},
-		{"inf", math.Inf(1), 0},
+		{"0.992418352e-1", 0.0992418352, 1e-10, false},
+		{"-0.364366650", -0.36436665, 1e-9, false},
+		{"0.150151914e4", 1501.51914, 1e-5, false},
+		{"300", 300, 1, false},
+		{"1.5E+03", 1500, 100, false},
+		{"0", 0, 1, true},
+		{"0.00", 0, 0.01, false},
+		{"0e0", 0, 1, false},
+		{"inf", math.Inf(1), 0, false},
 	} {
 		p, err := parsePrinted(c.s)
-		if err != nil || p.value != c.value || math.Abs(p.unit-c.unit) > 1e-12*c.unit {
-			t.Errorf("parsePrinted(%q) = %v, %v, %v; want %v, %v", c.s, p.value, p.unit, err, c.value, c.unit)
+		if err != nil || p.value != c.value || math.Abs(p.unit-c.unit) > 1e-12*c.unit || p.exact != c.exact {
+			t.Errorf("parsePrinted(%q) = %v, %v, %v, %v; want %v, %v, %v", c.s, p.value, p.unit, p.exact, err, c.value, c.unit, c.exact)
+		}
+	}
+	// A printed 0 is exact, except in C; 0.00 is not.
+	for _, c := range []struct {
+		col  column
+		ref  string
+		got  float64 // SI
+		pass bool
+	}{
+		{column{qQ, phaseNone, uNone}, "0", 0, true},
+		{column{qQ, phaseNone, uNone}, "0", 1e-17, false},
+		{column{qQ, phaseNone, uNone}, "0.00", 0.004, true},
+		{column{qT, phaseNone, uC}, "0", 273.15 + 0.4, true},
+		{column{qT, phaseNone, uC}, "0", 273.15 + 1.2, false},
+	} {
+		p, _ := parsePrinted(c.ref)
+		if d := compare(c.col, p, c.got, checkLimits); d.pass != c.pass {
+			t.Errorf("%s %s against %v: pass %v, want %v", c.col.name(), c.ref, c.got, d.pass, c.pass)
 		}
 	}
 	for _, s := range []string{"", "x", "1e", "--1"} {

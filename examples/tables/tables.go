@@ -211,16 +211,20 @@ func cmdSat(args []string, stdout, stderr io.Writer) error {
 Prints the vapour-liquid saturation table of a fluid by temperature
 (-t-C or -t-K) or by pressure (-p-bar, -p-MPa, -p-kPa or -p-Pa), from the
 triple point to the critical point, with the properties of the saturated
-liquid (') and vapour (") in each row. Properties (-props): `+propNames(satProps)+`.
+liquid (') and vapour (") in each row.
 
+Properties (-props):
+`+propNames(satProps)+`
+
+`+listHelp+`
 Example:
   tables sat -fluid CO2 -t-C -50:30:10 -ref IIR
 `)
 	fs := cmd.fs
 	var o options
 	o.define(fs, "rho,h,dh,s")
-	tf := newFamily(fs, qT, "t", "temperatures", "saturation temperatures: "+listText+";")
-	pf := newFamily(fs, qP, "p", "pressures", "saturation pressures: "+listText+";")
+	tf := newFamily(fs, qT, "t", "temperatures", "saturation temperatures")
+	pf := newFamily(fs, qP, "p", "pressures", "saturation pressures")
 	if err := cmd.parse(args, stdout); err != nil {
 		return err
 	}
@@ -249,10 +253,10 @@ Example:
 		in, out = qP, qT
 		g, lo, hi = pg, tp.P, cr.P
 	}
-	for _, x := range g.si {
+	for i, x := range g.si {
 		if x < lo || x > hi {
 			return usagef("%s %s: outside the vapour-liquid saturation of %s, which runs from its triple point %s to its critical point %s %s",
-				g.flag, formatInput(g.u.fromSI(x)), f.Name(), formatValue(g.u.fromSI(lo), 6), formatValue(g.u.fromSI(hi), 6), g.u.text)
+				g.flag, g.text[i], f.Name(), fmtMsg(g.u.fromSI(lo)), fmtMsg(g.u.fromSI(hi)), g.u.text)
 		}
 	}
 	by := map[bool]string{false: "temperature", true: "pressure"}[byP]
@@ -278,7 +282,7 @@ Example:
 
 	prog := newProgress(progressOut(o.quiet, stderr), "tables sat", len(g.si), nil)
 	var sec section
-	for _, x := range g.si {
+	for i, x := range g.si {
 		var s fluid.Saturation
 		var err error
 		if byP {
@@ -287,9 +291,9 @@ Example:
 			s, err = f.SaturationAtT(x)
 		}
 		if err != nil {
-			return fmt.Errorf("%s %s: %v", g.flag, formatInput(g.u.fromSI(x)), err)
+			return fmt.Errorf("%s %s: %v", g.flag, g.text[i], err)
 		}
-		row := []string{formatInput(inCol.u.fromSI(x)), formatValue(outCol.u.fromSI(satValue(s, outCol)), t.digits)}
+		row := []string{inputText(g, i, inCol.u), formatValue(outCol.u.fromSI(satValue(s, outCol)), t.digits)}
 		for _, c := range cols {
 			row = append(row, formatValue(c.u.fromSI(satValue(s, c)), t.digits))
 		}
@@ -306,12 +310,13 @@ Example:
 	return tb.write(stdout, t.format)
 }
 
+// propNames lists quantities for help texts, one a line.
 func propNames(qs []quantity) string {
 	var s []string
 	for _, q := range qs {
-		s = append(s, q.info().name+" ("+q.info().what+")")
+		s = append(s, fmt.Sprintf("  %-4s %s", q.info().name, q.info().what))
 	}
-	return strings.Join(s, ", ")
+	return strings.Join(s, "\n")
 }
 
 func progressOut(quiet bool, stderr io.Writer) io.Writer {
@@ -327,34 +332,39 @@ var lineProps = []quantity{qRho, qV, qH, qS, qU, qG, qCv, qCp, qW, qQ}
 // isotherms.
 func cmdLine(isobar bool, args []string, stdout, stderr io.Writer) error {
 	name := map[bool]string{true: "isobar", false: "isotherm"}[isobar]
-	fixedWhat, stepWhat := "pressure of each isobar", "temperatures along each isobar"
+	fixedWhat, stepWhat := "pressures of the isobars", "temperatures along each isobar"
+	fixedOne, stepOne := "pressure", "temperature"
 	ex := "tables isobar -fluid CO2 -p-bar 10,50,100 -t-C -50:150:10"
 	if !isobar {
-		fixedWhat, stepWhat = "temperature of each isotherm", "pressures along each isotherm"
+		fixedWhat, stepWhat = "temperatures of the isotherms", "pressures along each isotherm"
+		fixedOne, stepOne = "temperature", "pressure"
 		ex = "tables isotherm -fluid water -t-C 100,300 -p-bar 1:200:10"
 	}
 	cmd := newCommand(name, fmt.Sprintf(`Usage: tables %s [flags]
 
-Prints the states of a fluid along %ss: one table for each %s,
-with a row for each of the %s, from the flash at (p, T):
-phase, the properties chosen with -props (%s),
-and a note (saturated, extrapolated, or why a state has no values, such
-as a solid region). Where a line crosses the vapour-pressure curve the
-saturated liquid and vapour are added (-sat).
+Prints the states of a fluid along %ss: one table for each %s, with
+a row for each %s, from the flash at (p, T): phase, the properties
+chosen with -props, and a note (saturated, extrapolated, or why a state
+has no values, such as a solid region). Where a line crosses the
+vapour-pressure curve the saturated liquid and vapour are added (-sat).
 
+Properties (-props):
+%s
+
+%s
 Example:
   %s
-`, name, name, fixedWhat, stepWhat, propNames(lineProps), ex))
+`, name, name, fixedOne, stepOne, propNames(lineProps), listHelp, ex))
 	fs := cmd.fs
 	var o options
 	o.define(fs, "rho,h,s,cp,w")
 	var tf, pf *family
 	if isobar {
-		pf = newFamily(fs, qP, "p", "pressures", fixedWhat+": "+listText+";")
-		tf = newFamily(fs, qT, "t", "temperatures", stepWhat+": "+listText+";")
+		pf = newFamily(fs, qP, "p", "pressures", fixedWhat)
+		tf = newFamily(fs, qT, "t", "temperatures", stepWhat)
 	} else {
-		tf = newFamily(fs, qT, "t", "temperatures", fixedWhat+": "+listText+";")
-		pf = newFamily(fs, qP, "p", "pressures", stepWhat+": "+listText+";")
+		tf = newFamily(fs, qT, "t", "temperatures", fixedWhat)
+		pf = newFamily(fs, qP, "p", "pressures", stepWhat)
 	}
 	sat := fs.Bool("sat", true, "add the saturated liquid and vapour where a line crosses the vapour-pressure curve")
 	if err := cmd.parse(args, stdout); err != nil {
@@ -401,8 +411,8 @@ Example:
 	tb.addTextCol("note")
 
 	prog := newProgress(progressOut(o.quiet, stderr), "tables "+name, len(fixed.si)*len(step.si), nil)
-	for _, x := range fixed.si {
-		sec := section{heading: fixedCol.q.info().name + " = " + formatInput(fixedCol.u.fromSI(x)) + " " + fixedCol.u.text}
+	for k, x := range fixed.si {
+		sec := section{heading: fixedCol.q.info().name + " = " + inputText(fixed, k, fixedCol.u) + " " + fixedCol.u.text}
 		// The saturation this line crosses, if any.
 		var satAt float64
 		var satErr error
@@ -419,7 +429,7 @@ Example:
 			}
 		}
 		addRow := func(st flash.State, err error, stepVal string) {
-			row := []string{stepVal, formatInput(fixedCol.u.fromSI(x))}
+			row := []string{stepVal, inputText(fixed, k, fixedCol.u)}
 			if err != nil {
 				row = append(row, "")
 				for range cols {
@@ -440,7 +450,7 @@ Example:
 		for i, y := range step.si {
 			if hasSat && i > 0 && between(satAt, step.si[i-1], y) {
 				if satErr != nil {
-					return fmt.Errorf("%s %s: the saturation: %v", fixed.flag, formatInput(fixed.u.fromSI(x)), satErr)
+					return fmt.Errorf("%s %s: the saturation: %v", fixed.flag, fixed.text[k], satErr)
 				}
 				// Liquid first where the line comes from the liquid side:
 				// lower T on an isobar, higher p on an isotherm.
@@ -472,7 +482,7 @@ Example:
 			if err == nil {
 				prev = &st
 			}
-			addRow(st, err, formatInput(stepCol.u.fromSI(y)))
+			addRow(st, err, inputText(step, i, stepCol.u))
 			prog.step()
 		}
 		tb.sections = append(tb.sections, sec)

@@ -34,7 +34,16 @@ type unit struct {
 	off   float64
 }
 
-func (u unit) toSI(x float64) float64   { return x*u.scale + u.off }
+// toSI converts x to SI, rounded to 14 significant digits where the
+// conversion does arithmetic: 0.01 °C is 273.16 K, the triple point of
+// water, not 273.15999999999997 K below it.
+func (u unit) toSI(x float64) float64 {
+	if u.scale == 1 && u.off == 0 {
+		return x
+	}
+	return round14(x*u.scale + u.off)
+}
+
 func (u unit) fromSI(x float64) float64 { return (x - u.off) / u.scale }
 
 // quantityInfo describes a quantity: its column name, its symbol for
@@ -189,30 +198,20 @@ func (c column) name() string {
 
 // label returns the column's heading for Markdown, e.g. "ρ′ [kg/m³]".
 func (c column) label() string {
-	s := c.q.info().md
-	switch c.phase {
-	case phaseLiq:
-		s += "′"
-	case phaseVap:
-		s += "″"
-	}
-	if c.u.md != "" {
-		s += " [" + c.u.md + "]"
-	}
-	return s
+	return c.heading(c.q.info().md, [...]string{"", "′", "″"}[c.phase], c.u.md)
 }
 
 // text returns the column's name for plain-text messages, e.g.
 // "rho_liq [kg/m3]".
 func (c column) text() string {
-	s := c.q.info().name
-	if c.phase != phaseNone {
-		s += "_" + phaseSuffix[c.phase]
+	return c.heading(c.q.info().name, [...]string{"", "_liq", "_vap"}[c.phase], c.u.text)
+}
+
+func (c column) heading(sym, phase, unit string) string {
+	if unit != "" {
+		return sym + phase + " [" + unit + "]"
 	}
-	if c.u.text != "" {
-		s += " [" + c.u.text + "]"
-	}
-	return s
+	return sym + phase
 }
 
 // parseColumn reads a column name of the check-table layout:
@@ -242,7 +241,7 @@ func parseColumn(name string) (column, error) {
 		return c, nil
 	}
 	u, ok := q.unitNamed(rest)
-	if !ok || rest == "" {
+	if !ok {
 		if q == qQ {
 			return column{}, fmt.Errorf("column %q: the quality q takes no unit", name)
 		}
