@@ -170,7 +170,7 @@ Example:
 `)
 	fs := cmd.fs
 	fl := fs.String("fluid", "", "fluid of rows without a fluid column (required then)")
-	ref := fs.String("ref", "default", "reference state of h and s: default (the published equation's), IIR, ASHRAE or NBP")
+	ref := fs.String("ref", "default", "reference state of the files' h, u, g and s: default (the published equation's), IIR, ASHRAE or NBP")
 	format := fs.String("format", "md", "output format: md or csv")
 	worst := fs.Int("worst", 5, "list the N worst values of each file")
 	limDigits := fs.Float64("limit-digits", 1, "a value agrees within this many units of its last printed digit")

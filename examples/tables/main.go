@@ -54,7 +54,9 @@
 //
 // The CSV output is in the check-table layout below, with a source column
 // naming the equation it was computed from, so that the dev command
-// reads it back.
+// reads it back (with the same -ref); the saturated rows of an isobar or
+// isotherm print their computed temperature or pressure in full there,
+// since it fixes their state, and their phase column says which phase.
 //
 // # The check-table layout
 //
@@ -73,8 +75,11 @@
 //     dh) J_kg, kJ_kg; s (cv, cp) J_kgK, kJ_kgK; w_m_s. A column without a
 //     unit is in the units of the published tables: T K, p MPa, rho kg/m3,
 //     v m3/kg, h u g dh kJ/kg, s cv cp kJ/(kg K), w m/s.
-//   - Other columns: fluid (the fluid of the row; else -fluid gives it),
-//     and phase and note, which are not compared.
+//   - Other columns: fluid (the fluid of the row; else -fluid gives it);
+//     phase, where Liquid or Vapor requests that phase of the flash,
+//     metastable if need be (the report lists the rows that came out
+//     metastable), and other flash phase names request nothing; note.
+//     None of them is compared.
 //   - A table with any _liq or _vap column is a saturation table: its
 //     first property column, T or p, fixes the state (the equation's own
 //     saturation), and an unsuffixed p or T is the saturation pressure or

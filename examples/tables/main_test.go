@@ -758,3 +758,27 @@ func TestDevPairs(t *testing.T) {
 		}
 	}
 }
+
+// TestReferenceZero: on the ASHRAE and NBP reference states the defining
+// saturated liquid prints h′ = s′ = 0 exactly (by their definitions,
+// fluid.RefASHRAE and fluid.RefNBP), and so does g′ = h′ − Ts′, not the
+// 1e-11 J/kg that rounding leaves.
+func TestReferenceZero(t *testing.T) {
+	t.Parallel()
+	for _, args := range [][]string{
+		{"sat", "-fluid", "R134a", "-t-C", "-40", "-ref", "ASHRAE"},
+		{"sat", "-fluid", "water", "-p-kPa", "101.325", "-ref", "NBP"},
+		{"sat", "-fluid", "R134a", "-p-kPa", "101.325", "-ref", "nbp"},
+	} {
+		out, errOut, code := runTables(t, append(args, "-props", "h,s,g", "-format", "csv")...)
+		if code != 0 {
+			t.Fatalf("%v: exit %d: %s", args, code, errOut)
+		}
+		r := parseCSVOut(t, out).rows[0]
+		for _, c := range []string{"h_liq_kJ_kg", "s_liq_kJ_kgK", "g_liq_kJ_kg"} {
+			if r[c] != "0.00000" {
+				t.Errorf("%v: %s = %s, want 0.00000", args, c, r[c])
+			}
+		}
+	}
+}

@@ -124,6 +124,25 @@ func (o *options) resolve(allowed []quantity) (tableOpts, error) {
 	return t, nil
 }
 
+// cell prints the SI value v of column c. An energy or entropy within
+// 1e-12·R·Tc or 1e-12·R of zero prints as zero: that is the rounding of
+// the reference-state offsets (h′ of the state that defines the
+// reference comes out as 1e-11 J/kg, not 0), far below any printed digit.
+func (t *tableOpts) cell(c column, v float64) string {
+	crit, R := t.f.Critical(), t.f.GasConstant()
+	switch c.q {
+	case qH, qU, qG, qDh:
+		if math.Abs(v) < 1e-12*R*crit.T {
+			v = 0
+		}
+	case qS:
+		if math.Abs(v) < 1e-12*R {
+			v = 0
+		}
+	}
+	return formatValue(c.u.fromSI(v), t.digits)
+}
+
 func (t *tableOpts) header(title string) *table {
 	return &table{
 		title: title,
@@ -293,9 +312,9 @@ Example:
 		if err != nil {
 			return fmt.Errorf("%s %s: %v", g.flag, g.text[i], err)
 		}
-		row := []string{inputText(g, i, inCol.u), formatValue(outCol.u.fromSI(satValue(s, outCol)), t.digits)}
+		row := []string{inputText(g, i, inCol.u), t.cell(outCol, satValue(s, outCol))}
 		for _, c := range cols {
-			row = append(row, formatValue(c.u.fromSI(satValue(s, c)), t.digits))
+			row = append(row, t.cell(c, satValue(s, c)))
 		}
 		note := ""
 		if s.Flags&fluid.AtCritical != 0 {
@@ -440,7 +459,7 @@ Example:
 				v := stateValues(st)
 				row = append(row, st.Phase.String())
 				for _, c := range cols {
-					row = append(row, formatValue(c.u.fromSI(v[c.q]), t.digits))
+					row = append(row, t.cell(c, v[c.q]))
 				}
 				row = append(row, flagNotes(st.Flags))
 			}
@@ -452,8 +471,9 @@ Example:
 				if satErr != nil {
 					return fmt.Errorf("%s %s: the saturation: %v", fixed.flag, fixed.text[k], satErr)
 				}
-				// Liquid first where the line comes from the liquid side:
-				// lower T on an isobar, higher p on an isotherm.
+				// First the phase of the side the line comes from: on an
+				// isobar the liquid from below Tsat, on an isotherm the
+				// liquid from above psat.
 				first := 0.0
 				if isobar == (step.si[i-1] > satAt) {
 					first = 1
