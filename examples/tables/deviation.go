@@ -102,23 +102,26 @@ const (
 type flashFunc func(f *fluid.Fluid, a, b float64, opt flash.Options) (flash.State, error)
 
 // pairs are the input pairs of single-phase rows (v counts as rho) and
-// the flashes that compute them; T+rho is Props itself (flash nil).
+// the flashes that compute them; T+rho is Props itself (flash nil). meta
+// marks the flashes that return metastable states on request (see the
+// flash package), to which the phase column passes its request.
 var pairs = []struct {
 	a, b  quantity
 	kind  evalKind
 	text  string
 	flash flashFunc
+	meta  bool
 }{
-	{qT, qRho, kindTRho, "the equation of state at (T, rho), as the publications' check tables evaluate it", nil},
-	{qP, qT, kindPT, "flash.PT", flash.PTWith},
-	{qP, qH, kindPH, "flash.PH", flash.PHWith},
-	{qP, qS, kindPS, "flash.PS", flash.PSWith},
-	{qT, qQ, kindTQ, "flash.TQ", flash.TQWith},
-	{qP, qQ, kindPQ, "flash.PQ", flash.PQWith},
-	{qRho, qU, kindRhoU, "flash.DU", flash.DUWith},
-	{qH, qS, kindHS, "flash.HS", flash.HSWith},
-	{qT, qS, kindTS, "flash.TS", flash.TSWith},
-	{qP, qRho, kindPRho, "flash.PD", flash.PDWith},
+	{qT, qRho, kindTRho, "the equation of state at (T, rho), as the publications' check tables evaluate it", nil, false},
+	{qP, qT, kindPT, "flash.PT", flash.PTWith, true},
+	{qP, qH, kindPH, "flash.PH", flash.PHWith, true},
+	{qP, qS, kindPS, "flash.PS", flash.PSWith, true},
+	{qT, qQ, kindTQ, "flash.TQ", flash.TQWith, false},
+	{qP, qQ, kindPQ, "flash.PQ", flash.PQWith, false},
+	{qRho, qU, kindRhoU, "flash.DU", flash.DUWith, true},
+	{qH, qS, kindHS, "flash.HS", flash.HSWith, false},
+	{qT, qS, kindTS, "flash.TS", flash.TSWith, false},
+	{qP, qRho, kindPRho, "flash.PD", flash.PDWith, false},
 }
 
 func kindText(k evalKind) string {
@@ -396,10 +399,9 @@ func (cf *checkFile) eval(f *fluid.Fluid, r *checkRow) ([]float64, fluid.Flags, 
 			v, fl = propsValues(pr), pr.Flags
 			break
 		}
-		// A requested phase, metastable where need be (TQ and PQ have
-		// theirs in q).
+		// A requested phase, metastable where need be.
 		var opt flash.Options
-		if cf.phaseCol >= 0 && p.b != qQ {
+		if cf.phaseCol >= 0 && p.meta {
 			opt.Phase, _ = phaseRequest(r.cells[cf.phaseCol])
 			opt.AllowMetastable = opt.Phase != flash.Unknown
 		}

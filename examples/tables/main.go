@@ -76,9 +76,10 @@
 //     unit is in the units of the published tables: T K, p MPa, rho kg/m3,
 //     v m3/kg, h u g dh kJ/kg, s cv cp kJ/(kg K), w m/s.
 //   - Other columns: fluid (the fluid of the row; else -fluid gives it);
-//     phase, where Liquid or Vapor requests that phase of the flash,
-//     metastable if need be (the report lists the rows that came out
-//     metastable), and other flash phase names request nothing; note.
+//     phase, where Liquid or Vapor requests that phase of the flashes PT,
+//     PH, PS and DU, metastable if need be (the report lists the rows that
+//     came out metastable), and other flash phase names request nothing;
+//     note.
 //     None of them is compared.
 //   - A table with any _liq or _vap column is a saturation table: its
 //     first property column, T or p, fixes the state (the equation's own
