@@ -4,6 +4,7 @@ import (
 	"flag"
 	"fmt"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -280,25 +281,16 @@ func parseProps(s string, allowed []quantity) ([]quantity, error) {
 	for item := range strings.SplitSeq(s, ",") {
 		item = strings.TrimSpace(item)
 		q, ok := quantityNamed(item)
-		if ok && !containsQ(allowed, q) {
+		if ok && !slices.Contains(allowed, q) {
 			ok = false
 		}
 		if !ok {
 			return nil, fmt.Errorf("-props: %q is not a property of this table (want some of %s)", item, strings.Join(names, ", "))
 		}
-		if containsQ(out, q) {
+		if slices.Contains(out, q) {
 			return nil, fmt.Errorf("-props: %q given twice", item)
 		}
 		out = append(out, q)
 	}
 	return out, nil
-}
-
-func containsQ(qs []quantity, q quantity) bool {
-	for _, x := range qs {
-		if x == q {
-			return true
-		}
-	}
-	return false
 }
