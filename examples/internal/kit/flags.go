@@ -105,7 +105,11 @@ func (v *flagValue) Set(s string) error {
 	if v.q.set != "" && v.q.set != flagName {
 		return fmt.Errorf("%s was already given; set %s once, in one unit", v.q.set, v.q.what)
 	}
-	v.q.si = v.u.toSI(x)
+	si := v.u.toSI(x)
+	if math.IsInf(si, 0) {
+		return errors.New("out of the range of numbers")
+	}
+	v.q.si = si
 	v.q.set = flagName
 	return nil
 }
