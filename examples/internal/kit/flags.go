@@ -49,12 +49,18 @@ type Quantity struct {
 	lo, hi float64 // accepted SI range, checked by Flags.Parse
 	bounds bool
 	opt    bool // no default value: -h shows none
+	fs     *flag.FlagSet
 }
 
 // Optional marks the quantity as one without a default value: -h shows
 // none, and the program decides by IsSet.
 func (q *Quantity) Optional() *Quantity {
 	q.opt = true
+	for _, u := range q.units {
+		if fl := q.fs.Lookup(q.name + "-" + u.suffix); fl != nil {
+			fl.DefValue = ""
+		}
+	}
 	return q
 }
 
@@ -138,7 +144,7 @@ func (f *Flags) usage() {
 }
 
 func (f *Flags) quantity(name, what string, def float64, units ...unit) *Quantity {
-	q := &Quantity{name: name, what: what, units: units, si: units[0].toSI(def)}
+	q := &Quantity{name: name, what: what, units: units, si: units[0].toSI(def), fs: f.fs}
 	f.quantities = append(f.quantities, q)
 	for i, u := range units {
 		usage := what + " in " + u.symbol
