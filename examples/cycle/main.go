@@ -178,7 +178,9 @@ func report(w io.Writer, c config, cycles []Cycle) {
 		}
 		fmt.Fprintf(w, "\n%s (%s)\n", cy.Fluid.Name(), kind)
 		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
-		fmt.Fprintf(tw, "point\tT [%s]\tp [%s]\th [%s]\ts [%s]\tquality\t\n", u.TUnit, u.PUnit, u.HUnit, u.SUnit)
+		// tabwriter counts bytes: ASCII unit names keep the columns aligned
+		ascii := strings.NewReplacer("°", "", "·", " ")
+		fmt.Fprintf(tw, "point\tT [%s]\tp [%s]\th [%s]\ts [%s]\tquality\t\n", ascii.Replace(u.TUnit), u.PUnit, u.HUnit, ascii.Replace(u.SUnit))
 		for _, pt := range []struct {
 			name string
 			st   flash.State
