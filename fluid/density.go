@@ -72,7 +72,7 @@ func (f *Fluid) residual(delta, tau float64) helmholtz.Derivs {
 //
 // For T ≥ Tc, p(ρ) rises monotonically and all three roots are the same.
 // For T < Tc the liquid root is sought on ρ > ρc and the vapour root on
-// ρ < ρc (Tc and ρc of Critical()). RootStable takes the vapour below the equation's own vapour
+// ρ < ρc. RootStable takes the vapour below the equation's own vapour
 // pressure and the liquid above it: away from it the auxiliary
 // vapour-pressure equation decides, within 5 % of it the equation's own
 // saturation (SaturationAtT), and below the triple-point temperature (no
