@@ -50,7 +50,8 @@ func DTWith(f *fluid.Fluid, rho, T float64, opt Options) (State, error) {
 		}
 	}
 	pr, perr := f.Props(T, rho)
-	ok := (perr == nil || isRangeErr(perr) && pr.P > f.Limits().PCeil) && finiteProps(&pr)
+	ok := (perr == nil || isRangeErr(perr) && pr.P > f.Limits().PCeil) &&
+		(finiteProps(&pr) || pr.Flags&AtCritical != 0) // the critical state: (dp/drho)_T = 0
 	if T >= c.T || T < k.c.tt {
 		if !ok {
 			if T < k.c.tt && perr != nil && !isRangeErr(perr) {
