@@ -8,6 +8,7 @@ package main
 /*
 #cgo CFLAGS: -I${SRCDIR}
 #define TP_TYPES_ONLY
+#include <stdlib.h>
 #include <string.h>
 #include "tripoint.h"
 */
@@ -527,3 +528,36 @@ func tp_prop_n(h, pair, prop, n C.int32_t, a, b, out *C.double, stat *C.int32_t,
 // int32ToC converts a Go int to the C pair type; for the tests, which
 // cannot use cgo directly.
 func int32ToC(v int) C.int32_t { return C.int32_t(v) }
+
+// callResult is what one call through the C entry points returned, for
+// the tests (which cannot use cgo types themselves).
+type callResult struct {
+	handle, status, propStatus int32
+	st                         flash.State
+	prop                       float64
+	msg                        string
+}
+
+// callC makes the calls a C program would: tp_fluid, tp_flash and tp_prop,
+// through the exported functions themselves, with C structs.
+func callC(name string, ref, pair int32, a, b float64, prop int32) callResult {
+	var r callResult
+	var e C.tp_error
+	e.size = C.uint32_t(unsafe.Sizeof(e))
+	cname := C.CString(name)
+	defer C.free(unsafe.Pointer(cname))
+	r.handle = int32(tp_fluid(cname, C.int32_t(ref), &e))
+	if r.handle <= 0 {
+		r.status = int32(e.code)
+		r.msg = C.GoString(&e.message[0])
+		return r
+	}
+	var out C.tp_state
+	out.size = C.uint32_t(unsafe.Sizeof(out))
+	r.status = int32(tp_flash(C.int32_t(r.handle), C.int32_t(pair), C.double(a), C.double(b), nil, &out, &e))
+	r.msg = C.GoString(&e.message[0])
+	r.st = fromC(&out)
+	r.prop = float64(tp_prop(C.int32_t(r.handle), C.int32_t(pair), C.double(a), C.double(b), C.int32_t(prop), &e))
+	r.propStatus = int32(e.code)
+	return r
+}

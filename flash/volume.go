@@ -92,7 +92,8 @@ func (k *call) dtFluid(rho, T float64) (State, error) {
 		}
 	}
 	pr, perr := f.Props(T, rho)
-	ok := (perr == nil || isRangeErr(perr) && pr.P > f.Limits().PCeil) && finiteProps(&pr)
+	ok := (perr == nil || isRangeErr(perr) && pr.P > f.Limits().PCeil) &&
+		(finiteProps(&pr) || pr.Flags&AtCritical != 0) // the critical state: (dp/drho)_T = 0
 	if T >= c.T || T < k.sol.tt {
 		if !ok {
 			if T < k.sol.tt && perr != nil && !isRangeErr(perr) && !k.decided {

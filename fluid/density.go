@@ -122,7 +122,7 @@ func (f *Fluid) StableRoot(T, p float64) (root Root, flags Flags, err error) {
 	if err := f.checkTP(op, T, p); err != nil {
 		return 0, 0, err
 	}
-	if T >= f.tc {
+	if T >= f.crit.T {
 		return RootStable, 0, nil
 	}
 	if b, ok := f.auxSide(T, p); ok {
@@ -201,7 +201,7 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 	if !finite(g) || g < 0 {
 		g = 0
 	}
-	if T >= f.tc {
+	if T >= f.crit.T {
 		d, r, st := f.solveDelta(tau, pi, branchSingle, g)
 		return f.rootResult(op, T, p, d, r, st, branchSingle, 0)
 	}
@@ -364,10 +364,10 @@ func (f *Fluid) solveDelta(tau, pi float64, b branch, g float64) (float64, helmh
 	var x float64
 	switch b {
 	case branchVapor:
-		hi = 1
+		hi = f.crit.Rho / f.rhoc
 		x = pi // ideal gas
 	case branchLiquid:
-		lo = 1
+		lo = f.crit.Rho / f.rhoc
 		if f.aux.rhoLiq != nil {
 			// Below its range the auxiliary equation's extrapolation
 			// can leave the liquid branch: start from its end.

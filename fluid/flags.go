@@ -14,7 +14,7 @@ const (
 	Saturated     Flags = 1 << iota // on a coexistence curve
 	Extrapolated                    // outside the equation's published range, inside its documented extension
 	Metastable                      // a metastable state, returned on request
-	AtCritical                      // exactly at the critical point: cv, cp infinite, w zero
+	AtCritical                      // exactly at the critical point: cp infinite; cv infinite and w zero where the equation has nonanalytic terms
 	Indeterminate                   // the inputs do not fix the state; a documented choice was returned
 )
 

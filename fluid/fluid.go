@@ -58,9 +58,13 @@ type Fluid struct {
 // auxiliary holds a fluid's published auxiliary equations, in SI units.
 // A nil function means the fluid has none.
 type auxiliary struct {
-	psat, rhoLiq, rhoVap func(T float64) float64 // valid TMin..Tc
-	pmelt, psub          func(T float64) float64
-	meltRange, subRange  [2]float64 // T ranges of pmelt and psub
+	psat, rhoLiq, rhoVap func(T float64) float64 // valid TMin..tc
+	// tc and pc are the critical temperature (K) and pressure (Pa) at
+	// which psat, rhoLiq and rhoVap end, where these are not the
+	// equation's own critical point (zero: they end there).
+	tc, pc              float64
+	pmelt, psub         func(T float64) float64
+	meltRange, subRange [2]float64 // T ranges of pmelt and psub
 }
 
 // Name returns the canonical name of f, e.g. "CO2".
@@ -79,8 +83,16 @@ func (f *Fluid) MolarMass() float64 { return f.molarMass }
 // state in J/(kg·K).
 func (f *Fluid) GasConstant() float64 { return f.r }
 
-// Critical returns the equation's own critical point: its reducing
-// temperature and density, and the pressure the equation gives there.
+// Critical returns the critical point of f's equation of state: the
+// state where (∂p/∂ρ)_T = (∂²p/∂ρ²)_T = 0 and its vapour–liquid
+// coexistence curve ends. For an equation constrained to its reducing
+// point (IAPWS-95, Span–Wagner) it is the reducing temperature and
+// density, with the pressure the equation gives there; for one that was
+// not (Tillner-Roth–Baehr) it is solved from the equation (see the
+// fluid's doc), and differs from the reducing point (see Reducing).
+// Everything in tripoint that speaks of the critical point means this
+// one: the end of the saturation curve, the Supercritical phase (T > Tc
+// and p > pc) and the AtCritical flag.
 func (f *Fluid) Critical() Point { return f.crit }
 
 // Triple returns the triple point (see TriplePoint and the fluid's doc).
@@ -103,29 +115,40 @@ func (f *Fluid) ReferenceOffsets() (dh, ds float64) { return f.hOff, f.sOff }
 // exactly the critical point.
 func (f *Fluid) HasNonAnalytic() bool { return f.resid.HasNonAnalytic() }
 
-// auxIn reports whether the auxiliary saturation equations apply at T.
-func (f *Fluid) auxIn(T float64) bool {
-	return T >= f.limits.TMin && T <= f.tc
+// auxTc returns the temperature in K at which f's auxiliary saturation
+// equations end: their publication's critical temperature, which is
+// Critical().T except for R-134a (374.18 K, the reducing temperature).
+func (f *Fluid) auxTc() float64 {
+	if f.aux.tc > 0 {
+		return f.aux.tc
+	}
+	return f.crit.T
 }
 
 // AuxVaporPressure returns the vapour pressure in Pa from f's published
 // auxiliary equation, an approximation of the equation of state's own
 // saturation for initial guesses and checks. It returns an error outside
-// TMin ≤ T ≤ Tc.
+// TMin ≤ T ≤ Tc, where Tc is the temperature at which the published
+// equation ends: Critical().T, except for R-134a, whose auxiliary
+// equations end at the publication's Tc = 374.18 K, below its equation's
+// own critical temperature (as starting values the solvers carry them
+// on to it within 0.37 K of it).
 func (f *Fluid) AuxVaporPressure(T float64) (float64, error) {
-	return f.auxEval("fluid.AuxVaporPressure", f.aux.psat, T, f.limits.TMin, f.tc)
+	return f.auxEval("fluid.AuxVaporPressure", f.aux.psat, T, f.limits.TMin, f.auxTc())
 }
 
 // AuxLiquidDensity returns the saturated-liquid density in kg/m³ from f's
-// published auxiliary equation, for TMin ≤ T ≤ Tc.
+// published auxiliary equation, for TMin ≤ T ≤ Tc (Tc as for
+// AuxVaporPressure).
 func (f *Fluid) AuxLiquidDensity(T float64) (float64, error) {
-	return f.auxEval("fluid.AuxLiquidDensity", f.aux.rhoLiq, T, f.limits.TMin, f.tc)
+	return f.auxEval("fluid.AuxLiquidDensity", f.aux.rhoLiq, T, f.limits.TMin, f.auxTc())
 }
 
 // AuxVaporDensity returns the saturated-vapour density in kg/m³ from f's
-// published auxiliary equation, for TMin ≤ T ≤ Tc.
+// published auxiliary equation, for TMin ≤ T ≤ Tc (Tc as for
+// AuxVaporPressure).
 func (f *Fluid) AuxVaporDensity(T float64) (float64, error) {
-	return f.auxEval("fluid.AuxVaporDensity", f.aux.rhoVap, T, f.limits.TMin, f.tc)
+	return f.auxEval("fluid.AuxVaporDensity", f.aux.rhoVap, T, f.limits.TMin, f.auxTc())
 }
 
 // AuxMeltingPressure returns the melting pressure in Pa at T from f's
@@ -173,4 +196,89 @@ func powSum(a, t []float64, x float64) float64 {
 		s += a[i] * math.Pow(x, t[i])
 	}
 	return s
+}
+
+// criticalOfEquation solves for the critical point of f's equation of
+// state, for an equation that was not constrained to its reducing point:
+// where, in reduced variables,
+//
+//	y   = 1 + 2δαʳ_δ + δ²αʳ_δδ       = (∂p/∂ρ)_T/(RT)   = 0,
+//	y_δ = 2αʳ_δ + 4δαʳ_δδ + δ²αʳ_δδδ = (ρc/RT)(∂²p/∂ρ²)_T = 0.
+//
+// Newton's method in (δ, τ), started at the reducing point. The residuals
+// y and y_δ are analytic (helmholtz.Derivs up to αʳ_δδδ), and so is
+// ∂y/∂δ = y_δ; the other Jacobian entries, which would need fourth
+// derivatives, are central differences of the analytic y and y_δ (step
+// 1e-5): they steer the iteration only, while the point it stops at is
+// fixed by the analytic residuals. The Jacobian is regular there
+// (∂y/∂δ = 0, but ∂y/∂τ and ∂y_δ/∂δ are not). The iteration stops when
+// both steps are below 1e-14 and keeps the iterate of smallest residual;
+// it fails (ok false) unless |y| and |y_δ| are then within 1e-12. The
+// equation must not have nonanalytic terms (their derivatives diverge at
+// δ = τ = 1).
+func (f *Fluid) criticalOfEquation() (c Point, ok bool) {
+	yy := func(d, tau float64) (y, yd float64) {
+		r := f.resid.Eval(d, tau)
+		y = 1 + 2*d*r.D + d*d*r.DD
+		yd = 2*r.D + 4*d*r.DD + d*d*r.DDD
+		return y, yd
+	}
+	const h = 1e-5
+	d, tau := 1.0, 1.0
+	bd, bt, best := d, tau, math.Inf(1)
+	for it := 0; it < 50; it++ {
+		y, yd := yy(d, tau)
+		if !finite(y) || !finite(yd) {
+			break
+		}
+		if res := math.Abs(y) + math.Abs(yd); res < best {
+			bd, bt, best = d, tau, res
+		}
+		_, ydp := yy(d+h, tau)
+		_, ydm := yy(d-h, tau)
+		yp, ydtp := yy(d, tau+h)
+		ym, ydtm := yy(d, tau-h)
+		a, b := yd, (yp-ym)/(2*h)                  // ∂y/∂δ, ∂y/∂τ
+		c, e := (ydp-ydm)/(2*h), (ydtp-ydtm)/(2*h) // ∂y_δ/∂δ, ∂y_δ/∂τ
+		det := a*e - b*c
+		dd := (y*e - b*yd) / det
+		dt := (a*yd - c*y) / det
+		if !finite(dd) || !finite(dt) {
+			break
+		}
+		d, tau = d-dd, tau-dt
+		if math.Abs(dd) <= 1e-14 && math.Abs(dt) <= 1e-14 {
+			if y, yd := yy(d, tau); math.Abs(y)+math.Abs(yd) < best {
+				bd, bt, best = d, tau, math.Abs(y)+math.Abs(yd)
+			}
+			break
+		}
+	}
+	if !(best <= 1e-12) || f.resid.HasNonAnalytic() {
+		return Point{}, false
+	}
+	T, rho := f.tc/bt, bd*f.rhoc
+	return Point{T: T, Rho: rho, P: f.props(T, rho).P}, true
+}
+
+// setCriticalProps gives the properties at exactly the critical point
+// (T, ρ) = Critical(), flagged AtCritical, from tt = τ²(α°_ττ + αʳ_ττ)
+// and x = 1 + δαʳ_δ − δταʳ_δτ = (∂p/∂T)_ρ/(ρR) there. There
+// (∂p/∂ρ)_T = 0, so that cp, κT and the expansivity are infinite and the
+// Joule–Thomson coefficient is its limit 1/(∂p/∂T)_ρ. With nonanalytic
+// terms cv is infinite too and w zero; without them (Tillner-Roth–Baehr)
+// cv = −Rτ²α_ττ and w = √(T/cv)·(∂p/∂T)_ρ/ρ (the limit of
+// w² = (∂p/∂ρ)_T cp/cv as (∂p/∂ρ)_T → 0) are finite.
+func (f *Fluid) setCriticalProps(p *Props, tt, x float64) {
+	inf := math.Inf(1)
+	p.Flags |= AtCritical
+	p.DpDrho = 0
+	p.Cp, p.KappaT, p.Expansivity = inf, inf, inf
+	p.JouleThomson = 1 / p.DpDT
+	if f.resid.HasNonAnalytic() {
+		p.Cv, p.W = inf, 0
+		return
+	}
+	p.Cv = -f.r * tt
+	p.W = math.Sqrt(math.Max(-f.r*p.T*x*x/tt, 0))
 }

@@ -55,8 +55,10 @@ type Props struct {
 //	(∂p/∂ρ)_T ≤ 0 (inside a spinodal), or cv ≤ 0 (where an equation is
 //	  extrapolated far beyond its range): the values, with an error
 //	  wrapping ErrUnstable
-//	exactly the critical point, with nonanalytic terms: Cv = Cp = +Inf,
-//	  W = 0, KappaT = Expansivity = +Inf, DpDrho = 0, flag AtCritical
+//	exactly the critical point (T, rho) = Critical(): flag AtCritical,
+//	  DpDrho = 0, Cp = KappaT = Expansivity = +Inf; with nonanalytic
+//	  terms Cv = +Inf and W = 0, without them Cv and W finite (their
+//	  limits there)
 //
 // Props allocates nothing unless it returns an error.
 func (f *Fluid) Props(T, rho float64) (Props, error) {
@@ -165,13 +167,8 @@ func (f *Fluid) fromDerivs(T, rho, delta, tau float64, i, r *helmholtz.Derivs) P
 	if T < l.TMin || T > l.TMax || p.P > l.PMax {
 		p.Flags |= Extrapolated
 	}
-	if delta == 1 && tau == 1 && f.resid.HasNonAnalytic() {
-		p.Flags |= AtCritical
-		inf := math.Inf(1)
-		p.Cv, p.Cp, p.W = inf, inf, 0
-		p.KappaT, p.Expansivity = inf, inf
-		p.DpDrho = 0
-		p.JouleThomson = 1 / p.DpDT
+	if T == f.crit.T && rho == f.crit.Rho {
+		f.setCriticalProps(&p, tt, x)
 		return p
 	}
 	p.Cv = -R * tt

@@ -19,20 +19,30 @@ import (
 // auxiliary equations against the equation's own saturation) and by
 // recalled table values.
 //
-// Constants: reducing temperature Tc = 374.18 K and density
-// ρc = 508 kg/m³ (4.97883 mol/dm³), M = 102.032 g/mol, molar gas constant
-// 8.314471 J/(mol·K), so R = 81.48886 J/(kg·K). The publication's critical
-// pressure, 4.05629 MPa, is the end point of its vapour-pressure equation;
+// Constants: reducing temperature Tr = 374.18 K and density
+// ρr = 508 kg/m³ (4.97883 mol/dm³), which define τ = Tr/T and δ = ρ/ρr
+// (Reducing), M = 102.032 g/mol, molar gas constant 8.314471 J/(mol·K),
+// so R = 81.48886 J/(kg·K). The publication's critical pressure,
+// 4.05629 MPa, is the end point of its vapour-pressure equation at Tr;
 // the equation of state was not constrained to the reducing point (as
-// recalled; its computed critical point below bears it out) and gives
-// p(Tc, ρc) = 4.05662 MPa there. Its own critical point, where
-// (∂p/∂ρ)_T = (∂²p/∂ρ²)_T = 0, lies at 374.212 K, 511.95 kg/m³ and
-// 4.05928 MPa, so that the reducing point is inside the equation's
-// two-phase dome ((∂p/∂ρ)_T = −1.6e-4·RT there: Props returns its values
-// with ErrUnstable) and the equation's coexistence curve ends 0.032 K
-// above Tc. Critical reports the reducing point with p(Tc, ρc), as for
-// every fluid. The equation has no nonanalytic terms: cv and w are finite
-// everywhere.
+// recalled; its own critical point below bears it out) and gives
+// p(Tr, ρr) = 4.05662 MPa there, inside its own two-phase region
+// ((∂p/∂ρ)_T = −1.6e-4·RT: Props returns its values with ErrUnstable).
+//
+// Critical point: Critical() is the equation's own, where
+// (∂p/∂ρ)_T = (∂²p/∂ρ²)_T = 0, solved once at construction
+// (criticalOfEquation): Tc = 374.211967 K, ρc = 511.9451 kg/m³,
+// pc = 4.059276 MPa with the coefficients as recalled. Widely quoted
+// critical constants of R-134a (374.21 K, 4.0593 MPa, 511.9 kg/m³;
+// common practice, no source here) agree, which is evidence that the
+// coefficients were recalled right. Everything that means the critical
+// point uses it: the saturation curve runs past Tr up to Tc (between
+// 374.18 K and 374.212 K the fluid is still two-phase below its vapour
+// pressure), Supercritical means T > Tc and p > pc, and Props flags
+// exactly (Tc, ρc) AtCritical. The equation has no nonanalytic terms:
+// cv and w are finite everywhere, at the critical point too
+// (1241.99 J/(kg·K) and 89.877 m/s), while there (∂p/∂ρ)_T = 0 makes
+// cp, κT and the expansivity +Inf.
 //
 // Range (the publication's): 169.85 K (the triple point) to 455 K, at
 // pressures up to 70 MPa. Props accepts exactly this range; no
@@ -52,7 +62,8 @@ import (
 //
 //	ln(ps/pc) = (Tc/T)(−7.686556θ + 2.311791θ^1.5 − 2.039554θ² − 3.583758θ⁴),
 //
-// θ = 1 − T/Tc, pc = 4.05629 MPa; saturated liquid density
+// θ = 1 − T/Tc with the publication's Tc = 374.18 K (= Tr) and
+// pc = 4.05629 MPa; saturated liquid density
 //
 //	ρ'/(kg/m³) = 518.20 + 884.13θ^(1/3) + 485.84θ^(2/3) + 193.29θ^(10/3);
 //
@@ -64,13 +75,17 @@ import (
 // The vapour-density equation is the least certain recollection. They
 // approximate the equation's own saturation, for starting values of the
 // solvers: seen deviations are, for the vapour pressure, 1.7 % at the
-// triple point, 3e-3 at 200 K and within 1.7e-4 from 240 K to Tc; for the
-// liquid density within 5e-4 up to 373 K and 4e-3 at 374 K; for the
-// vapour density 4.3 % at the triple point, 4e-3 at 200 K and within
+// triple point, 3e-3 at 200 K and within 1.7e-4 from 240 K to 374.18 K;
+// for the liquid density within 5e-4 up to 373 K and 4e-3 at 374 K; for
+// the vapour density 4.3 % at the triple point, 4e-3 at 200 K and within
 // 1.1e-2 above (TestR134aAuxiliary asserts the bounds their use needs).
-// Within about 0.01 K of Tc the auxiliary densities, which meet near ρc,
-// depart by several per cent from the equation's, whose phases are still
-// 68 kg/m³ apart at Tc.
+// They end at the publication's Tc = 374.18 K and pc (AuxVaporPressure
+// and the other Aux functions accept T up to 374.18 K), where the
+// equation's phases are still 68 kg/m³ apart; within about 0.01 K of it
+// the auxiliary densities, which meet near 517 kg/m³, depart by several
+// per cent from the equation's. As starting values the solvers use them
+// as published up to 0.37 K below the equation's Tc and carry them on
+// from there to its critical point (seedT, TestR134aSeeds).
 func newR134a() *Fluid {
 	const (
 		tc   = 374.18
@@ -124,7 +139,12 @@ func newR134a() *Fluid {
 				14.140125*math.Pow(th, 9.0/4)-52.361297*math.Pow(th, 11.0/2))
 		},
 	}
-	f.crit = Point{T: tc, Rho: rhoc, P: f.props(tc, rhoc).P}
+	f.aux.tc, f.aux.pc = tc, pc
+	c, ok := f.criticalOfEquation()
+	if !ok {
+		panic("fluid: the critical point of the R-134a equation did not converge")
+	}
+	f.crit = c
 	return f
 }
 

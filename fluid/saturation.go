@@ -81,7 +81,9 @@ func satTolG(tau float64) float64 {
 }
 
 // SaturationAtT returns the vapour–liquid saturation of f at temperature T
-// in K, from the triple point to the critical point.
+// in K, from the triple point to the critical point (Tc, pc, ρc) =
+// Critical(), the equation's own (for R-134a above its reducing
+// temperature).
 //
 // It solves the phase-equilibrium conditions of the equation of state,
 //
@@ -104,14 +106,15 @@ func satTolG(tau float64) float64 {
 // Newton's method is started from a model of the curve anchored at the
 // equation's own solutions at Tc − 1 mK, 0.1 mK, 10 µK and 1 µK (where
 // they converge) and at the critical point (see nearCrit), and the
-// model's values are returned
-// where Newton's method cannot resolve the densities. In that band P is
-// the model's pressure, rising to pc; p, ρ′ and −ρ″ rise monotonically
-// toward the critical point; ρ″ < ρc < ρ′; and the residuals |Δp|/p,
-// |Δg|/(RT) and the difference between P and the vapour's own pressure
-// stay within 1e-12 (TestSaturationNearCritical). The equation itself
-// fixes the densities there only loosely: at Tc − 10 µK, IAPWS-95 states
-// whose ρ′ differ by 3e-5 relative satisfy the conditions equally well.
+// model's values are returned where Newton's method cannot resolve the
+// densities. In that band P is the model's pressure, rising to pc; p, ρ′
+// and −ρ″ rise monotonically toward the critical point; ρ″ < ρc < ρ′;
+// the residuals |Δp|/p, |Δg|/(RT) and the difference between P and the
+// vapour's own pressure stay within 1e-12; P never exceeds pc; and the
+// curve meets the critical point without a jump (TestSaturationNearCritical).
+// The equation itself fixes the densities there only loosely: at
+// Tc − 10 µK, IAPWS-95 states whose ρ′ differ by 3e-5 relative satisfy
+// the conditions equally well.
 //
 // Special cases are:
 //
@@ -119,8 +122,10 @@ func satTolG(tau float64) float64 {
 //	T > Tc: ErrOutOfRange (no saturation above the critical temperature)
 //	T < Tt, the triple-point temperature: ErrOutOfRange (no vapour–liquid
 //	  saturation below the triple point: the liquid freezes)
-//	T = Tc: the critical point, ρ′ = ρ″ = ρc, P = Critical().P, flags
-//	  Saturated|AtCritical
+//	T = Tc: the critical point, ρ′ = ρ″ = ρc, P = pc, flags
+//	  Saturated|AtCritical; both phases are Props(Tc, ρc), the critical
+//	  state (Cp = +Inf; Cv = +Inf and W = 0 with nonanalytic terms,
+//	  finite Cv and W without them)
 //
 // SaturationAtT allocates nothing unless it returns an error.
 func (f *Fluid) SaturationAtT(T float64) (Saturation, error) {
@@ -129,7 +134,7 @@ func (f *Fluid) SaturationAtT(T float64) (Saturation, error) {
 	if !finite(T) || T <= 0 {
 		return Saturation{}, NewError(op, ErrInvalidInput, "T must be finite and positive", in)
 	}
-	if T > f.tc {
+	if T > f.crit.T {
 		return Saturation{}, NewError(op, ErrOutOfRange,
 			"no vapour-liquid saturation above the critical temperature; "+f.satRange(), in)
 	}
@@ -137,14 +142,17 @@ func (f *Fluid) SaturationAtT(T float64) (Saturation, error) {
 		return Saturation{}, NewError(op, ErrOutOfRange,
 			"no vapour-liquid saturation below the triple point, where the liquid freezes; "+f.satRange(), in)
 	}
-	if T == f.tc {
+	if T == f.crit.T {
 		return f.criticalSaturation(), nil
 	}
 	s, ok := f.satT(f.tc / T)
 	if !ok {
 		return Saturation{}, NewError(op, ErrNoConvergence, "the saturation iteration did not converge", in)
 	}
-	return f.saturation(&s, T, 0), nil
+	sat := f.saturation(&s, T, 0)
+	// Within a few ulps of Tc the vapour's pressure may round above pc.
+	sat.P = min(sat.P, f.crit.P)
+	return sat, nil
 }
 
 // SaturationAtP returns the vapour–liquid saturation of f at pressure p in
@@ -223,7 +231,7 @@ func (f *Fluid) SaturationAtPFrom(p, T, rhoL, rhoV float64) (Saturation, error) 
 		return f.SaturationAtP(p)
 	}
 	if s, ok := f.satNewtonP(p, f.tc/T, rhoL/f.rhoc, rhoV/f.rhoc); ok && s.strict {
-		if Ts := f.tc / s.tau; Ts >= f.triple.T && Ts < f.tc-critBand {
+		if Ts := f.tc / s.tau; Ts >= f.triple.T && Ts < f.crit.T-critBand {
 			return f.saturation(&s, Ts, p), nil
 		}
 	}
@@ -231,16 +239,22 @@ func (f *Fluid) SaturationAtPFrom(p, T, rhoL, rhoV float64) (Saturation, error) 
 }
 
 // warmUsable reports whether a warm start lies where Newton's method
-// applies: Tt ≤ T < Tc − critBand, ρ″ < ρc < ρ′.
+// applies: Tt ≤ T < Tc − critBand, ρ″ < ρc < ρ′ (Tc and ρc of
+// Critical()).
 func (f *Fluid) warmUsable(T, rhoL, rhoV float64) bool {
-	return T >= f.triple.T && T < f.tc-critBand && rhoL > f.rhoc && rhoL < f.limits.RhoCeil &&
-		rhoV > 0 && rhoV < f.rhoc
+	c := &f.crit
+	return T >= f.triple.T && T < c.T-critBand && rhoL > c.Rho && rhoL < f.limits.RhoCeil &&
+		rhoV > 0 && rhoV < c.Rho
 }
 
 // AuxSaturationTemperature returns the saturation temperature in K at
 // pressure p in Pa from f's auxiliary vapour-pressure equation, inverted
 // by the secant method in 1/T on ln p: an estimate for starting values
-// and phase checks, as accurate as that equation. It returns an error
+// and phase checks, as accurate as that equation. Where the published
+// equation ends below the equation of state's critical point (R-134a), it
+// is the equation as the solvers use it, carried on to Critical() within
+// 0.37 K of Tc (see AuxVaporPressure), so that every p up to
+// Critical().P has an estimate. It returns an error
 // wrapping ErrUndefined for a fluid without one, ErrInvalidInput for a
 // p that is not finite and positive, and ErrOutOfRange outside
 // Triple().P ≤ p ≤ Critical().P.
@@ -259,7 +273,7 @@ func (f *Fluid) AuxSaturationTemperature(p float64) (float64, error) {
 }
 
 func (f *Fluid) satRange() string {
-	return "valid range " + fmtG(f.triple.T) + " <= T <= " + fmtG(f.tc) + " K for " + f.name
+	return "valid range " + fmtG(f.triple.T) + " <= T <= " + fmtG(f.crit.T) + " K for " + f.name
 }
 
 func (f *Fluid) satRangeP() string {
@@ -267,12 +281,59 @@ func (f *Fluid) satRangeP() string {
 		" K (about " + fmtG(f.triple.P) + " Pa) to " + fmtG(f.crit.P) + " Pa for " + f.name
 }
 
-// criticalSaturation returns the critical point as a saturation state.
+// criticalSaturation returns the critical point as a saturation state:
+// both phases are the critical state Props(Critical().T, Critical().Rho),
+// flagged AtCritical.
 func (f *Fluid) criticalSaturation() Saturation {
-	c := f.props(f.tc, f.rhoc)
+	c := f.props(f.crit.T, f.crit.Rho)
 	c.Flags |= Saturated
-	return Saturation{T: f.tc, P: f.crit.P, Liquid: c, Vapor: c,
+	return Saturation{T: f.crit.T, P: f.crit.P, Liquid: c, Vapor: c,
 		Flags: Saturated | AtCritical | c.Flags&Extrapolated}
+}
+
+// critReduced returns the critical point in the equation's reduced
+// variables, δc = ρc/ρr and τc = Tr/Tc (both 1 for an equation
+// constrained to its reducing point Tr, ρr).
+func (f *Fluid) critReduced() (dc, tauc float64) {
+	return f.crit.Rho / f.rhoc, f.tc / f.crit.T
+}
+
+// seedT returns the temperature at which the auxiliary saturation
+// equations are evaluated for a starting value at T, and the factor on
+// their pressure. Where they end at the equation's own critical point
+// (water, CO2) that is T itself and 1. Where they end below it (R-134a:
+// the publication's 374.18 K and 4.05629 MPa, the equation's 374.212 K
+// and 4.05928 MPa) they are used as published up to θ = 1 − T/Tc =
+// seedBlend (Tc = Critical().T; 0.37 K below Tc for R-134a) and carried
+// on from there to the equation's critical point: T is shifted down by
+// (Tc − Tc,aux)·s and the pressure scaled by 1 + (pc/pc,aux − 1)·s, with
+// s = 1 − θ/seedBlend rising linearly to 1 at Tc, so that they reach
+// (Tc, pc) continuously (TestR134aSeeds).
+func (f *Fluid) seedT(T float64) (Ta, pScale float64) {
+	if f.aux.tc <= 0 {
+		return T, 1
+	}
+	s := 1 - (1-T/f.crit.T)/seedBlend
+	if s <= 0 {
+		return T, 1
+	}
+	s = min(s, 1)
+	return min(T-(f.crit.T-f.aux.tc)*s, f.aux.tc), 1 + (f.crit.P/f.aux.pc-1)*s
+}
+
+// seedBlend is the θ = 1 − T/Tc below which seedT carries auxiliary
+// equations on to the equation's critical point.
+const seedBlend = 1e-3
+
+// seedPsat returns the auxiliary vapour pressure at T in Pa as a
+// starting value (see seedT), for Tt ≤ T ≤ Critical().T; 0 for a fluid
+// without one.
+func (f *Fluid) seedPsat(T float64) float64 {
+	if f.aux.psat == nil {
+		return 0
+	}
+	Ta, k := f.seedT(T)
+	return k * f.aux.psat(Ta)
 }
 
 // saturation builds the exported result; p > 0 overrides the pressure.
@@ -289,28 +350,30 @@ func (f *Fluid) saturation(s *satPair, T, p float64) Saturation {
 }
 
 // auxDensities returns starting reduced densities at τ from the auxiliary
-// equations, clamped to δ″ < 1 < δ′.
+// equations (see seedT), clamped to δ″ < δc < δ′.
 func (f *Fluid) auxDensities(tau float64) (dl, dv float64) {
 	T := f.tc / tau
+	dc, _ := f.critReduced()
 	if f.aux.rhoLiq != nil && f.aux.rhoVap != nil {
-		dl, dv = f.aux.rhoLiq(T)/f.rhoc, f.aux.rhoVap(T)/f.rhoc
+		Ta, _ := f.seedT(T)
+		dl, dv = f.aux.rhoLiq(Ta)/f.rhoc, f.aux.rhoVap(Ta)/f.rhoc
 	} else {
 		// No auxiliary equations: a rough corresponding-states start.
-		th := math.Max(1-T/f.tc, 0)
-		dl, dv = 1+2*math.Cbrt(th), math.Exp(-8*math.Cbrt(th))
+		th := math.Max(1-T/f.crit.T, 0)
+		dl, dv = dc*(1+2*math.Cbrt(th)), dc*math.Exp(-8*math.Cbrt(th))
 	}
-	if !(dl > 1) || !finite(dl) {
-		dl = 1 + 1e-3
+	if !(dl > dc) || !finite(dl) {
+		dl = dc * (1 + 1e-3)
 	}
-	if !(dv < 1) || !(dv > 0) {
-		dv = 1 - 1e-3
+	if !(dv < dc) || !(dv > 0) {
+		dv = dc * (1 - 1e-3)
 	}
 	return dl, dv
 }
 
 // satT solves the saturation at τ > 1.
 func (f *Fluid) satT(tau float64) (satPair, bool) {
-	if T := f.tc / tau; f.tc-T < critBand {
+	if T := f.tc / tau; f.crit.T-T < critBand {
 		return f.nearCritT(T)
 	}
 	return f.satTSolve(tau)
@@ -336,6 +399,7 @@ func (f *Fluid) satTSolve(tau float64) (satPair, bool) {
 func (f *Fluid) satNewtonT(tau, dl, dv float64) (satPair, bool) {
 	var s satPair
 	s.tau = tau
+	dc, _ := f.critReduced()
 	w := newtonWatch{best: math.Inf(1)}
 	bestRes := math.Inf(1)
 	for it := 0; it < 40; it++ {
@@ -353,7 +417,7 @@ func (f *Fluid) satNewtonT(tau, dl, dv float64) (satPair, bool) {
 			return s, false
 		}
 		res := max(math.Abs(F1)/satTolP(Pv, dl, tau), math.Abs(F2)/satTolG(tau))
-		good := dPl > 0 && dPv > 0 && dl > 1 && dv < 1
+		good := dPl > 0 && dPv > 0 && dl > dc && dv < dc
 		conv, ok := w.check(res)
 		if good && res < bestRes {
 			bestRes = res
@@ -362,9 +426,9 @@ func (f *Fluid) satNewtonT(tau, dl, dv float64) (satPair, bool) {
 		if conv {
 			return s, ok && bestRes <= 5
 		}
-		// Keep δ″ < 1 < δ′ (the trivial solution δ′ = δ″ lies between).
-		dl = stepAbove(dl, a, 1)
-		dv = stepBelow(dv, b, 1)
+		// Keep δ″ < δc < δ′ (the trivial solution δ′ = δ″ lies between).
+		dl = stepAbove(dl, a, dc)
+		dv = stepBelow(dv, b, dc)
 	}
 	return s, false
 }
@@ -398,10 +462,8 @@ func stepBelow(x, dx, hi float64) float64 {
 func (f *Fluid) satByPressure(tau float64) (satPair, bool) {
 	var s satPair
 	T := f.tc / tau
-	pi := 0.0
-	if f.aux.psat != nil {
-		pi = f.aux.psat(T) / (f.rhoc * f.r * T)
-	}
+	dc, _ := f.critReduced()
+	pi := f.seedPsat(T) / (f.rhoc * f.r * T)
 	lo, hi := 0.0, math.Inf(1)
 	if !(pi > 0) || !finite(pi) {
 		pi = f.crit.P / (f.rhoc * f.r * T) * 0.5
@@ -443,7 +505,7 @@ func (f *Fluid) satByPressure(tau float64) (satPair, bool) {
 				return p, true
 			}
 			s.tau, s.dl, s.dv, s.rl, s.rv = tau, dl, dv, rl, rv
-			return s, dl > 1 && dv < 1 && math.Abs(D) <= 5*satTolG(tau)
+			return s, dl > dc && dv < dc && math.Abs(D) <= 5*satTolG(tau)
 		}
 		pi += step
 	}
@@ -454,7 +516,7 @@ func (f *Fluid) satByPressure(tau float64) (satPair, bool) {
 func (f *Fluid) satP(p float64) (satPair, bool) {
 	near := p > 0.99*f.crit.P
 	if near && f.aux.psat != nil {
-		near = p > f.aux.psat(f.tc-3*critBand)
+		near = p > f.seedPsat(f.crit.T-3*critBand)
 	}
 	if near {
 		if s, in, ok := f.nearCritP(p); in || !ok {
@@ -475,7 +537,7 @@ func (f *Fluid) satP(p float64) (satPair, bool) {
 // and critical points; without an auxiliary equation it returns that
 // line's estimate.
 func (f *Fluid) auxTsat(p float64) float64 {
-	tt, tc := 0.99*f.triple.T, f.tc
+	tt, tc := 0.99*f.triple.T, f.crit.T
 	lp := math.Log(p)
 	x0, y0 := 1/tc, math.Log(f.crit.P)
 	slope := (math.Log(f.triple.P) - y0) / (1/tt - x0)
@@ -486,7 +548,7 @@ func (f *Fluid) auxTsat(p float64) float64 {
 	for it := 0; it < 8; it++ {
 		T := clampT(1/x, tt, tc)
 		x = 1 / T
-		y := math.Log(f.aux.psat(T))
+		y := math.Log(f.seedPsat(T))
 		if !finite(y) {
 			break
 		}
@@ -523,6 +585,7 @@ func clampT(T, lo, hi float64) float64 {
 func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 	var s satPair
 	pc := p / (f.rhoc * f.r * f.tc)
+	dc, tauc := f.critReduced()
 	w := newtonWatch{best: math.Inf(1)}
 	bestRes := math.Inf(1)
 	for it := 0; it < 40; it++ {
@@ -550,7 +613,7 @@ func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 		// P, as in satNewtonT.
 		res := max(math.Abs(E1/k)/satTolP(Pv, dl, tau), math.Abs(E2/k)/satTolP(Pv, dv, tau),
 			math.Abs(E3)/satTolG(tau))
-		good := dPl > 0 && dPv > 0 && dl > 1 && dv < 1 && tau > 1
+		good := dPl > 0 && dPv > 0 && dl > dc && dv < dc && tau > tauc
 		conv, ok := w.check(res)
 		if good && res < bestRes {
 			bestRes = res
@@ -559,9 +622,9 @@ func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 		if conv {
 			return s, ok && bestRes <= 5
 		}
-		dl = stepAbove(dl, ddl, 1)
-		dv = stepBelow(dv, ddv, 1)
-		tau = stepAbove(tau, dt, 1)
+		dl = stepAbove(dl, ddl, dc)
+		dv = stepBelow(dv, ddv, dc)
+		tau = stepAbove(tau, dt, tauc)
 	}
 	return s, false
 }
@@ -570,7 +633,7 @@ func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 // on psat(T) = p, with dpsat/dT = (s″ − s′)/(1/ρ″ − 1/ρ′) from the
 // Clausius–Clapeyron equation.
 func (f *Fluid) satPByT(p, T float64) (satPair, bool) {
-	lo, hi := 0.99*f.triple.T, f.tc-critBand
+	lo, hi := 0.99*f.triple.T, f.crit.T-critBand
 	var s satPair
 	for it := 0; it < 100; it++ {
 		if !(T > lo && T < hi) {
@@ -597,14 +660,14 @@ func (f *Fluid) satPByT(p, T float64) (satPair, bool) {
 	return s, false
 }
 
-// critBand is the interval below Tc, in K, in which the saturation is
-// started from the near-critical model instead of the auxiliary
-// equations, and where Newton's method cannot resolve the densities, taken
-// from the model.
+// critBand is the interval below Tc = Critical().T, in K, in which the
+// saturation is started from the near-critical model instead of the
+// auxiliary equations, and where Newton's method cannot resolve the
+// densities, taken from the model.
 const critBand = 1e-3
 
-// nearCrit is the saturation curve between T1 = Tc − critBand and Tc,
-// in x = (Tc − T)/critBand:
+// nearCrit is the saturation curve between T1 = Tc − critBand and the
+// critical point (Tc, pc, ρc) = Critical(), in x = (Tc − T)/critBand:
 //
 //	p(T) = pc + A y + B y²,  y = T − Tc,
 //	δ′, δ″ = m ± h,
@@ -613,22 +676,20 @@ const critBand = 1e-3
 // T1 and p = pc at Tc, and m (the mean of δ′ and δ″) and h (half their
 // difference) interpolated between anchors, the equation's own
 // saturation solved at x = 1, 1e-1, 1e-2, 1e-3 as far down as Newton's
-// method converges to its residual bounds: m linearly in x, ln h linearly
+// method converges to its residual bounds (and finds the phases closer
+// than at the anchor before): m linearly in x, ln h linearly
 // in ln x (a local power law x^β); below the last anchor, h follows the
 // last segment's exponent β (bounded to [0.3, 0.5]: about 0.34 for
-// Span–Wagner CO2 and 0.49 for IAPWS-95 just below 1 mK, tending to the
-// classical 1/2 at Tc) and m tends linearly to 1.
+// Span–Wagner CO2, 0.49 for IAPWS-95 and 0.50 for Tillner-Roth–Baehr
+// just below 1 mK, tending to the classical 1/2 at Tc) and m tends
+// linearly to δc = ρc/ρr.
 type nearCrit struct {
 	pc, A, B float64
+	dc       float64    // δc
 	n        int        // anchors in use
 	x, m, h  [4]float64 // anchors
 	s1       satPair    // the solution at T1
 	p1       float64
-	// closes is false where the anchors show no closing of the curve
-	// toward Tc (an exponent below 0.2: the equation's own critical
-	// point lies above its reducing temperature); the model is then not
-	// used for values.
-	closes bool
 }
 
 // nearCritAnchors are the x of the anchors.
@@ -638,7 +699,7 @@ var nearCritAnchors = [4]float64{1, 1e-1, 1e-2, 1e-3}
 // needed down to x, 0 < x ≤ 1 (x ≤ 0: only the pressure model).
 func (f *Fluid) nearCritModel(x float64) (nearCrit, bool) {
 	var m nearCrit
-	T1 := f.tc - critBand
+	T1 := f.crit.T - critBand
 	s1, ok := f.satTSolve(f.tc / T1)
 	if !ok {
 		return m, false
@@ -646,6 +707,7 @@ func (f *Fluid) nearCritModel(x float64) (nearCrit, bool) {
 	m.s1 = s1
 	m.p1 = s1.pi() * f.rhoc * f.r * T1
 	m.pc = f.crit.P
+	m.dc, _ = f.critReduced()
 	slope := f.clapeyron(&s1)
 	y1 := -critBand
 	m.B = (slope*y1 - (m.p1 - m.pc)) / (y1 * y1)
@@ -657,25 +719,18 @@ func (f *Fluid) nearCritModel(x float64) (nearCrit, bool) {
 	m.x[0], m.m[0], m.h[0], m.n = 1, 0.5*(s1.dl+s1.dv), 0.5*(s1.dl-s1.dv), 1
 	for k := 1; k < len(nearCritAnchors) && m.x[m.n-1] > x && x > 0; k++ {
 		xa := nearCritAnchors[k]
-		tau := f.tc / (f.tc - xa*critBand)
+		tau := f.tc / (f.crit.T - xa*critBand)
 		dl, dv := m.densities(xa)
 		s, ok := f.satNewtonT(tau, dl, dv)
 		if !ok || !s.strict {
-			// From the last anchor's densities: right where the curve
-			// does not close toward Tc.
+			// From the last anchor's densities.
 			s, ok = f.satNewtonT(tau, m.m[m.n-1]+m.h[m.n-1], m.m[m.n-1]-m.h[m.n-1])
 		}
-		if !ok || !s.strict || !(s.dl-s.dv > 0) {
+		if !ok || !s.strict || !(s.dl-s.dv > 0) || !(s.dl-s.dv < 2*m.h[m.n-1]) {
 			break
 		}
 		m.x[m.n], m.m[m.n], m.h[m.n] = xa, 0.5*(s.dl+s.dv), 0.5*(s.dl-s.dv)
 		m.n++
-	}
-	m.closes = true
-	for k := 1; k < m.n; k++ {
-		if math.Log(m.h[k-1]/m.h[k])/math.Log(m.x[k-1]/m.x[k]) < 0.2 {
-			m.closes = false
-		}
 	}
 	return m, true
 }
@@ -701,7 +756,7 @@ func (m *nearCrit) densities(x float64) (dl, dv float64) {
 			beta = min(max(beta, 0.3), 0.5)
 		}
 		xl := m.x[m.n-1]
-		mean = 1 + (m.m[m.n-1]-1)*x/xl
+		mean = m.dc + (m.m[m.n-1]-m.dc)*x/xl
 		h = m.h[m.n-1] * math.Pow(x/xl, beta)
 	}
 	return mean + h, mean - h
@@ -723,7 +778,7 @@ func (m *nearCrit) y(p float64) float64 {
 
 // nearCritT returns the saturation at T, Tc − critBand < T < Tc.
 func (f *Fluid) nearCritT(T float64) (satPair, bool) {
-	y := T - f.tc
+	y := T - f.crit.T
 	m, ok := f.nearCritModel(-y / critBand)
 	if !ok {
 		return satPair{}, false
@@ -732,7 +787,7 @@ func (f *Fluid) nearCritT(T float64) (satPair, bool) {
 }
 
 // nearCritP returns the saturation at p if p lies at or above the model's
-// pressure at Tc − critBand; ok is false otherwise.
+// pressure at Tc − critBand; in is false otherwise.
 func (f *Fluid) nearCritP(p float64) (s satPair, in, ok bool) {
 	m, ok := f.nearCritModel(0)
 	if !ok {
@@ -758,7 +813,8 @@ func (f *Fluid) nearCritAt(m *nearCrit, y, p float64) satPair {
 	if x >= 1 {
 		return m.s1
 	}
-	tau := f.tc / (f.tc + y)
+	T := f.crit.T + y
+	tau := f.tc / T
 	dl, dv := m.densities(x)
 	h := 0.5 * (dl - dv)
 	var s satPair
@@ -772,25 +828,11 @@ func (f *Fluid) nearCritAt(m *nearCrit, y, p float64) satPair {
 	// densities, and Newton's method, driven by rounding noise, may
 	// wander in it even while its residuals meet their bounds: its
 	// result stands only where it stays near the model (within 5 % of
-	// h), and the model's own values, monotone by construction and equal
-	// to rounding in the residuals there, are returned otherwise.
-	if ok && (!m.closes && s.strict || math.Abs(s.dl-dl) <= 0.05*h && math.Abs(s.dv-dv) <= 0.05*h &&
-		math.Abs(s.tau-tau) <= 0.01*critBand/f.tc) {
-		return s
-	}
-	if m.closes {
-		s = satPair{tau: tau, dl: dl, dv: dv}
-		s.rl = f.residual(dl, tau)
-		s.rv = f.residual(dv, tau)
-		return s
-	}
-	// An equation whose coexistence curve does not close at its
-	// reducing point (the model then misleads): the regular solver.
-	if p <= 0 {
-		if s, ok := f.satTSolve(tau); ok && s.strict {
-			return s
-		}
-	} else if s, ok := f.satNewtonP(p, f.tc/(f.tc-critBand), m.s1.dl, m.s1.dv); ok && s.strict {
+	// h, and of 1e-2·critBand in T), and the model's own values,
+	// monotone by construction and equal to rounding in the residuals
+	// there, are returned otherwise.
+	if ok && math.Abs(s.dl-dl) <= 0.05*h && math.Abs(s.dv-dv) <= 0.05*h &&
+		math.Abs(s.tau-tau) <= 0.01*critBand*tau/T {
 		return s
 	}
 	s = satPair{tau: tau, dl: dl, dv: dv}
