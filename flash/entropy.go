@@ -1,6 +1,7 @@
 package flash
 
 import (
+	"errors"
 	"math"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
@@ -47,6 +48,13 @@ func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
 	if err == errSolid && !k.decided {
 		return k.done(k.tsSolid(T, s))
 	}
+	if err != nil && k.mayMelt(T) && !errors.Is(err, fluid.ErrInvalidInput) {
+		// No liquid with this entropy below the dense end of the
+		// equation: dry ice or solid–liquid.
+		if st2, err2 := k.tsSolid(T, s); err2 == nil {
+			return st2, nil
+		}
+	}
 	return k.done(st, err)
 }
 
@@ -73,9 +81,6 @@ func (k *call) ts(T, s, rhoLo, rhoHi float64) (State, error) {
 		}
 		switch {
 		case s < sat.Liquid.S:
-			if !k.decided && k.tsNeedsSolid(T, s) {
-				return State{}, errSolid
-			}
 			lo, rho0 = sat.Liquid.Rho, max(rho0, sat.Liquid.Rho*(1+1e-6))
 		case s > sat.Vapor.S:
 			hi, rho0 = sat.Vapor.Rho, min(rho0, sat.Vapor.Rho*(1-1e-6))
@@ -85,10 +90,6 @@ func (k *call) ts(T, s, rhoLo, rhoHi float64) (State, error) {
 				q = 0.5
 			}
 			return k.finishSat(&sat, q)
-		}
-	default:
-		if !k.decided && k.tsNeedsSolid(T, s) {
-			return State{}, errSolid
 		}
 	}
 	if rhoLo > 0 {

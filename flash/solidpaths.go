@@ -806,18 +806,11 @@ func (k *call) solidIsotherm(T, s, plo, phi float64) (State, error) {
 	return k.wantedState(solidState(&sp))
 }
 
-// tsNeedsSolid reports whether TS at T ≥ Tt with entropy s below the
-// saturated liquid's may reach the melting curve of dry ice: s is below
-// the liquid's at the lower bound of the melting pressure (the entropy
-// falls with pressure along the isotherm).
-func (k *call) tsNeedsSolid(T, s float64) bool {
+// mayMelt reports whether the isotherm T above the triple point crosses
+// the melting curve of dry ice.
+func (k *call) mayMelt(T float64) bool {
 	n := k.sol.n
-	if !k.sol.ok || !n.meltRising || T > n.meltEndT() {
-		return false
-	}
-	lo, _ := n.meltPBounds(T)
-	pr, err := k.f.PropsTP(T, lo, fluid.RootLiquid, 0)
-	return err != nil || s < pr.S
+	return k.sol.ok && !k.decided && n.meltRising && !k.belowTripleT(T) && T <= n.meltEndT()
 }
 
 // ---------------------------------------------------------------------

@@ -42,9 +42,13 @@ func DTWith(f *fluid.Fluid, rho, T float64, opt Options) (State, error) {
 		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt, 3); err != nil {
 		return State{}, err
 	}
-	if k.sol.ok && !k.metaFluid() && (k.onTripleT(T) || k.belowTripleT(T) && !k.clearVapour(rho, T) || k.denseCO2(rho, T)) {
+	if k.sol.ok && !k.metaFluid() && (k.onTripleT(T) || k.belowTripleT(T) && !k.clearVapour(rho, T)) {
 		return k.done(k.dtSolid(rho, T))
 	}
+	// Above the triple point the fluid's state at (T, ρ) is placed
+	// against the melting curve by finish: on the liquid branch p rises
+	// with ρ, so a liquid below the melting pressure is less dense than
+	// the liquid on the curve.
 	st, err := k.dtFluid(rho, T)
 	if err == errSolid && !k.decided {
 		return k.done(k.dtSolid(rho, T))
@@ -65,12 +69,17 @@ func (k *call) clearVapour(rho, T float64) bool {
 	return rho < lo/(k.f.GasConstant()*T)
 }
 
-// denseCO2 reports whether (T, ρ) above the triple point may reach the
-// melting curve of dry ice: denser than the liquid at the triple point
-// (the liquid on the melting curve grows denser with T).
-func (k *call) denseCO2(rho, T float64) bool {
+// clearVapourP reports whether (p, ρ) below the triple-point pressure is a
+// vapour by the node bounds: ρ below p/(RT) for an upper bound T of the
+// sublimation temperature at p, and so below the saturated vapour's
+// density (its compression factor is below 1).
+func (k *call) clearVapourP(p, rho float64) bool {
 	n := k.sol.n
-	return n.meltRising && !k.belowTripleT(T) && T <= n.meltEndT() && rho > k.f.Triple().RhoLiquid*(1-1e-9)
+	if p < n.subPMin() {
+		return true
+	}
+	_, hi := n.subTBounds(p)
+	return rho < p/(k.f.GasConstant()*hi)
 }
 
 // dtFluid is the fluid path of DT.
@@ -218,19 +227,20 @@ func DUWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 	if k.sol.ok && !k.metaFluid() && rho <= f.Limits().RhoCeil {
 		tp, _ := k.triple()
 		_, hi, three := tripleURange(tp, 1/rho)
-		if !three && (rho < tp.Vapor.Rho || k.sol.anomalous() && rho > tp.Liquid.Rho) {
-			// A vapour isochore, or one of liquid water denser than at
-			// the triple point: below its state at the triple-point
-			// temperature it meets the sublimation or the melting curve.
+		if !three && k.sol.anomalous() && rho > tp.Liquid.Rho {
+			// Liquid water denser than at the triple point: below its
+			// state at the triple-point temperature the isochore meets
+			// the melting curve.
 			if pr, err := f.Props(tp.T, rho); err == nil {
 				three, hi = true, pr.U
 			}
 		}
-		if three && u <= hi+qU.tol(f, nil, u) || k.sol.n.meltRising && rho > f.Triple().RhoLiquid*(1-1e-9) {
-			// In or below the three-phase mixtures of this density;
-			// or dry ice, or the melting curve above the triple point.
+		if three && u <= hi+qU.tol(f, nil, u) {
+			// In or below the three-phase mixtures of this density.
 			return k.done(k.duSolid(rho, u))
 		}
+		// Elsewhere the fluid path first: its states are placed against
+		// the solid by finish (dense CO2 against the melting curve).
 	}
 	st, err := k.isochoric(rho, qU, u)
 	if err == errSolid && !k.decided {
@@ -474,8 +484,7 @@ func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
 		fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"}, &opt, 3); err != nil {
 		return State{}, err
 	}
-	if k.sol.ok && !k.metaFluid() && (k.belowTripleP(p) || k.onTripleP(p) ||
-		k.sol.n.meltRising && rho > f.Triple().RhoLiquid*(1-1e-9)) {
+	if k.sol.ok && !k.metaFluid() && (k.onTripleP(p) || k.belowTripleP(p) && !k.clearVapourP(p, rho)) {
 		return k.done(k.pdSolid(p, rho))
 	}
 	st, err := k.pd(p, rho)
