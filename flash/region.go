@@ -51,6 +51,7 @@ const (
 type curveNodes struct {
 	tt, pt       float64                // the models' triple point, K and Pa
 	tp           sublimation.ThreePhase // in the fluid's default reference state
+	uIdeal       float64                // u of the ideal gas at tt (ρ → 0), default reference, J/kg
 	subT, subP   []float64              // ascending
 	meltT, meltP []float64              // meltP ascending from pt; meltT rising (CO2) or falling (water)
 	meltRising   bool
@@ -102,6 +103,11 @@ func (n *curveNodes) build(name string) error {
 		return err
 	}
 	n.tt, n.pt = n.tp.T, n.tp.P
+	ig, err := f.Props(n.tt, 1e-9*n.tp.Vapor.Rho)
+	if err != nil {
+		return err
+	}
+	n.uIdeal = ig.U
 	sub, err := s.SublimationCurve(nNodes)
 	if err != nil {
 		return err

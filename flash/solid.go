@@ -173,6 +173,12 @@ func tripleSaturation(tp *sublimation.ThreePhase) fluid.Saturation {
 		Flags: Saturated | (tp.Liquid.Flags|tp.Vapor.Flags)&Extrapolated}
 }
 
+// refDH is the enthalpy offset of the call's fluid's reference state.
+func (k *call) refDH() float64 {
+	dh, _ := k.f.ReferenceOffsets()
+	return dh
+}
+
 // triple returns the triple point where the models meet, from the node
 // table with the reference-state offsets of the call's fluid.
 func (k *call) triple() (*sublimation.ThreePhase, error) {

@@ -227,16 +227,26 @@ func DUWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 	if k.sol.ok && !k.metaFluid() && rho <= f.Limits().RhoCeil {
 		tp, _ := k.triple()
 		_, hi, three := tripleURange(tp, 1/rho)
-		if !three && k.sol.anomalous() && rho > tp.Liquid.Rho {
-			// Liquid water denser than at the triple point: below its
-			// state at the triple-point temperature the isochore meets
-			// the melting curve.
+		below := three && u <= hi+qU.tol(f, nil, u) // in or below the three-phase mixtures
+		switch {
+		case three:
+		case rho < tp.Vapor.Rho && u < tp.Vapor.U:
+			// A vapour isochore below the saturated vapour's u at the
+			// triple point, and so below its own state there (u falls
+			// with ρ along a vapour isotherm): it meets the sublimation
+			// curve.
+			below = true
+		case rho < tp.Vapor.Rho && u < k.sol.n.uIdeal+k.refDH(),
+			k.sol.anomalous() && rho > tp.Liquid.Rho:
+			// Between the saturated and the ideal-gas u at the triple
+			// point; or liquid water denser than at the triple point,
+			// whose isochore meets the melting curve below it: placed by
+			// its state at the triple-point temperature.
 			if pr, err := f.Props(tp.T, rho); err == nil {
-				three, hi = true, pr.U
+				below = u <= pr.U
 			}
 		}
-		if three && u <= hi+qU.tol(f, nil, u) {
-			// In or below the three-phase mixtures of this density.
+		if below {
 			return k.done(k.duSolid(rho, u))
 		}
 		// Elsewhere the fluid path first: its states are placed against
