@@ -66,7 +66,7 @@
 // PT exactly on the vapour-pressure curve (to rounding) returns the
 // saturated liquid, flagged Indeterminate and Saturated; on a sublimation
 // or melting curve (the fluid's and the solid's Gibbs energies within
-// 1e-11·RT, ten times the accuracy of the curves) the fluid phase, flagged
+// 1e-11·RT, a few times the accuracy of the curves) the fluid phase, flagged
 // likewise; at the triple point the saturated liquid.
 //
 // On the triple line — p within 1e-10 of the triple-point pressure (the
@@ -131,7 +131,7 @@
 // |Δρ| ≤ 1e-10·ρ, and T and q exactly; the saturation it uses satisfies
 // equal pressure and Gibbs energy at the rounding level of the equation
 // (see fluid.SaturationAtT, also for the last millikelvin below Tc), the
-// sublimation and melting curves equal Gibbs energy within about
+// sublimation and melting curves equal Gibbs energy within a few
 // 1e-12·RT (package sublimation). PH into the solid–vapour region costs
 // 3 to 5 evaluations of the fluid equation (BenchmarkSolidRegions). The
 // flashes use Newton's method with analytic Jacobians from starting

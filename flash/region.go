@@ -30,9 +30,9 @@ const (
 	tripleTolT = 1e-12
 	tripleTolP = 1e-10
 	// gibbsTol is the Gibbs-energy difference, in units of RT, within
-	// which a fluid state lies on a solid–fluid coexistence curve: ten
+	// which a fluid state lies on a solid–fluid coexistence curve: a few
 	// times the residual to which package sublimation solves its curves
-	// (at most about 1e-12·RT).
+	// (up to about 4e-12·RT, TestSolidGibbsEquality).
 	gibbsTol = 1e-11
 	// nodeSlack widens the bounds between curve nodes for the rounding
 	// of the curve solutions.

@@ -283,6 +283,7 @@ func TestRoundTripPT(t *testing.T) {
 	}
 	for _, f := range fluids(t) {
 		worst := map[string]float64{}
+		phases := map[Phase]int{}
 		states, flashes := 0, 0
 		for _, T := range gridTemperatures(f, n) {
 			for _, p := range gridPressures(f, n) {
@@ -291,6 +292,7 @@ func TestRoundTripPT(t *testing.T) {
 					continue
 				}
 				states++
+				phases[st.Phase]++
 				checkState(t, f, "PT", &st)
 				if g, floor := backward(f, &st, "p", p); math.Abs(g-p) > floor {
 					t.Errorf("%s PT(%v, %v): p = %v", f.Name(), p, T, g)
@@ -301,7 +303,7 @@ func TestRoundTripPT(t *testing.T) {
 		if states < n*n/3 {
 			t.Errorf("%s: only %d PT states", f.Name(), states)
 		}
-		t.Logf("%s: %d PT states, %d flashes; worst residual / floor: %v", f.Name(), states, flashes, worst)
+		t.Logf("%s: %d PT states (%v), %d flashes; worst residual / floor: %v", f.Name(), states, phases, flashes, worst)
 	}
 }
 
