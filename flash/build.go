@@ -46,23 +46,9 @@ func fluidPhase(f *fluid.Fluid, T, p, rho float64) Phase {
 // The mixture's ρ, h, s and u follow from its phases (1/ρ = (1−q)/ρ′ +
 // q/ρ″, h = (1−q)h′ + q h″, …) and Cp = +Inf. Cv and W are derivatives of
 // the mixture along its equilibrium paths, computed analytically from the
-// properties of the two phases. With γ = dp_sat/dT = (s″ − s′)/(v″ − v′)
-// (Clausius–Clapeyron), each saturated phase i changes along the curve as
-//
-//	dρᵢ/dT = (γ − (∂p/∂T)ᵢ)/(∂p/∂ρ)ᵢ,
-//	duᵢ/dT = cvᵢ + (p − T(∂p/∂T)ᵢ)/ρᵢ² · dρᵢ/dT,
-//	dsᵢ/dT = cvᵢ/T − (∂p/∂T)ᵢ/ρᵢ² · dρᵢ/dT,
-//
-// so that at fixed v = v′ + q(v″ − v′), with dq/dT = −(dv′ + q d(v″−v′))/(v″ − v′),
-//
-//	cv = du′/dT + q d(u″−u′)/dT + (u″ − u′) dq/dT,
-//
-// and at fixed s, with dq/dT = −(ds′ + q d(s″−s′))/(s″ − s′), the
-// homogeneous-equilibrium speed of sound (phases in mechanical, thermal
-// and phase equilibrium, moving together) is
-//
-//	w² = (∂p/∂ρ)_s = −v² γ / (dv/dT)_s,
-//	(dv/dT)_s = dv′/dT + q d(v″−v′)/dT + (v″ − v′) dq/dT.
+// properties of the two phases along the Clausius–Clapeyron slope
+// γ = dp_sat/dT = (s″ − s′)/(v″ − v′): see fluidAlong (each phase along
+// the curve) and mixDerivs (cv at fixed v, w² = (∂p/∂ρ)_s).
 //
 // At the critical point itself (T = Tc) the state is the critical state,
 // with cv = cp = +Inf and w = 0 where the equation has nonanalytic terms.
@@ -92,22 +78,8 @@ func twoPhase(f *fluid.Fluid, s *fluid.Saturation, q float64) State {
 		st.Cv, st.W = l.Cv, l.W
 		return st
 	}
-	T := s.T
 	gamma := (v.S - l.S) / (vv - vl)
-	type dd struct{ v, u, s float64 }
-	along := func(pr *fluid.Props) dd {
-		drho := (gamma - pr.DpDT) / pr.DpDrho
-		r2 := pr.Rho * pr.Rho
-		return dd{v: -drho / r2, u: pr.Cv + (pr.P-T*pr.DpDT)/r2*drho, s: pr.Cv/T - pr.DpDT/r2*drho}
-	}
-	dl, dv := along(l), along(v)
-	dqv := -(dl.v + q*(dv.v-dl.v)) / (vv - vl)
-	st.Cv = dl.u + q*(dv.u-dl.u) + (v.U-l.U)*dqv
-	dqs := -(dl.s + q*(dv.s-dl.s)) / (v.S - l.S)
-	dvdT := dl.v + q*(dv.v-dl.v) + (vv-vl)*dqs
-	vm := 1 / st.Rho
-	if w2 := -vm * vm * gamma / dvdT; w2 > 0 && isFinite(w2) {
-		st.W = math.Sqrt(w2)
-	}
+	st.Cv, st.W = mixDerivs(1/st.Rho, gamma, vl, vv, l.U, v.U, l.S, v.S,
+		fluidAlong(l, gamma), fluidAlong(v, gamma), q)
 	return st
 }

@@ -18,17 +18,29 @@
 // p ≤ pc it is Vapor. Between the saturated states it is TwoPhase. TQ and
 // PQ with q = 0 or 1 return the saturated liquid or vapour as a
 // single-phase state (Phase Liquid or Vapor, flag Saturated, finite cp
-// and w). Below the triple point the fluid is the vapour below the
-// published sublimation curve and, for water, the liquid above the
-// melting curve of ice Ih; they are returned, flagged Extrapolated where
-// they lie beyond the equation's published range.
+// and w).
 //
-// # Two-phase states
+// For water (ice Ih) and carbon dioxide (dry ice) the flashes reach the
+// solid regions of package sublimation: Solid, SolidVapor (on the
+// sublimation curve, below the triple-point pressure), SolidLiquid (on
+// the melting curve; for CO2 also solid with the dense fluid above Tc) and
+// Triple (the three phases at the triple point). Every state is placed by
+// the solid models' own Gibbs-equality curves, never by the published
+// auxiliary sublimation and melting equations, so that a state is never
+// solid by one function and fluid by another: a table of points of each
+// curve, computed once per model, bounds the curve between its points (it
+// is monotone), and between the bounds the Gibbs energies of fluid and
+// solid at (T, p), or the curve itself, decide. Below the triple point the
+// fluid is the vapour below the sublimation curve and, for water, the
+// liquid above the melting curve of ice Ih, flagged Extrapolated where
+// beyond the equation's published range.
+//
+// # Mixtures
 //
 // A liquid–vapour state carries its quality (vapour mass fraction), the
 // mixture's density, enthalpy, entropy and internal energy, Cp = +Inf,
 // the full properties of both phases, and two derivatives of the
-// equilibrium mixture computed analytically from the saturated phases
+// equilibrium mixture computed analytically from the coexisting phases
 // along the Clausius–Clapeyron slope dp/dT = (s″ − s′)/(v″ − v′):
 //
 //   - Cv, the heat capacity at fixed overall volume, with the quality
@@ -37,21 +49,50 @@
 //     phases moving together in mechanical, thermal and phase equilibrium,
 //     the sound speed that limits choked two-phase flow in that model.
 //
-// The formulas are given at the unexported twoPhase function; tests check
-// them against differences of the flashes themselves.
+// Solid–vapour and solid–liquid states are built the same way from the
+// solid and the fluid on the sublimation or melting curve, the solid's
+// changes along the curve following from its Gibbs derivatives (v, α,
+// κ_T, cp at (T, p)): so they too have Cp = +Inf, a finite Cv and the
+// homogeneous-equilibrium W. Quality is the vapour mass fraction (0 for
+// SolidLiquid), Solid the solid mass fraction. A Triple state, where
+// three phases coexist at one T and p, has Cp = Cv = +Inf and W = 0
+// (DESIGN.md); Phases lists solid, liquid and vapour. A solid's W is its
+// bulk sound speed √((∂p/∂ρ)_s). The formulas are given at the unexported
+// functions mixDerivs, fluidAlong and solidAlong; tests check them against
+// differences of the flashes themselves.
 //
 // # Inputs that do not fix the state
 //
 // PT exactly on the vapour-pressure curve (to rounding) returns the
 // saturated liquid, flagged Indeterminate and Saturated; on a sublimation
-// or melting curve, the fluid phase, flagged likewise. On the triple line
-// (T = Tt) a mixture's solid fraction is not fixed by PH, PS, PQ, TQ, HS
-// or DT: the state without solid is returned, flagged Indeterminate.
+// or melting curve (the fluid's and the solid's Gibbs energies within
+// 1e-11·RT, ten times the accuracy of the curves) the fluid phase, flagged
+// likewise; at the triple point the saturated liquid.
+//
+// On the triple line — p within 1e-10 of the triple-point pressure (the
+// precision of the fluid's stored constants) or T within 1e-12 of its
+// temperature — PH, PS, PQ, TQ, HS, DT, TS and PD do not fix the phase
+// fractions of a three-phase mixture: every such mixture has
+// h − Tt·s = g_t, so not even (h, s) fixes it. They return the mixture of
+// least solid, flagged Indeterminate: the liquid–vapour mixture where the
+// input lies among the liquid–vapour mixtures at the triple point (TQ and
+// PQ always: q is the vapour fraction); below them in h or s (PH, PS, HS,
+// TS) the solid–vapour mixture; below them in specific volume (DT, PD;
+// dry ice is denser than its liquid) the solid–liquid mixture. DU fixes
+// the three fractions (sublimation.ThreePhase.FractionsRhoU) and returns
+// Triple states, not flagged: a closed vessel cooled or vented through
+// the triple point stays at its T and p while its solid grows and its
+// liquid shrinks, then continues as solid–vapour.
+//
 // Where s is not monotone along an isotherm or p along an isochore
 // (liquid water below its density maximum near 4 °C) TS and PD have more
-// than one solution and return the one of lowest pressure. DU is unique:
-// u rises with T along every isochore, also one that crosses the
-// saturation dome twice (water's liquid near 4 °C).
+// than one solution and return the one of lowest pressure. Ice is lighter
+// than liquid water and melts to higher entropy: for water below its
+// triple point (T, s) and (p, ρ) can have a solid, a mixture and a fluid
+// solution; TS returns the one of lowest pressure, PD the fluid state
+// where there is one. DU is unique: u rises with T along every isochore,
+// also one that crosses the saturation dome twice (water's liquid near
+// 4 °C) or the triple point.
 //
 // # Metastable states
 //
@@ -59,22 +100,29 @@
 // PS, DT and DU return a single-phase state of that phase where the stable
 // state is another, up to the spinodal, flagged Metastable: the
 // superheated liquid of flashing flow and relief-valve sizing, the
-// subcooled vapour of rapid expansions. Beyond the spinodal the error
-// wraps fluid.ErrUnstable.
+// subcooled vapour of rapid expansions, and, against the solid, supercooled
+// liquid water below 0 °C and CO2 vapour supersaturated against dry ice.
+// Beyond the spinodal the error wraps fluid.ErrUnstable. Options.Phase may
+// also request Solid, SolidVapor, SolidLiquid or Triple: the state must
+// then be of that phase (no metastable solid is returned).
 //
-// # Solid regions
+// # Solid regions and their limits
 //
-// Until the solid models exist (package sublimation), states are placed
-// against the published sublimation and melting curves of each fluid
-// (fluid.AuxSublimationPressure, fluid.AuxMeltingPressure). A state in a
-// solid region is an error wrapping fluid.ErrOutOfRange that says so —
-// never a liquid or vapour that does not exist; for a fluid without solid
-// data (R-134a) the error wraps fluid.ErrUndefined. For water the only
-// melting curve in the data is that of ice Ih: below the triple-point
-// temperature and above its end (208.566 MPa) other ices exist and the
-// error says so; the liquid above about 630 MPa near room temperature,
-// where ices VI and VII exist, is not yet classified (their melting curves
-// are not in the fluid data).
+// Ice Ih ends at 208.566 MPa, the ice Ih–ice III–liquid triple point
+// (IAPWS R14-08): a state of water with ice above it, or liquid below
+// 273.16 K above it, is an error wrapping fluid.ErrOutOfRange that names
+// the other ices. Liquid water above about 630 MPa near room temperature,
+// where ices VI and VII exist, is not classified (their melting curves are
+// not in the models). Dry ice ends at 800 MPa (the dry-ice model, the
+// Span–Wagner equation and its melting equation): states with solid above
+// it are an error; the fluid above 800 MPa is returned only above the
+// model's melting temperature at 800 MPa (327.7 K), flagged Extrapolated,
+// as the melting curve beyond is not known. Ice Ih is modelled down to
+// 0 K (from 1 K here), below the vapour floor of 200 K: there a state is
+// placed only where it is solid beyond doubt, at pressures above the
+// sublimation pressure at the floor. A fluid without a solid model
+// (R-134a) has its solid region — below its triple-point temperature — as
+// an error wrapping fluid.ErrUndefined.
 //
 // # Accuracy and cost
 //
@@ -82,7 +130,10 @@
 // |Δh|, |Δu| ≤ 1e-10·max(|h|, R·Tc), |Δs| ≤ 1e-10·max(|s|, R),
 // |Δρ| ≤ 1e-10·ρ, and T and q exactly; the saturation it uses satisfies
 // equal pressure and Gibbs energy at the rounding level of the equation
-// (see fluid.SaturationAtT, also for the last millikelvin below Tc). The
+// (see fluid.SaturationAtT, also for the last millikelvin below Tc), the
+// sublimation and melting curves equal Gibbs energy within about
+// 1e-12·RT (package sublimation). PH into the solid–vapour region costs
+// 3 to 5 evaluations of the fluid equation (BenchmarkSolidRegions). The
 // flashes use Newton's method with analytic Jacobians from starting
 // values out of the auxiliary equations, with bracketing fallbacks that
 // always terminate, and a warm start from Options.Guess; the common paths

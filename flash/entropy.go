@@ -12,18 +12,24 @@ import (
 // TS returns the state of f at temperature T in K and specific entropy s
 // in J/(kg·K). Below Tc the saturated entropies at T place s: between
 // them the liquid–vapour mixture, outside them the single phase, by
-// Newton's method in ln ρ along the isotherm. Below the triple-point
-// temperature the fluid is the vapour below the sublimation curve and
-// (water) the liquid above the melting curve. Where s is not monotone
-// along the isotherm (liquid water below its density maximum, where s
-// rises with pressure) the state is not unique: TS returns the one of
-// lowest pressure (a saturated mixture where there is one).
+// Newton's method in ln ρ along the isotherm. For water and CO2 below the
+// triple-point temperature the entropies of the vapour and the solid on
+// the sublimation curve at T place s (solid–vapour between them, the
+// solid at the pressure where its entropy is s below), and for ice Ih
+// the liquid beyond its melting curve; above it (CO2) the liquid and the
+// solid on the melting curve. Where s is not monotone along the isotherm
+// (liquid water below its density maximum, where s rises with pressure;
+// ice, which melts to higher entropy) the state is not unique: TS returns
+// the one of lowest pressure (a saturated mixture where there is one). On
+// the triple line the state of least solid, flagged Indeterminate.
 //
 // Special cases are:
 //
 //	T NaN, ±Inf or ≤ 0, s NaN or ±Inf: ErrInvalidInput
-//	s below the fluid states of the isotherm: the solid region
-//	  (ErrOutOfRange; ErrUndefined without solid data)
+//	no state with these T and s: ErrOutOfRange
+//	a state with solid beyond the solid model: ErrOutOfRange
+//	below the triple-point temperature of a fluid without a solid model
+//	  (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
 func TS(f *fluid.Fluid, T, s float64) (State, error) { return TSWith(f, T, s, Options{}) }
 
@@ -34,41 +40,32 @@ func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
 		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
+	if k.sol.ok && !k.metaFluid() && (k.onTripleT(T) || k.belowTripleT(T)) {
+		return k.done(k.tsSolid(T, s))
+	}
+	st, err := k.ts(T, s, 0, 0)
+	if err == errSolid && !k.decided {
+		return k.done(k.tsSolid(T, s))
+	}
+	return k.done(st, err)
+}
+
+// ts is the fluid path of TS, with the density kept within rhoLo and
+// rhoHi where they are positive (bounds set by the solid paths).
+func (k *call) ts(T, s, rhoLo, rhoHi float64) (State, error) {
+	f := k.f
 	c := f.Critical()
 	lim := f.Limits()
 	lo, hi := 1e-12*c.Rho, lim.RhoCeil
 	rho0 := c.Rho
-	if g := k.opt.Guess; g != nil && g.N == 1 && g.Rho > 0 {
-		rho0 = g.Rho
+	if k.fluidGuess() && k.opt.Guess.Rho > 0 {
+		rho0 = k.opt.Guess.Rho
 	}
 	switch {
-	case T < k.c.tt*(1-1e-12):
-		if !k.c.hasSub {
-			return State{}, k.c.solidError(k.op, "below the triple point", k.in[0], k.in[1])
+	case k.belowTripleT(T):
+		if !k.decided {
+			return State{}, k.solidError("below the triple point")
 		}
-		if T < k.c.subLo {
-			return State{}, k.c.regionError(k.op, regionBeyond, "below the range of the sublimation curve", k.in[0], k.in[1])
-		}
-		pv, err := f.PropsTP(T, k.c.psub(T), fluid.RootVapor, 0)
-		if err != nil {
-			return State{}, k.rewrap(err)
-		}
-		if s < pv.S {
-			// The liquid above an anomalous melting curve (water), up to
-			// the curve's end.
-			if k.c.hasMelt && k.c.anomalous && T >= k.c.meltLo {
-				pm, err1 := f.PropsTP(T, k.c.pmelt(T), fluid.RootLiquid, 0)
-				pe, err2 := f.PropsTP(T, k.c.pMeltEnd, fluid.RootLiquid, 0)
-				if err1 == nil && err2 == nil {
-					pr, ok := solve1(f, qS, s, T, pm.Rho, false, pm.Rho, pe.Rho)
-					if ok {
-						return k.wanted(k.finish(&pr))
-					}
-				}
-			}
-			return State{}, k.c.solidError(k.op, "below the entropy of the vapour on the sublimation curve", k.in[0], k.in[1])
-		}
-		hi, rho0 = pv.Rho, min(rho0, pv.Rho)
 	case T < c.T:
 		sat, err := k.satT(T)
 		if err != nil {
@@ -76,6 +73,9 @@ func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
 		}
 		switch {
 		case s < sat.Liquid.S:
+			if !k.decided && k.tsNeedsSolid(T, s) {
+				return State{}, errSolid
+			}
 			lo, rho0 = sat.Liquid.Rho, max(rho0, sat.Liquid.Rho*(1+1e-6))
 		case s > sat.Vapor.S:
 			hi, rho0 = sat.Vapor.Rho, min(rho0, sat.Vapor.Rho*(1-1e-6))
@@ -86,6 +86,16 @@ func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
 			}
 			return k.finishSat(&sat, q)
 		}
+	default:
+		if !k.decided && k.tsNeedsSolid(T, s) {
+			return State{}, errSolid
+		}
+	}
+	if rhoLo > 0 {
+		lo = max(lo, rhoLo)
+	}
+	if rhoHi > 0 {
+		hi = min(hi, rhoHi)
 	}
 	pr, ok := solve1(f, qS, s, T, min(max(rho0, lo), hi), false, lo, hi)
 	if !ok {
@@ -98,16 +108,20 @@ func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
 // entropy s in J/(kg·K): the end state of an isentropic compression or
 // expansion of known work, or of a nozzle.
 //
-// Along an isentrope dh = dp/ρ, so h(p) rises with p: HS solves
-// h(PS(p, s)) = h by Newton's method in ln p with slope p/ρ, bracketed,
-// each PS warm-started from the last. On the triple line every
-// three-phase mixture has h − Tt·s = g_t, so (h, s) does not fix it:
-// the state without solid is returned, flagged Indeterminate.
+// Along an isentrope dh = dp/ρ, so h(p) rises with p, through every
+// region, the solid ones included: HS solves h(PS(p, s)) = h by Newton's
+// method in ln p with slope p/ρ, bracketed by states, each PS
+// warm-started from the last; where the isentrope crosses a band without
+// a modelled state (water above 208.566 MPa below 273.16 K) a scan finds
+// the states on either side. On the triple line every three-phase
+// mixture has h − Tt·s = g_t, so (h, s) does not fix it: PS at the
+// triple-point pressure gives the state of least solid, flagged
+// Indeterminate (liquid–vapour, or solid–vapour below the liquid's s).
 //
 // Special cases are:
 //
 //	h or s NaN or ±Inf: ErrInvalidInput
-//	no fluid state with these h and s: ErrOutOfRange
+//	no state with these h and s: ErrOutOfRange or ErrNoConvergence
 func HS(f *fluid.Fluid, h, s float64) (State, error) { return HSWith(f, h, s, Options{}) }
 
 // HSWith is HS with options, passed to each PS: a warm start, a
@@ -120,6 +134,14 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 	}
 	c := f.Critical()
 	lim := f.Limits()
+	if k.hsTriple(h, s) {
+		// On the triple line: PS at the triple-point pressure returns
+		// its documented choice, flagged Indeterminate.
+		st, err := PSWith(f, k.sol.tp.P, s, k.opt)
+		if err == nil && math.Abs(st.H-h) <= qH.floor(f, nil, h) {
+			return st, nil
+		}
+	}
 	p0 := c.P
 	if g := k.opt.Guess; g != nil && g.P > 0 {
 		p0 = g.P
@@ -147,18 +169,38 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 		}
 	}
 	if !have {
-		return State{}, k.fail(fluid.ErrOutOfRange, "no fluid state with these h and s")
+		return State{}, k.fail(fluid.ErrOutOfRange, "no state with these h and s")
 	}
 	tolH := qH.tol(f, nil, h)
+	// A budget of PS calls bounds the search where (h, s) has no state.
+	budget := 80
+	ps := func(ln float64, guess *State) (State, bool) {
+		if budget <= 0 {
+			return State{}, false
+		}
+		budget--
+		inner.Guess = nil
+		var g State
+		if guess != nil {
+			g = *guess
+			inner.Guess = &g
+		}
+		st, err := PSWith(f, math.Exp(ln), s, inner)
+		return st, err == nil
+	}
+	stalls, scanned := 0, false
 	for it := 0; it < 100; it++ {
 		r := last.H - h
 		if math.Abs(r) <= 10*tolH {
 			st := last
-			if st.Phase == TwoPhase && st.T == k.c.tt {
+			if k.sol.ok && st.N > 1 && k.onTripleP(st.P) {
 				st.Flags |= Indeterminate
 			}
 			return st, nil
 		}
+		// Only states bound the bracket: the isentrope can cross bands
+		// without a modelled state (water above 208.566 MPa below
+		// 273.16 K, where other ices exist).
 		if r > 0 {
 			phi = lp
 		} else {
@@ -169,32 +211,69 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 		if !(ln > plo && ln < phi) {
 			ln = 0.5 * (plo + phi)
 		}
-		moved := false
-		for try := 0; try < 60 && !moved; try++ {
-			if phi-plo < 1e-15 || math.Abs(ln-lp) < 1e-16 {
-				break
-			}
-			g := last
-			inner.Guess = &g
-			st, err := PSWith(f, math.Exp(ln), s, inner)
-			if err == nil {
-				last, lp, moved = st, ln, true
-				break
-			}
-			// No fluid state there: bound the bracket and step back.
-			if ln > lp {
-				phi = ln
-			} else {
-				plo = ln
-			}
+		st, ok := ps(ln, &last)
+		for j := 0; !ok && j < 12 && budget > 0; j++ {
+			// No state there: back toward the last one.
 			ln = 0.5 * (ln + lp)
+			if math.Abs(ln-lp) < 1e-15 {
+				break
+			}
+			st, ok = ps(ln, &last)
 		}
-		if !moved {
-			break
+		if ok && math.Abs(ln-lp) > 1e-9 {
+			stalls = 0
+		} else {
+			stalls++
+		}
+		if ok {
+			last, lp = st, ln
+		}
+		if !ok || stalls >= 3 {
+			// Stuck at the edge of such a band: scan the bracket for
+			// the states on either side of the solution, once.
+			if scanned || budget <= 0 {
+				break
+			}
+			scanned = true
+			a, b, ok := hsScan(ps, h, plo, phi)
+			if !ok {
+				break
+			}
+			last, lp, plo, phi, stalls = a.st, a.ln, a.ln, b.ln, 0
 		}
 	}
 	if have && math.Abs(last.H-h) <= qH.floor(f, nil, h) {
 		return last, nil
 	}
 	return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isentrope did not converge")
+}
+
+// hsPoint is a state of an isentrope at ln p.
+type hsPoint struct {
+	st State
+	ln float64
+}
+
+// hsScan scans ln p in (lo, hi) for the two neighbouring states of the
+// isentrope whose enthalpies bracket h, with PS by ps (cold: a warm start
+// from far along the isentrope misleads more than it helps).
+func hsScan(ps func(float64, *State) (State, bool), h, lo, hi float64) (a, b hsPoint, ok bool) {
+	const n = 32
+	haveA := false
+	for i := 1; i < n; i++ {
+		ln := lo + (hi-lo)*float64(i)/n
+		st, good := ps(ln, nil)
+		if !good {
+			continue
+		}
+		if st.H <= h {
+			a, haveA = hsPoint{st, ln}, true
+			continue
+		}
+		if haveA {
+			return a, hsPoint{st, ln}, true
+		}
+		return a, b, false
+	}
+	return a, b, false
 }

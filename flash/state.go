@@ -16,10 +16,10 @@ const (
 	Vapor         Phase = 2 // below the vapour or sublimation pressure, or above Tc at p ≤ pc
 	Supercritical Phase = 3 // T > Tc and p > pc
 	TwoPhase      Phase = 4 // liquid and vapour in equilibrium
-	Solid         Phase = 5
-	SolidVapor    Phase = 6 // solid and vapour in equilibrium
-	SolidLiquid   Phase = 7 // solid and liquid (or dense fluid) in equilibrium
-	Triple        Phase = 8 // solid, liquid and vapour in equilibrium
+	Solid         Phase = 5 // a solid phase (ice Ih, dry ice)
+	SolidVapor    Phase = 6 // solid and vapour in equilibrium (on the sublimation curve)
+	SolidLiquid   Phase = 7 // solid and liquid (or dense fluid) in equilibrium (on the melting curve)
+	Triple        Phase = 8 // solid, liquid and vapour in equilibrium at the triple point
 )
 
 var phaseNames = [...]string{"Unknown", "Liquid", "Vapor", "Supercritical", "TwoPhase",
@@ -89,11 +89,13 @@ type State struct {
 // halves their cost. A Guess from another region is harmless.
 //
 // Phase, if not Unknown, requests a phase: Liquid or Vapor for a
-// single-phase state of that phase (Supercritical accepts either), or
-// TwoPhase. If the requested phase is not the stable one at the inputs,
+// single-phase state of that phase (Supercritical accepts either),
+// TwoPhase, or one of the solid phases Solid, SolidVapor, SolidLiquid and
+// Triple. If the requested phase is not the stable one at the inputs,
 // the flash returns an error wrapping fluid.ErrOutOfRange, unless
 // AllowMetastable is set and a metastable state of that phase exists
-// (up to the spinodal): then it is returned, flagged Metastable.
+// (up to the spinodal; a fluid phase, also against the solid): then it is
+// returned, flagged Metastable.
 type Options struct {
 	Guess           *State
 	Phase           Phase

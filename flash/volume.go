@@ -1,6 +1,7 @@
 package flash
 
 import (
+	"errors"
 	"math"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
@@ -12,16 +13,23 @@ import (
 // DT returns the state of f at density rho in kg/m³ and temperature T in
 // K: the equation of state itself where (T, ρ) is a stable single phase,
 // and the liquid–vapour mixture of that overall density where ρ lies
-// between the saturated densities at T. At exactly the triple-point
-// temperature a mixture's solid fraction is not fixed: the state without
-// solid is returned, flagged Indeterminate.
+// between the saturated densities at T. For water and CO2, below the
+// triple-point temperature ρ is placed against the vapour and the solid
+// on the sublimation curve at T (solid–vapour between them, the solid at
+// the pressure where its density is ρ beyond), and for ice Ih against the
+// solid and the liquid on its melting curve; above it, dry ice denser
+// than the liquid on its melting curve at T is solid–liquid or solid. On
+// the triple line a mixture's fractions are not fixed: the state of
+// least solid is returned, flagged Indeterminate (liquid–vapour, or for
+// dry ice between the solid and the liquid densities solid–liquid).
 //
 // Special cases are:
 //
 //	rho or T NaN, ±Inf or ≤ 0: ErrInvalidInput
-//	below the triple-point temperature, between the vapour on the
-//	  sublimation curve and the liquid on the melting curve: the solid
-//	  region (ErrOutOfRange; ErrUndefined without solid data)
+//	a state with solid beyond the solid model (water above 208.566 MPa,
+//	  naming the other ices; CO2 above 800 MPa): ErrOutOfRange
+//	below the triple-point temperature of a fluid without a solid model
+//	  (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
 func DT(f *fluid.Fluid, rho, T float64) (State, error) { return DTWith(f, rho, T, Options{}) }
 
@@ -34,8 +42,42 @@ func DTWith(f *fluid.Fluid, rho, T float64, opt Options) (State, error) {
 		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt, 3); err != nil {
 		return State{}, err
 	}
+	if k.sol.ok && !k.metaFluid() && (k.onTripleT(T) || k.belowTripleT(T) && !k.clearVapour(rho, T) || k.denseCO2(rho, T)) {
+		return k.done(k.dtSolid(rho, T))
+	}
+	st, err := k.dtFluid(rho, T)
+	if err == errSolid && !k.decided {
+		return k.done(k.dtSolid(rho, T))
+	}
+	return k.done(st, err)
+}
+
+// clearVapour reports whether (T, ρ) below the triple point is a vapour
+// by the node bounds: ρ below p_sub/(RT) for a lower bound of the
+// sublimation pressure p_sub at T, and so below the saturated vapour's
+// density (its compression factor is below 1).
+func (k *call) clearVapour(rho, T float64) bool {
+	n := k.sol.n
+	if T < n.subTMin() {
+		return false
+	}
+	lo, _ := n.subPBounds(T)
+	return rho < lo/(k.f.GasConstant()*T)
+}
+
+// denseCO2 reports whether (T, ρ) above the triple point may reach the
+// melting curve of dry ice: denser than the liquid at the triple point
+// (the liquid on the melting curve grows denser with T).
+func (k *call) denseCO2(rho, T float64) bool {
+	n := k.sol.n
+	return n.meltRising && !k.belowTripleT(T) && T <= n.meltEndT() && rho > k.f.Triple().RhoLiquid*(1-1e-9)
+}
+
+// dtFluid is the fluid path of DT.
+func (k *call) dtFluid(rho, T float64) (State, error) {
+	f := k.f
 	c := f.Critical()
-	if T >= k.c.tt && T < c.T && !k.opt.AllowMetastable {
+	if T >= k.sol.tt && T < c.T && !k.opt.AllowMetastable {
 		// Well inside the dome by the auxiliary densities: a mixture.
 		rl, err1 := f.AuxLiquidDensity(T)
 		rv, err2 := f.AuxVaporDensity(T)
@@ -52,14 +94,14 @@ func DTWith(f *fluid.Fluid, rho, T float64, opt Options) (State, error) {
 	pr, perr := f.Props(T, rho)
 	ok := (perr == nil || isRangeErr(perr) && pr.P > f.Limits().PCeil) &&
 		(finiteProps(&pr) || pr.Flags&AtCritical != 0) // the critical state: (dp/drho)_T = 0
-	if T >= c.T || T < k.c.tt {
+	if T >= c.T || T < k.sol.tt {
 		if !ok {
-			if T < k.c.tt && perr != nil && !isRangeErr(perr) {
-				return State{}, k.c.solidError(k.op, "between the vapour and the condensed phases below the triple point", k.in[0], k.in[1])
+			if T < k.sol.tt && perr != nil && !isRangeErr(perr) && !k.decided {
+				return State{}, k.solidError("between the vapour and the condensed phases below the triple point")
 			}
 			return State{}, k.rewrap(perr)
 		}
-		if T < k.c.tt {
+		if T < k.sol.tt {
 			// The vapour below the sublimation curve, the liquid above
 			// the melting curve; and the branch must match.
 			return k.belowTriple(&pr)
@@ -145,14 +187,23 @@ func (k *call) satT(T float64) (fluid.Saturation, error) {
 // (see State) over saturation states at each T, bracketed. Isochores
 // that cross the dome twice (water's liquid near 4 °C, whose saturated
 // density has a maximum) are handled, since the function of T is the
-// same. On the triple line (T = Tt) with u below the liquid–vapour
-// mixture there, the state has solid: an error.
+// same. At the triple point u(T) rises at fixed T: where (ρ, u) lies among
+// the three-phase mixtures DU returns Phase Triple with the fractions
+// they fix (T and p those of the triple point), below them it follows the
+// isochore through the solid–vapour, solid–liquid and solid states (with
+// their mixture cv), and for dense CO2 above the triple point along the
+// melting curve. A vessel cooled or vented through the triple point thus
+// passes through Triple states and continues as solid–vapour.
 //
 // Special cases are:
 //
 //	rho NaN, ±Inf or ≤ 0, u NaN or ±Inf: ErrInvalidInput
-//	u below the fluid states of the isochore: the solid region
-//	  (ErrOutOfRange; ErrUndefined without solid data)
+//	u below the states of the isochore at the lowest modelled
+//	  temperature: ErrOutOfRange
+//	a state with solid beyond the solid model (water above 208.566 MPa,
+//	  naming the other ices; CO2 above 800 MPa): ErrOutOfRange
+//	u below the fluid at the triple point of a fluid without a solid
+//	  model (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
 func DU(f *fluid.Fluid, rho, u float64) (State, error) { return DUWith(f, rho, u, Options{}) }
 
@@ -164,7 +215,28 @@ func DUWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 		fluid.Input{Name: "u", Value: u, Unit: "J/kg"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	return k.isochoric(rho, qU, u)
+	if k.sol.ok && !k.metaFluid() && rho <= f.Limits().RhoCeil {
+		tp, _ := k.triple()
+		_, hi, three := tripleURange(tp, 1/rho)
+		if !three && (rho < tp.Vapor.Rho || k.sol.anomalous() && rho > tp.Liquid.Rho) {
+			// A vapour isochore, or one of liquid water denser than at
+			// the triple point: below its state at the triple-point
+			// temperature it meets the sublimation or the melting curve.
+			if pr, err := f.Props(tp.T, rho); err == nil {
+				three, hi = true, pr.U
+			}
+		}
+		if three && u <= hi+qU.tol(f, nil, u) || k.sol.n.meltRising && rho > f.Triple().RhoLiquid*(1-1e-9) {
+			// In or below the three-phase mixtures of this density;
+			// or dry ice, or the melting curve above the triple point.
+			return k.done(k.duSolid(rho, u))
+		}
+	}
+	st, err := k.isochoric(rho, qU, u)
+	if err == errSolid && !k.decided {
+		return k.done(k.duSolid(rho, u))
+	}
+	return k.done(st, err)
 }
 
 // isochoric solves X(T, ρ) = x along the isochore ρ, X rising with T
@@ -185,11 +257,13 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	}
 	// A single phase first.
 	pr, ok := newton1(f, X, x, T0, rho, true, lim.TFloor, lim.TCeil)
-	if ok && want != TwoPhase && pr.T < k.c.tt {
+	if ok && want != TwoPhase && pr.T < k.sol.tt {
 		// A fluid below the triple point, or a metastable vapour there
 		// with the equilibrium state elsewhere on the isochore.
-		if st, err := k.belowTriple(&pr); err == nil {
-			return st, nil
+		if !k.decided {
+			if st, err := k.belowTriple(&pr); err == nil {
+				return st, nil
+			}
 		}
 		ok = false
 	}
@@ -218,10 +292,10 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	if gT, rl, rv, okg := k.guessSat(); okg {
 		gl, gv = rl, rv
 		T0 = gT
-	} else if ok && pr.T > k.c.tt && pr.T < c.T {
+	} else if ok && pr.T > k.sol.tt && pr.T < c.T {
 		T0 = pr.T
 	} else {
-		T0 = 0.5 * (k.c.tt + c.T)
+		T0 = 0.5 * (k.sol.tt + c.T)
 	}
 	hiT := c.T
 	if _, ok := props(f, c.T, rho); !ok {
@@ -281,7 +355,7 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 		dT, _ := X.partials(&pr)
 		return X.of(&pr) - x, dT
 	}
-	lo, hi := k.c.tt, hiT
+	lo, hi := k.sol.tt, hiT
 	rlo, _ := eval(lo)
 	if failed != nil {
 		return State{}, k.rewrap(failed)
@@ -289,10 +363,10 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	if rlo > 0 {
 		// Below the triple line: a vapour below the sublimation curve,
 		// or solid.
-		if inside || !ok {
-			return State{}, k.c.solidError(k.op, "below the liquid-vapour states at the triple-point temperature", k.in[0], k.in[1])
+		if k.decided {
+			return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 		}
-		return k.belowTriple(&pr)
+		return State{}, k.solidError("below the liquid-vapour states at the triple-point temperature")
 	}
 	rhi, _ := eval(hi)
 	if failed != nil {
@@ -350,27 +424,20 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 }
 
 // belowTriple finishes a single-phase state below the triple-point
-// temperature: fluid only where the solid curves say so, and on the
-// branch they allow.
+// temperature: fluid only where the solid curves say so (finish), and on
+// the branch of its phase.
 func (k *call) belowTriple(pr *fluid.Props) (State, error) {
-	c := k.f.Critical()
-	r, _, why := k.c.classify(pr.T, pr.P)
-	if r == regionFluid && k.c.hasSub && (pr.Rho < c.Rho) != (pr.P <= k.c.psub(pr.T)) {
-		r, why = regionSolid, "between the vapour and the condensed phases below the triple point"
-	}
-	if r == regionFluid && pr.P > 0 {
-		// On the branch the curves allow, not a rising piece of p(ρ)
+	if !k.decided && pr.P > 0 {
+		// On the branch of its phase, not a rising piece of p(ρ)
 		// inside the equation's unstable region.
+		c := k.f.Critical()
 		root := fluid.RootVapor
 		if pr.Rho > c.Rho {
 			root = fluid.RootLiquid
 		}
 		if b, err := k.f.PropsTP(pr.T, pr.P, root, 0); err != nil || math.Abs(b.Rho-pr.Rho) > 1e-8*pr.Rho {
-			r, why = regionSolid, "between the vapour and the condensed phases below the triple point"
+			return State{}, k.solidError("between the vapour and the condensed phases below the triple point")
 		}
-	}
-	if r != regionFluid {
-		return State{}, k.c.regionError(k.op, r, why, k.in[0], k.in[1])
 	}
 	return k.wanted(k.finish(pr))
 }
@@ -378,15 +445,25 @@ func (k *call) belowTriple(pr *fluid.Props) (State, error) {
 // PD returns the state of f at pressure p in Pa and density rho in kg/m³.
 // Below pc, a density between the saturated densities at p gives the
 // liquid–vapour mixture at the saturation temperature; otherwise the
-// single phase, by Newton's method in T along the isochore. Where p falls
-// along the isochore (water's liquid below about 4 °C) the solution may
-// not be unique: PD returns the one it reaches.
+// single phase, by Newton's method in T along the isochore. For water and
+// CO2 below the triple-point pressure ρ is placed against the vapour and
+// the solid on the sublimation curve at p, above it (CO2) against the
+// liquid and the solid on the melting curve. Where p falls along the
+// isochore (water's liquid below about 4 °C) the solution may not be
+// unique: PD returns the one it reaches; for water above the triple-point
+// pressure, whose ice is lighter than its liquid, (p, ρ) can also have an
+// ice or ice–liquid solution, and PD returns the fluid state where there
+// is one. On the triple line, within the three-phase densities, the state
+// of least solid, flagged Indeterminate.
 //
 // Special cases are:
 //
 //	p or rho NaN, ±Inf or ≤ 0: ErrInvalidInput
-//	a state in a solid region: ErrOutOfRange (ErrUndefined without
-//	  solid data)
+//	no state with these p and ρ (denser than the solid at its lowest
+//	  modelled temperature): ErrOutOfRange
+//	a state with solid beyond the solid model: ErrOutOfRange
+//	a state in the solid region of a fluid without a solid model
+//	  (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
 func PD(f *fluid.Fluid, p, rho float64) (State, error) { return PDWith(f, p, rho, Options{}) }
 
@@ -397,6 +474,24 @@ func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
 		fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"}, &opt, 3); err != nil {
 		return State{}, err
 	}
+	if k.sol.ok && !k.metaFluid() && (k.belowTripleP(p) || k.onTripleP(p) ||
+		k.sol.n.meltRising && rho > f.Triple().RhoLiquid*(1-1e-9)) {
+		return k.done(k.pdSolid(p, rho))
+	}
+	st, err := k.pd(p, rho)
+	if err != nil && k.sol.ok && !k.decided && !errors.Is(err, fluid.ErrInvalidInput) {
+		// No fluid state (ice is lighter than water: the fluid is tried
+		// first, see PD).
+		if st2, err2 := k.pdSolid(p, rho); err2 == nil || err == errSolid {
+			return k.done(st2, err2)
+		}
+	}
+	return k.done(st, err)
+}
+
+// pd is the fluid path of PD.
+func (k *call) pd(p, rho float64) (State, error) {
+	f := k.f
 	c := f.Critical()
 	lim := f.Limits()
 	tlo, thi := lim.TFloor, lim.TCeil
@@ -404,13 +499,13 @@ func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
 	if p >= c.P {
 		T0 = max(T0, c.T*1.01)
 	}
-	Tf, _ := k.c.freezeT(p)
+	Tf, _ := k.freezeT(p)
 	tlo = max(tlo, Tf*(1-1e-11))
 	// The liquid-like side: T between the freezing temperature and the
 	// saturation (or critical) temperature, started at the top: the
 	// isochore meets the dome below the solution, not above it.
 	switch {
-	case p < c.P && p >= k.c.pt:
+	case p < c.P && p >= k.sol.pt:
 		s, err := k.satP(p)
 		if err == nil {
 			if q, in := qualityOf(rho, &s); in {
@@ -429,14 +524,14 @@ func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
 			thi, T0 = c.T, c.T
 		}
 	}
-	if g := k.opt.Guess; g != nil && g.T > 0 {
+	if g := k.opt.Guess; k.fluidGuess() && g.T > 0 {
 		T0 = g.T
 	}
 	pr, ok := solve1(f, qP, p, min(max(T0, tlo), thi), rho, true, tlo, thi)
 	if !ok {
 		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 	}
-	if pr.T < k.c.tt {
+	if pr.T < k.sol.tt {
 		return k.belowTriple(&pr)
 	}
 	return k.wanted(k.finish(&pr))

@@ -239,9 +239,12 @@ func (tp ThreePhase) FractionsRhoS(rho, s float64) (solid, liquid, vapor float64
 }
 
 func (tp ThreePhase) fractions(op string, rho, e float64, name, unit string, es, el, ev float64) (xs, xl, xv float64, err error) {
-	in := []fluid.Input{{Name: "rho", Value: rho, Unit: "kg/m3"}, {Name: name, Value: e, Unit: unit}}
+	// The inputs for an error, built only there (allocation-free otherwise).
+	in := func() []fluid.Input {
+		return []fluid.Input{{Name: "rho", Value: rho, Unit: "kg/m3"}, {Name: name, Value: e, Unit: unit}}
+	}
 	if !finite(rho) || rho <= 0 || !finite(e) {
-		return 0, 0, 0, fluid.NewError(op, fluid.ErrInvalidInput, "rho must be finite and positive, "+name+" finite", in...)
+		return 0, 0, 0, fluid.NewError(op, fluid.ErrInvalidInput, "rho must be finite and positive, "+name+" finite", in()...)
 	}
 	vs, vl, vv := 1/tp.Solid.Rho, 1/tp.Liquid.Rho, 1/tp.Vapor.Rho
 	// Eliminate xl = 1 − xs − xv:
@@ -251,7 +254,7 @@ func (tp ThreePhase) fractions(op string, rho, e float64, name, unit string, es,
 	d, f, g := es-el, ev-el, e-el
 	det := a*f - b*d
 	if det == 0 {
-		return 0, 0, 0, fluid.NewError(op, fluid.ErrUndefined, "degenerate triple point", in...)
+		return 0, 0, 0, fluid.NewError(op, fluid.ErrUndefined, "degenerate triple point", in()...)
 	}
 	xs = (c*f - b*g) / det
 	xv = (a*g - c*d) / det
@@ -259,7 +262,7 @@ func (tp ThreePhase) fractions(op string, rho, e float64, name, unit string, es,
 	const tol = 1e-12
 	if xs < -tol || xl < -tol || xv < -tol || xs > 1+tol || xl > 1+tol || xv > 1+tol {
 		return xs, xl, xv, fluid.NewError(op, fluid.ErrOutOfRange,
-			"not a three-phase mixture: fractions solid "+fmtG(xs)+", liquid "+fmtG(xl)+", vapour "+fmtG(xv), in...)
+			"not a three-phase mixture: fractions solid "+fmtG(xs)+", liquid "+fmtG(xl)+", vapour "+fmtG(xv), in()...)
 	}
 	clamp := func(x float64) float64 { return math.Min(math.Max(x, 0), 1) }
 	return clamp(xs), clamp(xl), clamp(xv), nil
@@ -562,8 +565,10 @@ func solve3(J [3][3]float64, F [3]float64) ([3]float64, bool) {
 // Clausius–Clapeyron line through the stored triple point.
 
 func (s Solid) guessSubP(T float64) float64 {
-	if p, err := s.f.AuxSublimationPressure(T); err == nil {
-		return p
+	if lo, hi := s.f.AuxSublimationRange(); T >= lo && T <= hi {
+		if p, err := s.f.AuxSublimationPressure(T); err == nil {
+			return p
+		}
 	}
 	t := s.f.Triple()
 	// ln p = ln pt − (Δh/R)(1/T − 1/Tt), with Δh/(R Tt) ≈ 25 for both
@@ -574,19 +579,21 @@ func (s Solid) guessSubP(T float64) float64 {
 func (s Solid) guessSubT(p float64) float64 {
 	t := s.f.Triple()
 	T := 1 / (1/t.T - math.Log(p/t.P)/(25*t.T))
-	// refine on the published curve by secant steps in (1/T, ln p).
+	// refine on the published curve by secant steps in (1/T, ln p),
+	// within its range (outside it the calls would build errors).
+	lo, hi := s.f.AuxSublimationRange()
 	for i := 0; i < 8; i++ {
-		p1, err := s.f.AuxSublimationPressure(T)
-		if err != nil {
+		T2 := T * 1.001
+		if T2 > hi {
+			T2 = T / 1.001
+		}
+		if T < lo || T > hi || T2 < lo {
 			break
 		}
-		T2 := T * 1.001
-		p2, err := s.f.AuxSublimationPressure(T2)
-		if err != nil {
-			T2 = T / 1.001
-			if p2, err = s.f.AuxSublimationPressure(T2); err != nil {
-				break
-			}
+		p1, err1 := s.f.AuxSublimationPressure(T)
+		p2, err2 := s.f.AuxSublimationPressure(T2)
+		if err1 != nil || err2 != nil {
+			break
 		}
 		slope := (math.Log(p2) - math.Log(p1)) / (1/T2 - 1/T)
 		x := 1/T + (math.Log(p)-math.Log(p1))/slope
@@ -600,8 +607,12 @@ func (s Solid) guessSubT(p float64) float64 {
 }
 
 func (s Solid) guessMeltP(T float64) float64 {
-	if p, err := s.f.AuxMeltingPressure(T); err == nil {
-		return p
+	// Within the published curve's range only: outside it the call
+	// would build an error.
+	if lo, hi := s.f.AuxMeltingRange(); T >= lo && T <= hi {
+		if p, err := s.f.AuxMeltingPressure(T); err == nil {
+			return p
+		}
 	}
 	return s.f.Triple().P
 }
