@@ -82,6 +82,9 @@ func (n *Nozzle) Flux(st0 Stagnation) (Flow, error) {
 			opt.Guess = &n.guess
 		}
 		st, err := flash.PSWith(n.F, p, st0.S, opt)
+		if err != nil && opt.Guess != nil {
+			st, err = flash.PS(n.F, p, st0.S) // a cold start, as in the vessel
+		}
 		if err != nil {
 			ferr = fmt.Errorf("isentrope s = %.6g J/(kg K) from %.6g Pa at %.6g Pa: %w", st0.S, st0.P, p, err)
 			return 0
@@ -134,6 +137,9 @@ func (n *Nozzle) Flux(st0 Stagnation) (Flow, error) {
 	fl.G = gx
 	fl.PThroat = math.Exp(x)
 	fl.Choked = x > lo
+	if !fl.Choked {
+		fl.PThroat = n.PBack
+	}
 	fl.Throat = n.guess
 	n.ratio = fl.PThroat / st0.P
 	n.unchoke = !fl.Choked

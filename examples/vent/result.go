@@ -112,34 +112,45 @@ type Row struct {
 }
 
 // Table returns the rows of the time table: about n at even times,
-// interpolated between the steps (cubic Hermite in mass and energy, of
-// the integrator's order, then a DU flash), and every event.
+// interpolated between the steps, and every event and the end.
 func (res *Result) Table(n int) ([]Row, error) {
 	pts := res.Run.Points
 	tEnd := pts[len(pts)-1].Time
 	step := kit.NiceStep(tEnd, n)
+	return res.sample(kit.Steps(0, tEnd, step), func(i int) bool { return pts[i].Event != "" || i == len(pts)-1 })
+}
+
+// Dense returns the rows of every step and of n even times between them,
+// for plotting.
+func (res *Result) Dense(n int) ([]Row, error) {
+	pts := res.Run.Points
+	return res.sample(kit.LinSpace(0, pts[len(pts)-1].Time, n), func(int) bool { return true })
+}
+
+// sample returns the rows at the times (ascending), interpolated between
+// the steps (cubic Hermite in mass and energy, of the integrator's
+// order, then a DU flash), and at the steps that keep says, in order.
+func (res *Result) sample(times []float64, keep func(i int) bool) ([]Row, error) {
+	pts := res.Run.Points
 	e := newEval(res.V)
 	var rows []Row
 	j := 0
-	for _, t := range kit.Steps(0, tEnd, step) {
-		for j+1 < len(pts) && pts[j+1].Time < t {
+	for _, t := range times {
+		for j+1 < len(pts) && pts[j+1].Time <= t {
 			j++
 		}
-		if j+1 >= len(pts) {
-			break
-		}
-		a, b := pts[j], pts[j+1]
-		if t == a.Time {
-			rows = append(rows, Row{a, res.Jets[j]})
+		if j+1 >= len(pts) || t == pts[j].Time {
+			if t == pts[j].Time && !keep(j) {
+				rows = append(rows, Row{pts[j], res.Jets[j]})
+			}
 			continue
 		}
-		if t == b.Time {
-			continue // added below as a point
-		}
+		a, b := pts[j], pts[j+1]
 		m, U := hermite(a, b, t)
+		e.dry = b.Dry
 		p, err := e.at(t, m, U)
 		if err != nil {
-			return nil, fmt.Errorf("table at t = %.6g s: %w", t, err)
+			return nil, fmt.Errorf("state at t = %.6g s: %w", t, err)
 		}
 		jet, err := e.noz.Jet(p.In)
 		if err != nil {
@@ -148,10 +159,7 @@ func (res *Result) Table(n int) ([]Row, error) {
 		rows = append(rows, Row{p, jet})
 	}
 	for i, p := range pts {
-		if p.Event != "" || i == len(pts)-1 || (i > 0 && math.Mod(p.Time, step) == 0) {
-			if len(rows) > 0 && rows[len(rows)-1].P.Time == p.Time {
-				continue
-			}
+		if keep(i) {
 			rows = append(rows, Row{p, res.Jets[i]})
 		}
 	}

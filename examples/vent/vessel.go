@@ -17,8 +17,11 @@ const (
 	// multiphase content.
 	DrawVapour Draw = iota
 	// DrawLiquid takes it through a dip tube from the bottom: the liquid
-	// while there is liquid, then the vapour (the solid of a solid–vapour
-	// content does not flow; it settles and stays).
+	// until the contents first run out of liquid, the vapour afterwards.
+	// (Vapour expanding in the vessel may condense again; that mist is
+	// taken to stay in the vessel, since drawing it as it forms would
+	// hold the contents on the dew line. The solid of solid–vapour
+	// contents does not flow: it settles and stays.)
 	DrawLiquid
 )
 
@@ -58,6 +61,7 @@ type Point struct {
 	// DM and DU are dm/dt in kg/s and dU/dt in W.
 	DM, DU float64
 	Event  string // why the point was recorded, if it ends a phase or the run
+	Dry    bool   // the dip tube has run dry (DrawLiquid): vapour is drawn
 }
 
 // eval is the right-hand side of the vessel's balances, with the warm
@@ -66,8 +70,9 @@ type eval struct {
 	v     *Vessel
 	noz   Nozzle
 	guess flash.State
-	n     int // right-hand-side evaluations
-	ps    int // PS flashes in them
+	dry   bool // a dip tube has run out of liquid: it draws vapour
+	n     int  // right-hand-side evaluations
+	ps    int  // PS flashes in them
 }
 
 func newEval(v *Vessel) *eval {
@@ -78,7 +83,7 @@ func newEval(v *Vessel) *eval {
 func (e *eval) at(t, m, U float64) (Point, error) {
 	e.n++
 	v := e.v
-	pt := Point{Time: t, M: m, U: U}
+	pt := Point{Time: t, M: m, U: U, Dry: e.dry}
 	if !(m > 0) {
 		return pt, fmt.Errorf("vessel empty (mass %g kg)", m)
 	}
@@ -87,12 +92,21 @@ func (e *eval) at(t, m, U float64) (Point, error) {
 		opt.Guess = &e.guess
 	}
 	st, err := flash.DUWith(v.F, m/v.Volume, U/m, opt)
+	if err != nil && opt.Guess != nil {
+		// A warm start should never hurt, but near the critical point
+		// one has failed to converge where a cold start succeeds.
+		st, err = flash.DU(v.F, m/v.Volume, U/m)
+	}
 	if err != nil {
-		return pt, fmt.Errorf("contents at %.6g kg/m3, %.6g J/kg: %w", m/v.Volume, U/m, err)
+		return pt, fmt.Errorf("contents at %.10g kg/m3, %.10g J/kg: %w", m/v.Volume, U/m, err)
 	}
 	e.guess = st
 	pt.St = st
-	pt.In, err = drawn(st, v.Draw)
+	d := v.Draw
+	if e.dry {
+		d = DrawVapour
+	}
+	pt.In, err = drawn(st, d)
 	if err != nil {
 		return pt, err
 	}
@@ -142,6 +156,16 @@ func drawn(st flash.State, d Draw) (Stagnation, error) {
 		return Stagnation{}, fmt.Errorf("no phase that flows in the %v contents", st.Phase)
 	}
 	return Stagnation{P: st.P, H: vap.H, S: vap.S, Phase: flash.Vapor}, nil
+}
+
+// hasLiquid reports whether st holds liquid.
+func hasLiquid(st flash.State) bool {
+	for _, ph := range st.Phases[:st.N] {
+		if ph.Phase == flash.Liquid && ph.Fraction > 0 {
+			return true
+		}
+	}
+	return false
 }
 
 // Run is the result of a vent.
@@ -235,7 +259,7 @@ func (v *Vessel) Integrate(m0, T0 float64, set Settings) (run Run, err error) {
 	changed := func(a, b Point) bool {
 		return a.St.Phase != b.St.Phase || b.St.P <= set.PEnd
 	}
-	const maxSteps = 200000
+	const maxSteps = 50000
 	for n := 0; ; n++ {
 		if n == maxSteps {
 			run.Reason = "too many steps"
@@ -290,6 +314,16 @@ func (v *Vessel) Integrate(m0, T0 float64, set Settings) (run Run, err error) {
 				last = true
 			} else {
 				q.Event = p.St.Phase.String() + " -> " + q.St.Phase.String()
+				if v.Draw == DrawLiquid && !e.dry && p.In.Phase == flash.Liquid && !hasLiquid(q.St) {
+					// The dip tube runs dry: re-evaluate the point
+					// with the vapour draw-off.
+					e.dry = true
+					tq := q.Time
+					if q, err = e.at(tq, q.M, q.U); err != nil {
+						return run, err
+					}
+					q.Event = p.St.Phase.String() + " -> " + q.St.Phase.String() + ", dip tube dry"
+				}
 			}
 		} else if last {
 			run.Reason = "end time reached"

@@ -59,13 +59,19 @@ type Quantity struct {
 	set    string  // the flag that set it, "" if none
 	lo, hi float64 // accepted SI range, checked by Flags.Parse
 	bounds bool
-	opt    bool // no default value: -h shows none
+	opt    bool          // no default value: -h shows none
+	fs     *flag.FlagSet // where its flags are registered
 }
 
 // Optional marks the quantity as one without a default value: -h shows
 // none, and the program decides by IsSet.
 func (q *Quantity) Optional() *Quantity {
 	q.opt = true
+	for _, u := range q.units {
+		if fl := q.fs.Lookup(q.name + "-" + u.suffix); fl != nil {
+			fl.DefValue = "" // registered before: -h would show the default
+		}
+	}
 	return q
 }
 
@@ -145,7 +151,7 @@ func (f *Flags) usage() {
 }
 
 func (f *Flags) quantity(name, what string, def float64, units ...unit) *Quantity {
-	q := &Quantity{name: name, what: what, units: units, si: units[0].toSI(def)}
+	q := &Quantity{name: name, what: what, units: units, si: units[0].toSI(def), fs: f.fs}
 	f.quantities = append(f.quantities, q)
 	for i, u := range units {
 		usage := what + " in " + u.symbol

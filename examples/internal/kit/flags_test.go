@@ -112,6 +112,16 @@ func TestFlagsErrors(t *testing.T) {
 			t.Errorf("-h output lacks %q:\n%s", w, out.String())
 		}
 	}
+	// An optional quantity shows no default.
+	out.Reset()
+	fs = NewFlags("x", "synopsis line", &out)
+	fs.Pressure("p", "an optional pressure", 0).Optional()
+	if err := fs.Parse([]string{"-h"}); !errors.Is(err, flag.ErrHelp) {
+		t.Errorf("-h: %v, want flag.ErrHelp", err)
+	}
+	if strings.Contains(out.String(), "default") {
+		t.Errorf("-h shows a default of an optional quantity:\n%s", out.String())
+	}
 }
 
 func TestNiceSteps(t *testing.T) {
