@@ -195,7 +195,7 @@ func run(args []string, stdout, stderr io.Writer) error {
 	prog := kit.NewProgress(stderr, "vent", c.quiet)
 	set := c.set
 	set.OnStep = func(p Point) {
-		prog.Step("venting", int(math.Round(p.Time)), int(math.Round(set.TEnd)))
+		prog.Step("venting [simulated s]", int(math.Round(p.Time)), int(math.Round(set.TEnd)))
 	}
 	r, err := c.v.Integrate(c.m0, c.T0, set)
 	if err != nil {

@@ -47,7 +47,7 @@ func drawVent(base string, u kit.Units, res *Result) ([]string, error) {
 		}
 		return v
 	}
-	pp := timePlot("Vessel pressure", "pressure p ["+u.PUnit+"]", res, rows, tScale, tUnit,
+	pp := timePlot("Vessel pressure (log scale)", "pressure p ["+u.PUnit+"]", res, rows, tScale, tUnit,
 		[]series{{"vessel", func(r Row) float64 { return u.P(r.P.St.P) }, kit.Line(vesselC, 1.8)},
 			{"orifice throat (choked)", func(r Row) float64 {
 				if !r.P.Flow.Choked {
@@ -55,20 +55,20 @@ func drawVent(base string, u kit.Units, res *Result) ([]string, error) {
 				}
 				return u.P(r.P.Flow.PThroat)
 			}, kit.Line(kit.IsentropeC, 1.2, 4, 2)}},
-		[]refLine{{u.P(tt.P), "triple point"}, {u.P(res.V.PAmb), "ambient"}})
+		[]refLine{{u.P(tt.P), "triple point"}, {u.P(res.V.PAmb), "ambient"}}, true)
 	tp := timePlot("Temperature", "temperature T ["+u.TUnit+"]", res, rows, tScale, tUnit,
 		[]series{{"vessel contents", func(r Row) float64 { return u.T(r.P.St.T) }, kit.Line(vesselC, 1.8)},
 			{"jet at ambient pressure", func(r Row) float64 { return flowing(r, u.T(r.Jet.T)) }, kit.Line(jetC, 1.2, 4, 2)}},
-		[]refLine{{u.T(tt.T), "triple point"}})
+		[]refLine{{u.T(tt.T), "triple point"}}, false)
 	mp := timePlot("Mass in the vessel", "mass [kg]", res, rows, tScale, tUnit,
 		[]series{{"total", func(r Row) float64 { return r.P.M }, kit.Line(vesselC, 1.8)},
 			{"liquid", func(r Row) float64 { return r.P.M * phaseFraction(r.P.St, flash.Liquid) }, kit.Line(kit.IsochoreC, 1.4)},
 			{"dry ice", func(r Row) float64 { return r.P.M * r.P.St.Solid }, kit.Line(kit.TripleC, 1.4)}},
-		nil)
+		nil, false)
 	dp := timePlot("Dry-ice (solid) mass fraction", "solid mass fraction", res, rows, tScale, tUnit,
 		[]series{{"vessel contents", func(r Row) float64 { return r.P.St.Solid }, kit.Line(vesselC, 1.8)},
 			{"jet at ambient pressure", func(r Row) float64 { return flowing(r, r.Jet.Solid) }, kit.Line(jetC, 1.4, 4, 2)}},
-		nil)
+		nil, false)
 	return kit.Save(base, 2*panelW, 2*panelH, []*plot.Plot{pp, tp}, []*plot.Plot{mp, dp})
 }
 
@@ -91,7 +91,7 @@ type refLine struct {
 // timePlot draws the series against time, shades the time spent at the
 // triple point, draws the reference lines and puts the key in a corner
 // free of lines.
-func timePlot(title, yLabel string, res *Result, rows []Row, tScale float64, tUnit string, ss []series, refs []refLine) *plot.Plot {
+func timePlot(title, yLabel string, res *Result, rows []Row, tScale float64, tUnit string, ss []series, refs []refLine, logY bool) *plot.Plot {
 	p := kit.NewPlot(title, "time ["+tUnit+"]", yLabel)
 	kit.AddGrid(p)
 	lo, hi := math.Inf(1), math.Inf(-1)
@@ -132,9 +132,19 @@ func timePlot(title, yLabel string, res *Result, rows []Row, tScale float64, tUn
 	if res.TripleStart >= 0 {
 		key.Entries = append(key.Entries, kit.KeyEntry{Text: "at the triple point", Fill: kit.SolidLiqC})
 	}
+	if logY {
+		// Place the key in decades: the corners are judged on the log scale.
+		lo, hi = math.Log10(lo), math.Log10(hi)
+		for i := range all {
+			all[i].Y = math.Log10(all[i].Y)
+		}
+	}
 	pad := 0.05 * (hi - lo)
 	lo, hi = lo-pad, hi+pad
 	hi = placeKey(&key, all, tEnd, lo, hi)
+	if logY {
+		lo, hi = math.Pow(10, lo), math.Pow(10, hi)
+	}
 	if res.TripleStart >= 0 {
 		a, b := res.TripleStart/tScale, res.TripleEnd/tScale
 		if poly, err := plotter.NewPolygon(plotter.XYs{{X: a, Y: lo}, {X: b, Y: lo}, {X: b, Y: hi}, {X: a, Y: hi}}); err == nil {
@@ -151,14 +161,37 @@ func timePlot(title, yLabel string, res *Result, rows []Row, tScale float64, tUn
 		}
 		l.LineStyle = kit.Line(kit.TripleC, 0.7, 2, 2)
 		p.Add(l)
-		// Above the line, or below it for the lower of two close lines.
-		dy := 0.035 * (hi - lo)
+		// Above the line, or below it for the lower of two close lines
+		// (in the plot's own scale).
+		sc := func(y float64) float64 { return y }
+		inv := sc
+		if logY {
+			sc, inv = math.Log10, func(y float64) float64 { return math.Pow(10, y) }
+		}
+		span := sc(hi) - sc(lo)
+		dy := 0.035 * span
 		for k, o := range refs {
-			if k != i && o.y > r.y && o.y-r.y < 0.08*(hi-lo) {
+			if k != i && o.y > r.y && sc(o.y)-sc(r.y) < 0.08*span {
 				dy = -dy
 			}
 		}
-		labs = append(labs, kit.Label{X: tEnd * 0.99, Y: r.y + dy, Text: fmt.Sprintf("%s %.4g", r.text, r.y), Color: kit.TripleC, Size: 7, Align: 1})
+		// At the right end or the left, whichever keeps farther from
+		// the lines (the label spans about a fifth of the width).
+		ly := sc(r.y) + dy
+		clear := func(x0, x1 float64) float64 {
+			d := math.Inf(1)
+			for _, q := range all {
+				if q.X >= x0 && q.X <= x1 {
+					d = math.Min(d, math.Abs(q.Y-ly))
+				}
+			}
+			return d
+		}
+		lab := kit.Label{X: tEnd * 0.99, Y: inv(ly), Text: fmt.Sprintf("%s %.4g", r.text, r.y), Color: kit.TripleC, Size: 7, Align: 1}
+		if clear(0, 0.2*tEnd) > clear(0.8*tEnd, tEnd) {
+			lab.X, lab.Align = tEnd*0.01, -1
+		}
+		labs = append(labs, lab)
 	}
 	p.Add(lines...)
 	kit.AddLabels(p, labs...)
@@ -167,6 +200,9 @@ func timePlot(title, yLabel string, res *Result, rows []Row, tScale float64, tUn
 	p.Y.Min, p.Y.Max = lo, hi
 	p.X.Tick.Marker = kit.LinearTicks(6)
 	p.Y.Tick.Marker = kit.LinearTicks(6)
+	if logY {
+		kit.LogPressure(p, lo, hi)
+	}
 	return p
 }
 
