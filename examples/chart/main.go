@@ -41,6 +41,10 @@ saturation dome, isotherms or isobars, isentropes or isenthalps, quality
 lines and isochores, and for CO2 and water the solid regions (solid-vapour,
 solid-liquid) and the triple line from the solid model.
 
+The ranges default to the fluid's: from the solid's lowest temperature (or
+the triple point) to 1.6 Tc, and from half the lowest coexistence pressure
+to 10 pc, within the range of the equation of state.
+
 Usage: chart [flags]`
 
 func main() {
@@ -80,10 +84,10 @@ func parse(args []string, stderr io.Writer) (config, error) {
 	which := fs.String("charts", "ph,ts", "which charts, comma-separated: ph, ts")
 	out := fs.String("out", ".", "directory for the files")
 	prefix := fs.String("prefix", "", "file name prefix (default: the fluid's name); files are PREFIX-ph.png, PREFIX-ph.svg, ...")
-	tmin := fs.Temperature("tmin", "lowest temperature of the charts (default: the solid's or the triple point's)", 0)
-	tmax := fs.Temperature("tmax", "highest temperature of the charts (default: 1.6 Tc within the equation's range)", 0)
-	pmin := fs.Pressure("pmin", "lowest pressure of the charts (default: half the lowest coexistence pressure)", 0)
-	pmax := fs.Pressure("pmax", "highest pressure of the charts (default: 10 pc within the equation's range)", 0)
+	tmin := fs.Temperature("tmin", "lowest temperature of the charts", 0)
+	tmax := fs.Temperature("tmax", "highest temperature of the charts", 0)
+	pmin := fs.Pressure("pmin", "lowest pressure of the charts", 0)
+	pmax := fs.Pressure("pmax", "highest pressure of the charts", 0)
 	for _, q := range []*kit.Quantity{tmin, tmax, pmin, pmax} {
 		q.Optional()
 	}

@@ -82,7 +82,7 @@ func parse(args []string, stderr io.Writer) (config, error) {
 	sh := fs.TemperatureDifference("superheat", "suction superheat", 5).Within(0, 50)
 	sc := fs.TemperatureDifference("subcool", "subcooling at the condenser outlet (subcritical cycles)", 3).Within(0, 50)
 	eta := fs.Float("eta", 0.7, "compressor isentropic efficiency, 0 < eta <= 1")
-	pgc := fs.Pressure("pgc", "fixed high-side (gas-cooler) pressure of the transcritical cycle instead of the search", 0).Optional()
+	pgc := fs.Pressure("pgc", "fixed high-side (gas-cooler) pressure of the transcritical cycle, replacing the search,", 0).Optional()
 	pmax := fs.Pressure("pmax", "highest high-side pressure of the search", 140).Within(1e5, 1e9)
 	names := fs.String("fluids", "CO2,R134a", "the fluids to compare, comma-separated")
 	units := fs.String("units", "eng", "units of the output: eng (°C, bar, kJ/kg) or si (K, MPa, kJ/kg)")
@@ -178,7 +178,9 @@ func report(w io.Writer, c config, cycles []Cycle) {
 		}
 		fmt.Fprintf(w, "\n%s (%s)\n", cy.Fluid.Name(), kind)
 		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
-		fmt.Fprintf(tw, "point\tT [%s]\tp [%s]\th [%s]\ts [%s]\tquality\t\n", u.TUnit, u.PUnit, u.HUnit, u.SUnit)
+		// tabwriter counts bytes: ASCII unit names keep the columns aligned
+		ascii := strings.NewReplacer("°", "", "·", " ")
+		fmt.Fprintf(tw, "point\tT [%s]\tp [%s]\th [%s]\ts [%s]\tquality\t\n", ascii.Replace(u.TUnit), u.PUnit, u.HUnit, ascii.Replace(u.SUnit))
 		for _, pt := range []struct {
 			name string
 			st   flash.State

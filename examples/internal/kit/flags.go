@@ -59,8 +59,8 @@ type Quantity struct {
 	set    string  // the flag that set it, "" if none
 	lo, hi float64 // accepted SI range, checked by Flags.Parse
 	bounds bool
-	opt    bool          // no default value: -h shows none
-	fs     *flag.FlagSet // where its flags are registered
+	opt    bool // no default value: -h shows none
+	fs     *flag.FlagSet
 }
 
 // Optional marks the quantity as one without a default value: -h shows
@@ -69,7 +69,7 @@ func (q *Quantity) Optional() *Quantity {
 	q.opt = true
 	for _, u := range q.units {
 		if fl := q.fs.Lookup(q.name + "-" + u.suffix); fl != nil {
-			fl.DefValue = "" // registered before: -h would show the default
+			fl.DefValue = ""
 		}
 	}
 	return q
@@ -122,7 +122,11 @@ func (v *flagValue) Set(s string) error {
 	if v.q.set != "" && v.q.set != flagName {
 		return fmt.Errorf("%s was already given; set %s once, in one unit", v.q.set, v.q.what)
 	}
-	v.q.si = v.u.toSI(x)
+	si := v.u.toSI(x)
+	if math.IsInf(si, 0) {
+		return errors.New("out of the range of numbers")
+	}
+	v.q.si = si
 	v.q.set = flagName
 	return nil
 }

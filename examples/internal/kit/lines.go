@@ -128,10 +128,17 @@ func (c *Chart) Triple() (solid, liquid, vapour Pt) {
 	return Pt{}, Pt{}, Pt{}
 }
 
-// Critical returns the critical point.
+// Critical returns the critical point of the equation (its reducing
+// temperature and density). An equation not constrained exactly there
+// (R-134a's gives (∂p/∂ρ)_T slightly below zero at its Tc and ρc) returns
+// its values with fluid.ErrUnstable; they are used as they are, since the
+// point is only marked.
 func (c *Chart) Critical() (Pt, error) {
 	cp := c.F.Critical()
 	p, err := c.F.Props(cp.T, cp.Rho)
+	if errors.Is(err, fluid.ErrUnstable) {
+		err = nil
+	}
 	return fromProps(p), err
 }
 

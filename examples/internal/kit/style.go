@@ -5,7 +5,6 @@ import (
 	"math"
 	"strconv"
 
-	stdfont "golang.org/x/image/font"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/text"
@@ -35,7 +34,7 @@ var (
 var Sans = font.Font{Typeface: "Liberation", Variant: "Sans"}
 
 // SansBold is its bold face, for titles.
-var SansBold = font.Font{Typeface: "Liberation", Variant: "Sans", Weight: stdfont.WeightBold}
+var SansBold = font.Font{Typeface: "Liberation", Variant: "Sans", Weight: 3} // x/image/font.WeightBold
 
 // NewPlot returns an empty plot in tripoint's style.
 func NewPlot(title, xLabel, yLabel string) *plot.Plot {
