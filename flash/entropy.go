@@ -162,6 +162,23 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 		return State{}, k.fail(fluid.ErrOutOfRange, "no state with these h and s")
 	}
 	tolH := qH.tol(f, nil, h)
+	// A budget of PS calls bounds the search where (h, s) has no state.
+	budget := 80
+	ps := func(ln float64, guess *State) (State, bool) {
+		if budget <= 0 {
+			return State{}, false
+		}
+		budget--
+		inner.Guess = nil
+		var g State
+		if guess != nil {
+			g = *guess
+			inner.Guess = &g
+		}
+		st, err := PSWith(f, math.Exp(ln), s, inner)
+		return st, err == nil
+	}
+	stalls, scanned := 0, false
 	for it := 0; it < 100; it++ {
 		r := last.H - h
 		if math.Abs(r) <= 10*tolH {
@@ -171,6 +188,9 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 			}
 			return st, nil
 		}
+		// Only states bound the bracket: the isentrope can cross bands
+		// without a modelled state (water above 208.566 MPa below
+		// 273.16 K, where other ices exist).
 		if r > 0 {
 			phi = lp
 		} else {
@@ -181,54 +201,69 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 		if !(ln > plo && ln < phi) {
 			ln = 0.5 * (plo + phi)
 		}
-		moved := false
-		for try := 0; try < 60 && !moved; try++ {
-			if phi-plo < 1e-15 || math.Abs(ln-lp) < 1e-16 {
-				break
-			}
-			g := last
-			inner.Guess = &g
-			st, err := PSWith(f, math.Exp(ln), s, inner)
-			if err == nil {
-				last, lp, moved = st, ln, true
-				break
-			}
-			if try == 0 {
-				// The isentrope may cross a band without a modelled
-				// state (water above 208.566 MPa below 273.16 K, where
-				// other ices exist): look beyond it before stepping back.
-				d := ln - lp
-				for j := 0; j < 8 && !moved; j++ {
-					d *= 2
-					lf := lp + d
-					if !(lf > plo && lf < phi) {
-						lf = plo + 0.999*(phi-plo)
-						if d < 0 {
-							lf = plo + 0.001*(phi-plo)
-						}
-					}
-					if st, err := PSWith(f, math.Exp(lf), s, inner); err == nil {
-						last, lp, moved = st, lf, true
-					}
-				}
-				if moved {
-					break
-				}
-			}
-			// No state there: bound the bracket and step back.
-			if ln > lp {
-				phi = ln
-			} else {
-				plo = ln
-			}
+		st, ok := ps(ln, &last)
+		for j := 0; !ok && j < 12 && budget > 0; j++ {
+			// No state there: back toward the last one.
 			ln = 0.5 * (ln + lp)
+			if math.Abs(ln-lp) < 1e-15 {
+				break
+			}
+			st, ok = ps(ln, &last)
 		}
-		if !moved {
-			break
+		if ok && math.Abs(ln-lp) > 1e-9 {
+			stalls = 0
+		} else {
+			stalls++
+		}
+		if ok {
+			last, lp = st, ln
+		}
+		if !ok || stalls >= 3 {
+			// Stuck at the edge of such a band: scan the bracket for
+			// the states on either side of the solution, once.
+			if scanned || budget <= 0 {
+				break
+			}
+			scanned = true
+			a, b, ok := hsScan(ps, h, plo, phi)
+			if !ok {
+				break
+			}
+			last, lp, plo, phi, stalls = a.st, a.ln, a.ln, b.ln, 0
 		}
 	}
 	if have && math.Abs(last.H-h) <= qH.floor(f, nil, h) {
 		return last, nil
 	}
 	return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isentrope did not converge")
+}
+
+// hsPoint is a state of an isentrope at ln p.
+type hsPoint struct {
+	st State
+	ln float64
+}
+
+// hsScan scans ln p in (lo, hi) for the two neighbouring states of the
+// isentrope whose enthalpies bracket h, with PS by ps (cold: a warm start
+// from far along the isentrope misleads more than it helps).
+func hsScan(ps func(float64, *State) (State, bool), h, lo, hi float64) (a, b hsPoint, ok bool) {
+	const n = 32
+	haveA := false
+	for i := 1; i < n; i++ {
+		ln := lo + (hi-lo)*float64(i)/n
+		st, good := ps(ln, nil)
+		if !good {
+			continue
+		}
+		if st.H <= h {
+			a, haveA = hsPoint{st, ln}, true
+			continue
+		}
+		if haveA {
+			return a, hsPoint{st, ln}, true
+		}
+		return a, b, false
+	}
+	return a, b, false
 }

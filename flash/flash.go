@@ -257,6 +257,14 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 		return State{}, k.fail(fluid.ErrInvalidInput, "(p, T) cannot fix a mixture of phases")
 	}
 	meta := k.metaFluid()
+	if k.sol.ok && k.onTripleT(T) && k.onTripleP(p) && k.opt.Phase != Solid && !meta {
+		// The triple point: the saturated liquid (without solid), as on
+		// the vapour-pressure curve.
+		tp, _ := k.triple()
+		st := single(&tp.Liquid, Liquid)
+		st.Flags |= Indeterminate | Saturated
+		return k.wanted(st, nil)
+	}
 	root := rootFor(k.opt.Phase)
 	pl, hint, why := k.placePT(T, p)
 	if root == fluid.RootStable {
@@ -667,8 +675,21 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		keepLo, keepHi = lim.TFloor, lim.TCeil
 	}
 	keep := onBranch(f, sd, keepLo, keepHi)
+	mayFreeze := !meta && sd != vaporSide && k.sol.ok && !k.decided
+	if d := dXdT(X, start); mayFreeze && d > 0 && start.T+(x-X.of(start))/d < k.freezeTHi(p) &&
+		k.belowFreezing(p, X, x) {
+		// By the start's slope the state lies near or below where the
+		// liquid freezes, and it is below the liquid there: the solid
+		// paths decide.
+		return State{}, errSolid
+	}
 	T0, rho0 := extrapolate(X, x, start, sd, tlo, thi)
 	pr, ok := newton2(f, qP, p, X, x, T0, rho0, keep, start)
+	if !ok && mayFreeze && k.belowFreezing(p, X, x) {
+		// Below the liquid where it may freeze: the solid paths decide,
+		// without the fallbacks' search along the isobar.
+		return State{}, errSolid
+	}
 	if !ok && !meta {
 		// From the far end of the bracket.
 		root := fluid.RootVapor
@@ -715,7 +736,7 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 				return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
 			case below:
 				_, floor := k.freezeT(p)
-				return State{}, k.lowError(floor || tlo <= lim.TFloor)
+				return State{}, k.lowError(floor || tlo <= lim.TFloor && tlo < k.sol.tt)
 			case below || above:
 				return State{}, k.fail(fluid.ErrOutOfRange, "beyond the accepted temperature range "+
 					fmtG(lim.TFloor)+" <= T <= "+fmtG(lim.TCeil)+" K")

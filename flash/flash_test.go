@@ -4,7 +4,6 @@ import (
 	"errors"
 	"math"
 	"math/rand/v2"
-	"strings"
 	"sync"
 	"testing"
 
@@ -139,81 +138,6 @@ func TestMetastable(t *testing.T) {
 	}
 	if st, err := DT(f, rho, sat.T+5); err != nil || st.Phase != TwoPhase {
 		t.Errorf("stable DT: %v %v", st.Phase, err)
-	}
-}
-
-// TestSolidRegions places states on both sides of the published
-// sublimation and melting curves of every fluid that has them.
-func TestSolidRegions(t *testing.T) {
-	for _, f := range fluids(t) {
-		tp := f.Triple()
-		slo, shi := f.AuxSublimationRange()
-		mlo, mhi := f.AuxMeltingRange()
-		if shi == 0 {
-			// No solid data: below the triple point is an error.
-			_, err := TQ(f, tp.T-1, 1)
-			if !errors.Is(err, fluid.ErrUndefined) && !errors.Is(err, fluid.ErrOutOfRange) {
-				t.Errorf("%s below the triple point: %v", f.Name(), err)
-			}
-			continue
-		}
-		for _, T := range []float64{max(slo, f.Limits().TFloor) + 1, 0.5 * (max(slo, f.Limits().TFloor) + shi), shi - 0.5} {
-			ps, _ := f.AuxSublimationPressure(T)
-			if st, err := PT(f, 0.9*ps, T); err != nil || st.Phase != Vapor {
-				t.Errorf("%s PT(0.9 psub, %v): %v %v", f.Name(), T, st.Phase, err)
-			}
-			_, err := PT(f, 1.1*ps, T)
-			if !errors.Is(err, fluid.ErrOutOfRange) || !strings.Contains(err.Error(), "solid") {
-				t.Errorf("%s PT(1.1 psub, %v): %v", f.Name(), T, err)
-			}
-			// The saturated vapour on the sublimation curve, and no
-			// solid-vapour mixture yet.
-			if st, err := TQ(f, T, 1); err != nil || st.Phase != Vapor || st.Flags&Saturated == 0 ||
-				math.Abs(st.P-ps) > 1e-9*ps {
-				t.Errorf("%s TQ(%v, 1): %+v %v", f.Name(), T, st, err)
-			}
-			if _, err := TQ(f, T, 0.5); !errors.Is(err, fluid.ErrOutOfRange) {
-				t.Errorf("%s TQ(%v, 0.5): %v", f.Name(), T, err)
-			}
-			if st, err := PQ(f, ps, 1); err != nil || math.Abs(st.T-T) > 1e-6 {
-				t.Errorf("%s PQ(%v, 1): %v %v", f.Name(), ps, st.T, err)
-			}
-		}
-		if mhi == 0 {
-			continue
-		}
-		pLo, _ := f.AuxMeltingPressure(mlo)
-		pHi, _ := f.AuxMeltingPressure(mhi)
-		anomalous := pLo > pHi
-		for _, u := range []float64{0.1, 0.5, 0.9} {
-			T := mlo + (mhi-mlo)*u
-			if !anomalous {
-				T = mlo + math.Min(mhi-mlo, 100)*u
-			}
-			pm, _ := f.AuxMeltingPressure(T)
-			if pm > f.Limits().PMax {
-				continue
-			}
-			solidP, fluidP := 1.02*pm, 0.98*pm
-			if anomalous {
-				solidP, fluidP = fluidP, solidP
-			}
-			if st, err := PT(f, fluidP, T); err != nil || st.Phase == Vapor {
-				t.Errorf("%s PT(%v, %v) beside the melting curve: %v %v", f.Name(), fluidP, T, st.Phase, err)
-			}
-			if _, err := PT(f, solidP, T); !errors.Is(err, fluid.ErrOutOfRange) || !strings.Contains(err.Error(), "solid") {
-				t.Errorf("%s PT(%v, %v) in the solid: %v", f.Name(), solidP, T, err)
-			}
-		}
-		// Enthalpy below the liquid at the melting point: solid.
-		p := 2 * tp.P
-		if anomalous {
-			p = 1e5
-		}
-		st, err := PH(f, p, -1e7)
-		if err == nil || !strings.Contains(err.Error(), "solid") {
-			t.Errorf("%s PH(%v, -1e7): %v %v", f.Name(), p, st.Phase, err)
-		}
 	}
 }
 

@@ -49,9 +49,10 @@ const (
 // Between neighbouring points the curves are bounded by the points, since
 // each is monotone (Clausius–Clapeyron with nonzero Δh and Δv).
 type curveNodes struct {
-	tt, pt       float64   // the models' triple point, K and Pa
-	subT, subP   []float64 // ascending
-	meltT, meltP []float64 // meltP ascending from pt; meltT rising (CO2) or falling (water)
+	tt, pt       float64                // the models' triple point, K and Pa
+	tp           sublimation.ThreePhase // in the fluid's default reference state
+	subT, subP   []float64              // ascending
+	meltT, meltP []float64              // meltP ascending from pt; meltT rising (CO2) or falling (water)
 	meltRising   bool
 	err          error
 }
@@ -99,7 +100,7 @@ func buildNodes(name string) *curveNodes {
 		n.err = err
 		return n
 	}
-	n.tt, n.pt = tp.T, tp.P
+	n.tt, n.pt, n.tp = tp.T, tp.P, tp
 	sub, err := s.SublimationCurve(nNodes)
 	if err != nil {
 		n.err = err
@@ -346,7 +347,9 @@ func (k *call) freezeT(p float64) (T float64, floor bool) {
 	}
 	b := &k.sol
 	if !b.ok {
-		return max(b.tt, lim.TFloor), b.tt <= lim.TFloor
+		// Without a solid model, below the triple point is the solid
+		// region (an error wrapping fluid.ErrUndefined).
+		return max(b.tt, lim.TFloor), b.tt < lim.TFloor
 	}
 	n := b.n
 	switch {
@@ -364,6 +367,39 @@ func (k *call) freezeT(p float64) (T float64, floor bool) {
 	}
 	lo, _ := n.meltTBounds(p)
 	return max(lo, lim.TFloor), false
+}
+
+// belowFreezing reports whether X = x at pressure p lies below the liquid
+// at an upper bound of its melting temperature there (by the node
+// tables), so that the state has solid or is a liquid close above the
+// melting curve, for the solid paths to decide. It is false where the
+// fluid has no solid model or the solid side is decided.
+func (k *call) belowFreezing(p float64, X quantity, x float64) bool {
+	b := &k.sol
+	if !b.ok || k.decided || p < b.n.pt {
+		return false
+	}
+	pf, err := k.f.PropsTP(k.freezeTHi(p), p, fluid.RootLiquid, 0)
+	return err == nil && x < X.of(&pf)
+}
+
+// freezeTHi returns an upper bound of the melting temperature at p ≥ pt
+// by the node tables (above the end of the melting curve, where it ends
+// or, for water, the triple point); 0 without a solid model.
+func (k *call) freezeTHi(p float64) float64 {
+	b := &k.sol
+	if !b.ok {
+		return 0
+	}
+	n := b.n
+	switch {
+	case p > n.solidPMax() && n.meltRising:
+		return n.meltEndT()
+	case p > n.solidPMax() || p < n.pt:
+		return b.tt
+	}
+	_, Th := n.meltTBounds(p)
+	return Th
 }
 
 // lowError is the error for a fluid state below the lowest fluid

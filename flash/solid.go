@@ -173,16 +173,28 @@ func tripleSaturation(tp *sublimation.ThreePhase) fluid.Saturation {
 		Flags: Saturated | (tp.Liquid.Flags|tp.Vapor.Flags)&Extrapolated}
 }
 
-// triple returns the triple point where the models meet (computed once
-// per call).
+// triple returns the triple point where the models meet, from the node
+// table with the reference-state offsets of the call's fluid.
 func (k *call) triple() (*sublimation.ThreePhase, error) {
 	b := &k.sol
 	if !b.haveTP {
-		tp, err := b.s.Triple()
-		if err != nil {
-			return nil, k.rewrap(err)
+		b.tp = b.n.tp
+		if dh, ds := k.f.ReferenceOffsets(); dh != 0 || ds != 0 {
+			T := b.tp.T
+			shift := func(u, h, s, g, f *float64) {
+				*u += dh
+				*h += dh
+				*s += ds
+				*g += dh - T*ds
+				*f += dh - T*ds
+			}
+			for _, p := range []*fluid.Props{&b.tp.Liquid, &b.tp.Vapor} {
+				shift(&p.U, &p.H, &p.S, &p.G, &p.F)
+			}
+			sp := &b.tp.Solid
+			shift(&sp.U, &sp.H, &sp.S, &sp.G, &sp.F)
 		}
-		b.tp, b.haveTP = tp, true
+		b.haveTP = true
 	}
 	return &b.tp, nil
 }

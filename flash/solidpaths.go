@@ -511,8 +511,19 @@ func (k *call) duSolid(rho, u float64) (State, error) {
 			g := k.sol.s.Derivs(a, n.subPMin())
 			if rho*g.GP > 1 {
 				if sp, ok := k.solidSolve(qRho, rho, true, 0, n.subPMin(), k.solidFloorT(), a); ok {
-					a = sp.T
+					a = sp.T * (1 + 1e-9) // just above that pressure
+				} else if g := k.sol.s.Derivs(k.solidFloorT(), n.subPMin()); rho*g.GP > 1 {
+					a = k.solidFloorT() // above that pressure all the way down
 				}
+			}
+		}
+		if k.sol.anomalous() && a < n.meltEndT() {
+			// Below the end of ice Ih's melting curve a dense isochore
+			// can pass through the other ices: the solid–liquid part
+			// above it first.
+			c := k.side()
+			if sm, err := c.atTRho(rho, n.meltEndT(), true); err == nil && sm.U <= u {
+				a = n.meltEndT()
 			}
 		}
 		return k.isochoreRoot(rho, u, a, tp.T, true)
@@ -569,25 +580,37 @@ func (k *call) isochoreRoot(rho, u, a, b float64, below bool) (State, error) {
 		}
 		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 	}
+	// Where a dense isochore of water passes through the other ices the
+	// states are outside the models: such a temperature bounds the
+	// bracket from above, as the ices lie above the ice Ih it starts in.
+	gaps := below && k.sol.anomalous()
+	var gapErr error
+	T := 0.5 * (a + b)
 	sb, err := eval(b)
-	if err != nil {
+	switch {
+	case err != nil && !gaps:
 		return State{}, err
+	case err != nil:
+		gapErr, b = err, T
+	default:
+		fa, fb := sa.U-u, sb.U-u
+		if math.Abs(fb) <= tol {
+			return k.wantedState(sb)
+		}
+		T = a + (b-a)*(-fa)/(fb-fa)
 	}
-	fa, fb := sa.U-u, sb.U-u
-	if math.Abs(fa) <= tol {
-		return k.wantedState(sa)
-	}
-	if math.Abs(fb) <= tol {
-		return k.wantedState(sb)
-	}
-	T := a + (b-a)*(-fa)/(fb-fa)
 	if g := k.opt.Guess; g != nil && g.T > a && g.T < b {
 		T = g.T
 	}
 	for it := 0; it < 200; it++ {
 		st, err := eval(T)
 		if err != nil {
-			return State{}, err
+			if !gaps {
+				return State{}, err
+			}
+			gapErr, b = err, T
+			T = 0.5 * (a + b)
+			continue
 		}
 		r := st.U - u
 		if math.Abs(r) <= tol {
@@ -604,11 +627,20 @@ func (k *call) isochoreRoot(rho, u, a, b float64, below bool) (State, error) {
 			}
 			break
 		}
+		if gapErr != nil && r < 0 {
+			// Below a gap the root may still lie above this state:
+			// step by halves toward the gap.
+			T = 0.5 * (T + b)
+			continue
+		}
 		Tn := T - r/st.Cv
 		if !(Tn > a && Tn < b) || !isFinite(Tn) {
 			Tn = 0.5 * (a + b)
 		}
 		T = Tn
+	}
+	if gapErr != nil {
+		return State{}, gapErr
 	}
 	return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 }

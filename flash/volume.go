@@ -198,10 +198,21 @@ func DUWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 		fluid.Input{Name: "u", Value: u, Unit: "J/kg"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	if k.sol.ok && !k.metaFluid() && k.sol.n.meltRising && rho > f.Triple().RhoLiquid*(1-1e-9) &&
-		rho <= f.Limits().RhoCeil {
-		// Dry ice, or the melting curve above the triple point.
-		return k.done(k.duSolid(rho, u))
+	if k.sol.ok && !k.metaFluid() && rho <= f.Limits().RhoCeil {
+		tp, _ := k.triple()
+		_, hi, three := tripleURange(tp, 1/rho)
+		if !three && rho < tp.Vapor.Rho {
+			// A vapour isochore: below its state at the triple-point
+			// temperature it meets the sublimation curve.
+			if pr, err := f.Props(tp.T, rho); err == nil {
+				three, hi = true, pr.U
+			}
+		}
+		if three && u <= hi+qU.tol(f, nil, u) || k.sol.n.meltRising && rho > f.Triple().RhoLiquid*(1-1e-9) {
+			// In or below the three-phase mixtures of this density;
+			// or dry ice, or the melting curve above the triple point.
+			return k.done(k.duSolid(rho, u))
+		}
 	}
 	st, err := k.isochoric(rho, qU, u)
 	if err == errSolid && !k.decided {
@@ -485,7 +496,7 @@ func (k *call) pd(p, rho float64) (State, error) {
 			thi, T0 = c.T, c.T
 		}
 	}
-	if g := k.opt.Guess; g != nil && g.T > 0 {
+	if g := k.opt.Guess; k.fluidGuess() && g.T > 0 {
 		T0 = g.T
 	}
 	pr, ok := solve1(f, qP, p, min(max(T0, tlo), thi), rho, true, tlo, thi)

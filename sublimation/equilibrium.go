@@ -239,9 +239,12 @@ func (tp ThreePhase) FractionsRhoS(rho, s float64) (solid, liquid, vapor float64
 }
 
 func (tp ThreePhase) fractions(op string, rho, e float64, name, unit string, es, el, ev float64) (xs, xl, xv float64, err error) {
-	in := []fluid.Input{{Name: "rho", Value: rho, Unit: "kg/m3"}, {Name: name, Value: e, Unit: unit}}
+	// The inputs for an error, built only there (allocation-free otherwise).
+	in := func() []fluid.Input {
+		return []fluid.Input{{Name: "rho", Value: rho, Unit: "kg/m3"}, {Name: name, Value: e, Unit: unit}}
+	}
 	if !finite(rho) || rho <= 0 || !finite(e) {
-		return 0, 0, 0, fluid.NewError(op, fluid.ErrInvalidInput, "rho must be finite and positive, "+name+" finite", in...)
+		return 0, 0, 0, fluid.NewError(op, fluid.ErrInvalidInput, "rho must be finite and positive, "+name+" finite", in()...)
 	}
 	vs, vl, vv := 1/tp.Solid.Rho, 1/tp.Liquid.Rho, 1/tp.Vapor.Rho
 	// Eliminate xl = 1 − xs − xv:
@@ -251,7 +254,7 @@ func (tp ThreePhase) fractions(op string, rho, e float64, name, unit string, es,
 	d, f, g := es-el, ev-el, e-el
 	det := a*f - b*d
 	if det == 0 {
-		return 0, 0, 0, fluid.NewError(op, fluid.ErrUndefined, "degenerate triple point", in...)
+		return 0, 0, 0, fluid.NewError(op, fluid.ErrUndefined, "degenerate triple point", in()...)
 	}
 	xs = (c*f - b*g) / det
 	xv = (a*g - c*d) / det
@@ -259,7 +262,7 @@ func (tp ThreePhase) fractions(op string, rho, e float64, name, unit string, es,
 	const tol = 1e-12
 	if xs < -tol || xl < -tol || xv < -tol || xs > 1+tol || xl > 1+tol || xv > 1+tol {
 		return xs, xl, xv, fluid.NewError(op, fluid.ErrOutOfRange,
-			"not a three-phase mixture: fractions solid "+fmtG(xs)+", liquid "+fmtG(xl)+", vapour "+fmtG(xv), in...)
+			"not a three-phase mixture: fractions solid "+fmtG(xs)+", liquid "+fmtG(xl)+", vapour "+fmtG(xv), in()...)
 	}
 	clamp := func(x float64) float64 { return math.Min(math.Max(x, 0), 1) }
 	return clamp(xs), clamp(xl), clamp(xv), nil
