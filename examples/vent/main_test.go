@@ -411,3 +411,35 @@ func FuzzFlags(f *testing.F) {
 		_, _ = parse([]string{a, b, c, d}, io.Discard)
 	})
 }
+
+// FuzzNozzle: from any stagnation state flash.PT accepts, the nozzle
+// returns a finite, non-negative mass flux with its throat between the
+// back and stagnation pressures, or an error; and the jet a state or an
+// error — never a panic.
+func FuzzNozzle(f *testing.F) {
+	f.Add(57e5, 293.15, 101325.0)
+	f.Add(5.2e5, 217.0, 101325.0)
+	f.Add(200e5, 250.0, 5e5)
+	f.Add(1.2e5, 400.0, 1e5)
+	fl := co2(f)
+	f.Fuzz(func(t *testing.T, p0, T0, pb float64) {
+		if !(pb >= 100 && pb <= 2e6) {
+			return
+		}
+		st, err := flash.PT(fl, p0, T0)
+		if err != nil || st.Phase == flash.Solid {
+			return
+		}
+		noz := Nozzle{F: fl, PBack: pb}
+		in := Stagnation{P: st.P, H: st.H, S: st.S, Phase: st.Phase}
+		flow, err := noz.Flux(in)
+		if err == nil {
+			if !(flow.G >= 0) || math.IsInf(flow.G, 0) || flow.PThroat < pb || flow.PThroat > p0 {
+				t.Errorf("PT(%g Pa, %g K) to %g Pa: G = %g, throat %g Pa", p0, T0, pb, flow.G, flow.PThroat)
+			}
+		}
+		if jet, err := noz.Jet(in); err == nil && !(jet.Solid >= 0 && jet.Solid <= 1) {
+			t.Errorf("PT(%g Pa, %g K): jet solid fraction %g", p0, T0, jet.Solid)
+		}
+	})
+}
