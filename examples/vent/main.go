@@ -319,8 +319,8 @@ stay in equilibrium; real short orifices pass more liquid than it predicts.
 - Asphyxiation: up to %.1f kg of CO2 is released here. CO2 is heavier than air and
   collects in pits, cellars and enclosed or low spaces; vent outdoors or
   through a safe discharge line and monitor the atmosphere.
-- Cold burns: the jet is near %s and carries dry-ice snow; the vessel, the
-  vent line and the dry ice left in the vessel are as cold. Wear eye, face
+- Cold burns: the jet gets as cold as %s and can carry dry-ice snow; the
+  vessel, the vent line and the dry ice left in the vessel get as cold. Wear eye, face
   and hand protection; never touch dry ice with bare skin.
 - Dry-ice blockage: solid forms in the vessel, the orifice, vent lines and
   relief devices when the pressure falls below the triple point (%.4g %s);

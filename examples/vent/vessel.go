@@ -310,7 +310,7 @@ func (v *Vessel) Integrate(m0, T0 float64, set Settings) (run Run, err error) {
 			q, last = qh, false
 			if q.St.P <= set.PEnd {
 				q.Event = "end pressure"
-				run.Reason = fmt.Sprintf("the vessel pressure fell to %.6g Pa", set.PEnd)
+				run.Reason = "the vessel pressure fell to the end pressure"
 				last = true
 			} else {
 				q.Event = p.St.Phase.String() + " -> " + q.St.Phase.String()
