@@ -88,13 +88,7 @@ func slopesAt(op string, f *fluid.Fluid, c Curve, x float64, atP bool) (Slopes, 
 		return Slopes{}, fluid.NewError(op, fluid.ErrInvalidInput, "nil fluid", in)
 	}
 	if c == Saturation {
-		var s fluid.Saturation
-		var err error
-		if atP {
-			s, err = f.SaturationAtP(x)
-		} else {
-			s, err = f.SaturationAtT(x)
-		}
+		s, err := saturation(f, x, atP)
 		if err != nil {
 			return Slopes{}, rewrapIn(op, in, err)
 		}
@@ -105,21 +99,7 @@ func slopesAt(op string, f *fluid.Fluid, c Curve, x float64, atP bool) (Slopes, 
 		return Slopes{}, fluid.NewError(op, fluid.ErrInvalidInput,
 			"the curve must be Saturation, Sublimation or Melting (codes 1 to 3)", in)
 	}
-	sol, err := sublimation.For(f)
-	if err != nil {
-		return Slopes{}, rewrapIn(op, in, err)
-	}
-	var co sublimation.Coexistence
-	switch {
-	case c == Sublimation && atP:
-		co, err = sol.SublimationTemperature(x)
-	case c == Sublimation:
-		co, err = sol.SublimationPressure(x)
-	case atP:
-		co, err = sol.MeltingTemperature(x)
-	default:
-		co, err = sol.MeltingPressure(x)
-	}
+	co, err := solidCurve(f, c, x, atP)
 	if err != nil {
 		return Slopes{}, rewrapIn(op, in, err)
 	}
@@ -128,6 +108,33 @@ func slopesAt(op string, f *fluid.Fluid, c Curve, x float64, atP bool) (Slopes, 
 		second = meltPhase(f, co.T, co.P)
 	}
 	return newSlopes(c, co.T, co.P, flash.Solid, second, solidPhase(&co.Solid), fluidPhase(&co.Fluid)), nil
+}
+
+// saturation solves the vapour–liquid saturation of f at temperature x
+// (atP false) or pressure x (atP true).
+func saturation(f *fluid.Fluid, x float64, atP bool) (fluid.Saturation, error) {
+	if atP {
+		return f.SaturationAtP(x)
+	}
+	return f.SaturationAtT(x)
+}
+
+// solidCurve solves the sublimation or melting curve c of f at
+// temperature x (atP false) or pressure x (atP true).
+func solidCurve(f *fluid.Fluid, c Curve, x float64, atP bool) (sublimation.Coexistence, error) {
+	sol, err := sublimation.For(f)
+	if err != nil {
+		return sublimation.Coexistence{}, err
+	}
+	switch {
+	case c == Sublimation && atP:
+		return sol.SublimationTemperature(x)
+	case c == Sublimation:
+		return sol.SublimationPressure(x)
+	case atP:
+		return sol.MeltingTemperature(x)
+	}
+	return sol.MeltingPressure(x)
 }
 
 // SlopesOf returns the slopes of the coexistence curve on which the

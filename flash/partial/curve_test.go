@@ -35,30 +35,10 @@ func solidValues(sp *sublimation.Props) phaseValues { return phaseValues{sp.Rho,
 // the curve solvers of packages fluid and sublimation.
 func solveCurve(f *fluid.Fluid, c Curve, x float64, atP bool) (curvePoint, error) {
 	if c == Saturation {
-		var s fluid.Saturation
-		var err error
-		if atP {
-			s, err = f.SaturationAtP(x)
-		} else {
-			s, err = f.SaturationAtT(x)
-		}
+		s, err := saturation(f, x, atP)
 		return pointOf(s.T, s.P, fluidValues(&s.Liquid), fluidValues(&s.Vapor)), err
 	}
-	sol, err := sublimation.For(f)
-	if err != nil {
-		return curvePoint{}, err
-	}
-	var co sublimation.Coexistence
-	switch {
-	case c == Sublimation && atP:
-		co, err = sol.SublimationTemperature(x)
-	case c == Sublimation:
-		co, err = sol.SublimationPressure(x)
-	case atP:
-		co, err = sol.MeltingTemperature(x)
-	default:
-		co, err = sol.MeltingPressure(x)
-	}
+	co, err := solidCurve(f, c, x, atP)
 	return pointOf(co.T, co.P, solidValues(&co.Solid), fluidValues(&co.Fluid)), err
 }
 
@@ -197,11 +177,8 @@ func TestSlopesConsistency(t *testing.T) {
 	t.Parallel()
 	for _, name := range fluid.Names() {
 		f := mustFluid(t, name)
-		for _, ts := range states(t, f) {
+		for _, ts := range mixtures(t, f) {
 			st := ts.st
-			if st.N != 2 {
-				continue
-			}
 			s1, err := SlopesOf(f, st)
 			if err != nil {
 				t.Fatal(err)

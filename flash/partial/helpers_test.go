@@ -397,3 +397,15 @@ func states(t testing.TB, f *fluid.Fluid) []testState {
 	}})
 	return out
 }
+
+// mixtures returns the two-phase test states of f (TwoPhase, SolidVapor,
+// SolidLiquid).
+func mixtures(t testing.TB, f *fluid.Fluid) []testState {
+	var out []testState
+	for _, ts := range states(t, f) {
+		if ts.st.N == 2 {
+			out = append(out, ts)
+		}
+	}
+	return out
+}

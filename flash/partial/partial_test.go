@@ -303,11 +303,8 @@ func TestTwoPhaseCv(t *testing.T) {
 	t.Parallel()
 	for _, name := range fluid.Names() {
 		f := mustFluid(t, name)
-		for _, ts := range states(t, f) {
+		for _, ts := range mixtures(t, f) {
 			st := ts.st
-			if st.N != 2 {
-				continue
-			}
 			sl, err := SlopesOf(f, st)
 			if err != nil {
 				t.Fatal(err)
