@@ -7,8 +7,9 @@
 // and melting curves.
 //
 //	f, _ := fluid.Lookup("CO2")
-//	st, _ := flash.PH(f, 3e6, -150e3)                              // two-phase
-//	drhodh, err := partial.Derivative(f, st, partial.Rho, partial.H, partial.P) // (∂ρ/∂h)_p
+//	st, _ := flash.PH(f, 3e6, -150e3) // liquid and vapour
+//	// (∂ρ/∂h)_p of the mixture, in kg²/(m³·J):
+//	drhodh, err := partial.Derivative(f, st, partial.Rho, partial.H, partial.P)
 //
 // Finite differences across a phase boundary give meaningless numbers;
 // these are analytic: from the Helmholtz-energy derivatives of the
@@ -49,13 +50,14 @@
 // # Cost
 //
 // Derivative at a single-phase fluid state costs one evaluation of the
-// equation of state (fluid.Fluid.Props) and about 20 floating-point
-// operations; at a solid state one Gibbs-energy evaluation; at a
-// two-phase or triple state no evaluation at all (the state carries the
-// phases and the mixture's cv). SlopesOf costs one evaluation per phase.
-// Build a Jacobian with At once and call its Derivative for each
-// derivative needed at that state. Nothing allocates unless an error is
-// returned.
+// equation of state (fluid.Fluid.Props) and a few tens of floating-point
+// operations; at a solid state one Gibbs-energy evaluation
+// (sublimation.Solid.Props); at a two-phase or triple state no
+// evaluation at all (the state carries the phases and the mixture's cv).
+// SlopesOf costs one evaluation per phase, SlopesAtT and SlopesAtP the
+// curve's solution besides. Build a Jacobian with At once and call its
+// Derivative for each derivative needed at that state. Nothing allocates
+// unless an error is returned.
 //
 // # C ABI
 //

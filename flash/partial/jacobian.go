@@ -88,39 +88,41 @@ func det(r, s row) (d0, d1 float64) {
 //	  spinodal: ErrUnstable)
 //
 // At allocates nothing unless it returns an error.
-func At(f *fluid.Fluid, st flash.State) (Jacobian, error) {
-	const op = "partial.At"
+func At(f *fluid.Fluid, st flash.State) (Jacobian, error) { return at("partial.At", f, &st) }
+
+// at is At for operation op.
+func at(op string, f *fluid.Fluid, st *flash.State) (Jacobian, error) {
 	if f == nil {
-		return Jacobian{}, stateError(op, &st, fluid.ErrInvalidInput, "nil fluid")
+		return Jacobian{}, stateError(op, st, fluid.ErrInvalidInput, "nil fluid")
 	}
-	if why := checkState(&st); why != "" {
-		return Jacobian{}, stateError(op, &st, fluid.ErrInvalidInput, why)
+	if why := checkState(st); why != "" {
+		return Jacobian{}, stateError(op, st, fluid.ErrInvalidInput, why)
 	}
 	switch st.Phase {
 	case flash.Liquid, flash.Vapor, flash.Supercritical:
-		return fluidJacobian(op, f, &st, st.Phase)
+		return fluidJacobian(op, f, st, st.Phase)
 	case flash.Solid:
-		return solidJacobian(op, f, &st)
+		return solidJacobian(op, f, st)
 	case flash.Triple:
-		return tripleJacobian(&st), nil
+		return tripleJacobian(st), nil
 	}
 	// A two-phase mixture.
 	ph := &st.Phases
 	v1, v2 := 1/ph[0].Rho, 1/ph[1].Rho
 	if st.Flags&fluid.AtCritical != 0 || v1 == v2 {
 		// Both phases are the critical state.
-		return fluidJacobian(op, f, &st, st.Phase)
+		return fluidJacobian(op, f, st, st.Phase)
 	}
 	gamma := (ph[1].S - ph[0].S) / (v2 - v1)
 	cv := st.Cv
 	if !(cv > 0) || !finite(cv) {
-		sl, err := slopesOf(op, f, &st)
+		sl, err := slopesOf(op, f, st)
 		if err != nil {
 			return Jacobian{}, err
 		}
 		cv = sl.mixtureCv(ph[0].Fraction, ph[1].Fraction)
 		if !(cv > 0) || !finite(cv) {
-			return Jacobian{}, stateError(op, &st, fluid.ErrUndefined, "no finite equilibrium cv of the mixture")
+			return Jacobian{}, stateError(op, st, fluid.ErrUndefined, "no finite equilibrium cv of the mixture")
 		}
 	}
 	j := Jacobian{phase: st.Phase, t: st.T, p: st.P, v: 1 / st.Rho, s: st.S}
@@ -134,7 +136,7 @@ func At(f *fluid.Fluid, st flash.State) (Jacobian, error) {
 // Derivative returns (∂a/∂b)_c of fluid f at state st: At followed by
 // Jacobian.Derivative (see both).
 func Derivative(f *fluid.Fluid, st flash.State, a, b, c Quantity) (float64, error) {
-	j, err := At(f, st)
+	j, err := at("partial.Derivative", f, &st)
 	if err != nil {
 		return math.NaN(), err
 	}
