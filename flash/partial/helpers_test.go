@@ -258,10 +258,14 @@ func newton2(f *fluid.Fluid, build func(u1, u2 float64) (flash.State, error), u 
 }
 
 // testState is a state of one region with the flashes that check it.
+// byFlash marks a solid-region state returned by a flash of package
+// flash (once the flashes reach the solid regions; the model-built
+// states are checked either way).
 type testState struct {
 	name    string
 	st      flash.State
 	flashes []inverse
+	byFlash bool
 }
 
 // fluidCase names a fluid state by a flash.
@@ -355,7 +359,7 @@ func states(t testing.TB, f *fluid.Fluid) []testState {
 			fl = fl[:3:3]
 			fl = append(fl, fluidFlashes(f, st.N == 1)[4:]...)
 		}
-		out = append(out, testState{c.name, st, fl})
+		out = append(out, testState{name: c.name, st: st, flashes: fl})
 	}
 	sc, ok := solidCases[f.Name()]
 	if !ok {
@@ -379,7 +383,17 @@ func states(t testing.TB, f *fluid.Fluid) []testState {
 		if err != nil {
 			t.Fatalf("%s %s: %v", f.Name(), c.name, err)
 		}
-		out = append(out, testState{c.name, st, newtonFlashes(f, build, [2]float64{c.a, c.b}, ps)})
+		out = append(out, testState{name: c.name, st: st, flashes: newtonFlashes(f, build, [2]float64{c.a, c.b}, ps)})
+		var fs flash.State
+		if c.phase == flash.Solid {
+			fs, err = flash.PT(f, st.P, st.T)
+		} else {
+			fs, err = flash.DT(f, st.Rho, st.T)
+		}
+		if err == nil && fs.Phase == c.phase {
+			out = append(out, testState{name: c.name + " by flash", st: fs,
+				flashes: fluidFlashes(f, c.phase == flash.Solid), byFlash: true})
+		}
 	}
 	tp, err := sol.Triple()
 	if err != nil {
@@ -392,9 +406,13 @@ func states(t testing.TB, f *fluid.Fluid) []testState {
 			return tripleState(&tp, xs, xl, xv), err
 		}
 	}
-	out = append(out, testState{"triple", st, []inverse{
+	out = append(out, testState{name: "triple", st: st, flashes: []inverse{
 		{Rho, U, frac(tp.FractionsRhoU)}, {Rho, H, frac(tp.FractionsRhoH)}, {Rho, S, frac(tp.FractionsRhoS)},
 	}})
+	if fs, err := flash.DU(f, st.Rho, st.U); err == nil && fs.Phase == flash.Triple {
+		// On the triple line only (ρ, u)-type inputs fix the state.
+		out = append(out, testState{name: "triple by flash", st: fs, flashes: fluidFlashes(f, false)[2:3], byFlash: true})
+	}
 	return out
 }
 

@@ -41,7 +41,11 @@ func TestAgainstFlashes(t *testing.T) {
 		t.Run(name, func(t *testing.T) {
 			t.Parallel()
 			byPhase := map[flash.Phase]*fdStats{}
+			byFlash := 0
 			for _, ts := range states(t, f) {
+				if ts.byFlash {
+					byFlash++
+				}
 				st := byPhase[ts.st.Phase]
 				if st == nil {
 					st = &fdStats{}
@@ -60,6 +64,9 @@ func TestAgainstFlashes(t *testing.T) {
 						checkFlash(t, f, &ts, &j, in, b, c, st)
 					}
 				}
+			}
+			if _, ok := solidCases[name]; ok {
+				t.Logf("%s: %d solid-region states returned by the flashes (0: the flashes do not yet reach the solid regions; the states built from the solid models are checked)", name, byFlash)
 			}
 			for ph := flash.Liquid; ph <= flash.Triple; ph++ {
 				if st := byPhase[ph]; st != nil {
