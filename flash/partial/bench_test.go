@@ -12,10 +12,10 @@ import (
 
 var sink float64
 
-// benchStates are one state of each region of CO2 (the states of
-// states(), first of each phase).
-func benchStates(b *testing.B) (*fluid.Fluid, []testState) {
-	f := mustFluid(b, "CO2")
+// benchStates are one state of each region of fluid name (the states
+// of states(), first of each phase).
+func benchStates(b *testing.B, name string) (*fluid.Fluid, []testState) {
+	f := mustFluid(b, name)
 	seen := map[flash.Phase]bool{}
 	var out []testState
 	for _, ts := range states(b, f) {
@@ -41,7 +41,7 @@ func benchQuantities(ph flash.Phase) (a, b, c Quantity) {
 // each region of CO2; with -tags tripoint_evalcount it reports the
 // residual-Helmholtz evaluations per call.
 func BenchmarkDerivative(b *testing.B) {
-	f, sts := benchStates(b)
+	f, sts := benchStates(b, "CO2")
 	for _, ts := range sts {
 		b.Run(ts.st.Phase.String(), func(b *testing.B) {
 			st := ts.st
@@ -65,7 +65,7 @@ func BenchmarkDerivative(b *testing.B) {
 // BenchmarkJacobianDerivative is one derivative from a Jacobian built
 // beforehand: the algebra alone.
 func BenchmarkJacobianDerivative(b *testing.B) {
-	f, sts := benchStates(b)
+	f, sts := benchStates(b, "CO2")
 	j, err := At(f, sts[0].st)
 	if err != nil {
 		b.Fatal(err)
@@ -79,7 +79,7 @@ func BenchmarkJacobianDerivative(b *testing.B) {
 
 // BenchmarkSlopes is SlopesOf at a two-phase state and one slope.
 func BenchmarkSlopes(b *testing.B) {
-	f, sts := benchStates(b)
+	f, sts := benchStates(b, "CO2")
 	for _, ts := range sts {
 		if ts.st.N != 2 {
 			continue
@@ -104,7 +104,13 @@ func BenchmarkSlopes(b *testing.B) {
 // each the best of 15 batches, taken in turn so that both see the same
 // load.
 func BenchmarkCost(b *testing.B) {
-	f, sts := benchStates(b)
+	for _, name := range []string{"CO2", "water"} {
+		b.Run(name, func(b *testing.B) { benchCost(b, name) })
+	}
+}
+
+func benchCost(b *testing.B, name string) {
+	f, sts := benchStates(b, name)
 	for _, ts := range sts {
 		st := ts.st
 		var ref func()

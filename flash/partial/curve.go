@@ -32,8 +32,9 @@ func (c Curve) String() string {
 // Slopes are the derivatives along a coexistence curve at one of its
 // points: the curve's slope DpDT and, for each of its two phases, how the
 // phase's properties change as the point moves along the curve. Obtain
-// them from SlopesAtT, SlopesAtP or SlopesOf and read them with
-// Derivative. A Slopes is a plain value, safe for concurrent use.
+// them from SlopesAtT, SlopesAtP or SlopesOf (the zero value is not
+// usable) and read them with Derivative. A Slopes is a plain value, safe
+// for concurrent use.
 type Slopes struct {
 	Curve Curve
 	T, P  float64 // the point of the curve: K, Pa
@@ -266,14 +267,17 @@ func newSlopes(c Curve, T, p float64, ph1, ph2 flash.Phase, a, b phaseData) Slop
 //
 // Special cases are:
 //
-//	i not 0 or 1, a or b not one of T … F: NaN, error wrapping
-//	  fluid.ErrInvalidInput
+//	i not 0 or 1, a or b not one of T … F, s the zero Slopes: NaN,
+//	  error wrapping fluid.ErrInvalidInput
 //	db = 0 along the curve, or a result that is not finite (the phases'
 //	  derivatives at the critical point): NaN, error wrapping
 //	  fluid.ErrUndefined
 //
 // Derivative allocates nothing unless it returns an error.
 func (s *Slopes) Derivative(i int, a, b Quantity) (float64, error) {
+	if s.Curve < Saturation || s.Curve > Melting {
+		return math.NaN(), s.error(fluid.ErrInvalidInput, i, a, b, "the zero Slopes: obtain them from SlopesAtT, SlopesAtP or SlopesOf")
+	}
 	if i != 0 && i != 1 || !a.Valid() || !b.Valid() {
 		return math.NaN(), s.error(fluid.ErrInvalidInput, i, a, b,
 			"the phase index must be 0 or 1, the quantities among T, p, rho, v, u, h, s, g, f (codes 1 to 9)")

@@ -10,9 +10,9 @@ import (
 )
 
 // Jacobian holds the differentials of every quantity at one state, in two
-// variables that are independent there. Obtain one from At; it is a plain
-// value, safe for concurrent use, and Derivative on it allocates nothing
-// unless it returns an error.
+// variables that are independent there. Obtain one from At (the zero
+// value is not usable); it is a plain value, safe for concurrent use, and
+// Derivative on it allocates nothing unless it returns an error.
 type Jacobian struct {
 	phase      flash.Phase
 	t, p, v, s float64 // the state's T, p, v and s (s with the fluid's reference offsets)
@@ -173,7 +173,8 @@ func (j *Jacobian) Phase() flash.Phase { return j.phase }
 //
 // Special cases are:
 //
-//	a, b or c not one of T … F: NaN, error wrapping fluid.ErrInvalidInput
+//	a, b or c not one of T … F, or j the zero Jacobian: NaN, error
+//	  wrapping fluid.ErrInvalidInput
 //	a = b (b, c independent): 1;  a = c: 0
 //
 // Derivative allocates nothing unless it returns an error.
@@ -181,6 +182,9 @@ func (j *Jacobian) Derivative(a, b, c Quantity) (float64, error) {
 	if !a.Valid() || !b.Valid() || !c.Valid() {
 		return math.NaN(), j.error(fluid.ErrInvalidInput, a, b, c,
 			"the quantities must be among T, p, rho, v, u, h, s, g, f (codes 1 to 9)")
+	}
+	if j.phase == flash.Unknown {
+		return math.NaN(), j.error(fluid.ErrInvalidInput, a, b, c, "the zero Jacobian: obtain one from At")
 	}
 	a0, b0 := a, b
 	scale := 1.0

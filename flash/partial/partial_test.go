@@ -385,6 +385,14 @@ func TestBadInput(t *testing.T) {
 			t.Errorf("Derivative%v = %v, %v; want NaN, ErrInvalidInput", q, d, err)
 		}
 	}
+	var zero Jacobian
+	if d, err := zero.Derivative(H, T, P); !errors.Is(err, fluid.ErrInvalidInput) || !math.IsNaN(d) {
+		t.Errorf("zero Jacobian: %v, %v", d, err)
+	}
+	var zs Slopes
+	if d, err := zs.Derivative(0, H, T); !errors.Is(err, fluid.ErrInvalidInput) || !math.IsNaN(d) {
+		t.Errorf("zero Slopes: %v, %v", d, err)
+	}
 	var fe *fluid.Error
 	if _, err := j.Derivative(H, T, T); !errors.As(err, &fe) || fe.Op != "partial.Jacobian.Derivative" {
 		t.Errorf("error %v is not a *fluid.Error of partial.Jacobian.Derivative", err)
