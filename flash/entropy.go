@@ -31,47 +31,35 @@ func TS(f *fluid.Fluid, T, s float64) (State, error) { return TSWith(f, T, s, Op
 func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.TS", fluid.Input{Name: "T", Value: T, Unit: "K"},
-		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt); err != nil {
+		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	if err := k.positive(0); err != nil {
-		return State{}, err
+	if k.sol.ok && !k.metaFluid() && (k.onTripleT(T) || k.belowTripleT(T)) {
+		return k.done(k.tsSolid(T, s))
 	}
+	st, err := k.ts(T, s, 0, 0)
+	if err == errSolid && !k.decided {
+		return k.done(k.tsSolid(T, s))
+	}
+	return k.done(st, err)
+}
+
+// ts is the fluid path of TS, with the density kept within rhoLo and
+// rhoHi where they are positive (bounds set by the solid paths).
+func (k *call) ts(T, s, rhoLo, rhoHi float64) (State, error) {
+	f := k.f
 	c := f.Critical()
 	lim := f.Limits()
 	lo, hi := 1e-12*c.Rho, lim.RhoCeil
 	rho0 := c.Rho
-	if g := k.opt.Guess; g != nil && g.N == 1 && g.Rho > 0 {
-		rho0 = g.Rho
+	if k.fluidGuess() && k.opt.Guess.Rho > 0 {
+		rho0 = k.opt.Guess.Rho
 	}
 	switch {
-	case T < k.c.tt*(1-1e-12):
-		if !k.c.hasSub {
-			return State{}, k.c.solidError(k.op, "below the triple point", k.in[0], k.in[1])
+	case k.belowTripleT(T):
+		if !k.decided {
+			return State{}, k.solidError("below the triple point")
 		}
-		if T < k.c.subLo {
-			return State{}, k.c.regionError(k.op, regionBeyond, "below the range of the sublimation curve", k.in[0], k.in[1])
-		}
-		pv, err := f.PropsTP(T, k.c.psub(T), fluid.RootVapor, 0)
-		if err != nil {
-			return State{}, k.rewrap(err)
-		}
-		if s < pv.S {
-			// The liquid above an anomalous melting curve (water), up to
-			// the curve's end.
-			if k.c.hasMelt && k.c.anomalous && T >= k.c.meltLo {
-				pm, err1 := f.PropsTP(T, k.c.pmelt(T), fluid.RootLiquid, 0)
-				pe, err2 := f.PropsTP(T, k.c.pMeltEnd, fluid.RootLiquid, 0)
-				if err1 == nil && err2 == nil {
-					pr, ok := solve1(f, qS, s, T, pm.Rho, false, pm.Rho, pe.Rho)
-					if ok {
-						return k.wanted(k.finish(&pr))
-					}
-				}
-			}
-			return State{}, k.c.solidError(k.op, "below the entropy of the vapour on the sublimation curve", k.in[0], k.in[1])
-		}
-		hi, rho0 = pv.Rho, min(rho0, pv.Rho)
 	case T < c.T:
 		sat, err := k.satT(T)
 		if err != nil {
@@ -79,6 +67,9 @@ func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
 		}
 		switch {
 		case s < sat.Liquid.S:
+			if !k.decided && k.tsNeedsSolid(T, s) {
+				return State{}, errSolid
+			}
 			lo, rho0 = sat.Liquid.Rho, max(rho0, sat.Liquid.Rho*(1+1e-6))
 		case s > sat.Vapor.S:
 			hi, rho0 = sat.Vapor.Rho, min(rho0, sat.Vapor.Rho*(1-1e-6))
@@ -89,6 +80,16 @@ func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
 			}
 			return k.finishSat(&sat, q)
 		}
+	default:
+		if !k.decided && k.tsNeedsSolid(T, s) {
+			return State{}, errSolid
+		}
+	}
+	if rhoLo > 0 {
+		lo = max(lo, rhoLo)
+	}
+	if rhoHi > 0 {
+		hi = min(hi, rhoHi)
 	}
 	pr, ok := solve1(f, qS, s, T, min(max(rho0, lo), hi), false, lo, hi)
 	if !ok {
@@ -118,11 +119,19 @@ func HS(f *fluid.Fluid, h, s float64) (State, error) { return HSWith(f, h, s, Op
 func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.HS", fluid.Input{Name: "h", Value: h, Unit: "J/kg"},
-		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt); err != nil {
+		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 0); err != nil {
 		return State{}, err
 	}
 	c := f.Critical()
 	lim := f.Limits()
+	if k.hsTriple(h, s) {
+		// On the triple line: PS at the triple-point pressure returns
+		// its documented choice, flagged Indeterminate.
+		st, err := PSWith(f, k.sol.tp.P, s, k.opt)
+		if err == nil && math.Abs(st.H-h) <= qH.floor(f, nil, h) {
+			return st, nil
+		}
+	}
 	p0 := c.P
 	if g := k.opt.Guess; g != nil && g.P > 0 {
 		p0 = g.P
@@ -150,14 +159,14 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 		}
 	}
 	if !have {
-		return State{}, k.fail(fluid.ErrOutOfRange, "no fluid state with these h and s")
+		return State{}, k.fail(fluid.ErrOutOfRange, "no state with these h and s")
 	}
 	tolH := qH.tol(f, nil, h)
 	for it := 0; it < 100; it++ {
 		r := last.H - h
 		if math.Abs(r) <= 10*tolH {
 			st := last
-			if st.Phase == TwoPhase && st.T == k.c.tt {
+			if k.sol.ok && st.N > 1 && k.onTripleP(st.P) {
 				st.Flags |= Indeterminate
 			}
 			return st, nil
@@ -184,7 +193,29 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 				last, lp, moved = st, ln, true
 				break
 			}
-			// No fluid state there: bound the bracket and step back.
+			if try == 0 {
+				// The isentrope may cross a band without a modelled
+				// state (water above 208.566 MPa below 273.16 K, where
+				// other ices exist): look beyond it before stepping back.
+				d := ln - lp
+				for j := 0; j < 8 && !moved; j++ {
+					d *= 2
+					lf := lp + d
+					if !(lf > plo && lf < phi) {
+						lf = plo + 0.999*(phi-plo)
+						if d < 0 {
+							lf = plo + 0.001*(phi-plo)
+						}
+					}
+					if st, err := PSWith(f, math.Exp(lf), s, inner); err == nil {
+						last, lp, moved = st, lf, true
+					}
+				}
+				if moved {
+					break
+				}
+			}
+			// No state there: bound the bracket and step back.
 			if ln > lp {
 				phi = ln
 			} else {

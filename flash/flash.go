@@ -9,17 +9,24 @@ import (
 )
 
 // call carries what every flash needs: the fluid, the operation and its
-// inputs (for errors), the options and the solid curves.
+// inputs (for errors), the options and the solid phase. decided is set
+// once the solid paths have placed the state on the fluid's side of the
+// solid curves: the fluid paths then do not place it again, and keep to
+// temperatures at or above fixedTlo (if positive) at their pressure.
 type call struct {
-	f   *fluid.Fluid
-	op  string
-	in  [2]fluid.Input
-	opt Options
-	c   curves
+	f        *fluid.Fluid
+	op       string
+	in       [2]fluid.Input
+	opt      Options
+	sol      solidSide
+	decided  bool
+	fixedTlo float64
 }
 
-// init sets up k for a flash; it validates what every flash shares.
-func (k *call) init(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options) error {
+// init sets up k for a flash; it validates what every flash shares:
+// a fluid, finite inputs, those in the bit mask positive (1: a, 2: b)
+// positive, and the options.
+func (k *call) init(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options, positive int) error {
 	*k = call{f: f, op: op, in: [2]fluid.Input{a, b}}
 	if opt != nil {
 		k.opt = *opt
@@ -30,13 +37,25 @@ func (k *call) init(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options) e
 	if !isFinite(a.Value) || !isFinite(b.Value) {
 		return k.fail(fluid.ErrInvalidInput, "inputs must be finite")
 	}
-	switch k.opt.Phase {
-	case Unknown, Liquid, Vapor, Supercritical, TwoPhase:
-	default:
-		return k.fail(fluid.ErrInvalidInput, "Options.Phase must be Unknown, Liquid, Vapor, Supercritical or TwoPhase")
+	for i := range 2 {
+		if positive&(1<<i) != 0 && !(k.in[i].Value > 0) {
+			return k.fail(fluid.ErrInvalidInput, k.in[i].Name+" must be positive")
+		}
 	}
-	k.c = curvesOf(f)
+	if !(k.opt.Phase >= Unknown && k.opt.Phase <= Triple) {
+		return k.fail(fluid.ErrInvalidInput, "Options.Phase must be one of the phases Unknown (0) to Triple (8)")
+	}
+	k.sol.init(f)
 	return nil
+}
+
+// done finishes an exported flash: the internal signal errSolid never
+// leaves the package.
+func (k *call) done(st State, err error) (State, error) {
+	if err == errSolid {
+		return State{}, k.fail(fluid.ErrNoConvergence, "the solid-region iteration did not converge")
+	}
+	return st, err
 }
 
 func (k *call) fail(sentinel error, why string) error {
@@ -51,13 +70,6 @@ func (k *call) rewrap(err error) error {
 		return k.fail(fe.Err, fe.Range)
 	}
 	return k.fail(fluid.ErrNoConvergence, err.Error())
-}
-
-func (k *call) positive(i int) error {
-	if !(k.in[i].Value > 0) {
-		return k.fail(fluid.ErrInvalidInput, k.in[i].Name+" must be positive")
-	}
-	return nil
 }
 
 func (k *call) quality(q float64) error {
@@ -75,6 +87,9 @@ func (k *call) guessRho(root fluid.Root) float64 {
 	}
 	for i := 0; i < g.N && i < 3; i++ {
 		ph := g.Phases[i].Phase
+		if ph == Solid {
+			continue
+		}
 		if root == fluid.RootStable || ph == Supercritical ||
 			(root == fluid.RootLiquid && ph == Liquid) || (root == fluid.RootVapor && ph == Vapor) {
 			return g.Phases[i].Rho
@@ -104,6 +119,12 @@ func rootFor(ph Phase) fluid.Root {
 	return fluid.RootStable
 }
 
+// fluidGuess reports whether the warm start is a single-phase fluid state.
+func (k *call) fluidGuess() bool {
+	g := k.opt.Guess
+	return g != nil && g.N == 1 && g.Phases[0].Phase != Solid && g.Phase != Solid
+}
+
 // satisfies reports whether state phase got meets the request want.
 func satisfies(want, got Phase) bool {
 	switch want {
@@ -125,8 +146,12 @@ func (k *call) notWanted(got Phase) error {
 	return k.fail(fluid.ErrOutOfRange, why)
 }
 
-// finish checks a single-phase result against the solid curves and the
-// request, and builds the state.
+// finish checks a single-phase fluid result against the solid (unless the
+// solid side is decided) and builds the state. A state where a solid is
+// the stable phase gives errSolid (the flash then takes its solid path),
+// or, where a metastable fluid was asked for, the state flagged
+// Metastable; exactly on a solid–fluid curve it is flagged Indeterminate
+// and Saturated.
 func (k *call) finish(pr *fluid.Props) (State, error) {
 	if lim := k.f.Limits(); pr.P > lim.PCeil*(1+1e-9) {
 		return State{}, k.fail(fluid.ErrOutOfRange, "p = "+fmtG(pr.P)+" Pa exceeds the accepted "+
@@ -135,14 +160,26 @@ func (k *call) finish(pr *fluid.Props) (State, error) {
 		return State{}, k.fail(fluid.ErrOutOfRange, "the equation gives p = "+fmtG(pr.P)+
 			" Pa there: no fluid state")
 	}
-	r, on, why := k.c.classify(pr.T, pr.P)
-	if r != regionFluid {
-		return State{}, k.c.regionError(k.op, r, why, k.in[0], k.in[1])
+	var fl Flags
+	if !k.decided {
+		v, why := k.versus(pr)
+		switch {
+		case v == vOnCurve:
+			fl = Indeterminate | Saturated
+		case v == vSolid && k.metaFluid():
+			fl = Metastable
+		case v == vSolid:
+			return State{}, k.solidError(why)
+		case v == vBeyond:
+			// The fluid's pressure at a solid's density or entropy says
+			// nothing: the solid paths decide.
+			return State{}, errSolid
+		}
+	} else if k.fixedTlo > 0 && pr.T < k.fixedTlo*(1-1e-11) && !k.metaFluid() {
+		return State{}, errSolid
 	}
 	st := single(pr, fluidPhase(k.f, pr.T, pr.P, pr.Rho))
-	if on {
-		st.Flags |= Indeterminate | Saturated
-	}
+	st.Flags |= fl
 	return st, nil
 }
 
@@ -212,32 +249,29 @@ func PT(f *fluid.Fluid, p, T float64) (State, error) { return PTWith(f, p, T, Op
 func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PT", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt); err != nil {
+		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt, 3); err != nil {
 		return State{}, err
 	}
-	if err := k.positive(0); err != nil {
-		return State{}, err
+	switch k.opt.Phase {
+	case TwoPhase, SolidVapor, SolidLiquid, Triple:
+		return State{}, k.fail(fluid.ErrInvalidInput, "(p, T) cannot fix a mixture of phases")
 	}
-	if err := k.positive(1); err != nil {
-		return State{}, err
-	}
-	if k.opt.Phase == TwoPhase {
-		return State{}, k.fail(fluid.ErrInvalidInput, "(p, T) cannot fix a two-phase state")
-	}
-	r, on, why := k.c.classify(T, p)
-	if r != regionFluid {
-		return State{}, k.c.regionError(k.op, r, why, k.in[0], k.in[1])
-	}
+	meta := k.metaFluid()
 	root := rootFor(k.opt.Phase)
-	if T < k.c.tt && root == fluid.RootStable {
-		// Below the triple point the curves have decided the phase.
-		root = fluid.RootVapor
-		if p > k.c.psub(T) {
-			root = fluid.RootLiquid
-		}
+	pl, hint, why := k.placePT(T, p)
+	if root == fluid.RootStable {
+		// Below the triple point the solid curves decide the fluid phase.
+		root = hint
+	}
+	if pl == placeBeyond || pl == placeSolid && !meta {
+		return k.done(k.ptSolid(p, T, pl, why, nil))
 	}
 	pr, err := f.PropsTP(T, p, root, k.guessRho(root))
 	if err != nil {
+		if pl == placeNear && !meta {
+			// No fluid root beside the curve: the solid.
+			return k.done(k.ptSolid(p, T, pl, why, nil))
+		}
 		return State{}, k.rewrap(err)
 	}
 	if pr.Flags&Metastable != 0 && !k.opt.AllowMetastable {
@@ -247,14 +281,17 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 		}
 		return State{}, k.notWanted(ph)
 	}
+	if pl == placeNear && !meta {
+		return k.done(k.ptSolid(p, T, pl, why, &pr))
+	}
 	st := single(&pr, fluidPhase(f, T, p, pr.Rho))
-	if on {
-		st.Flags |= Indeterminate
+	if meta && (pl == placeSolid || pl == placeNear && k.byGibbs(&pr) == vSolid) {
+		st.Flags |= Metastable // against the solid
 	}
 	if st.Flags&Indeterminate != 0 {
 		st.Flags |= Saturated // on a coexistence curve
 	}
-	return st, nil
+	return k.wanted(st, nil)
 }
 
 // TQ returns the saturation state of f at temperature T in K and vapour
@@ -278,17 +315,20 @@ func TQ(f *fluid.Fluid, T, q float64) (State, error) { return TQWith(f, T, q, Op
 func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.TQ", fluid.Input{Name: "T", Value: T, Unit: "K"},
-		fluid.Input{Name: "q", Value: q}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
+		fluid.Input{Name: "q", Value: q}, &opt, 1); err != nil {
 		return State{}, err
 	}
 	if err := k.quality(q); err != nil {
 		return State{}, err
 	}
-	if T < k.c.tt {
-		return k.sublimation(T, 0, q)
+	if k.sol.ok && k.belowTripleT(T) {
+		return k.done(k.sublimationSat(T, 0, q))
+	}
+	if k.sol.ok && k.onTripleT(T) {
+		return k.tripleSat(q)
+	}
+	if k.belowTripleT(T) {
+		return State{}, k.solidError("below the triple point")
 	}
 	s, err := k.satT(T)
 	if err != nil {
@@ -313,19 +353,22 @@ func PQ(f *fluid.Fluid, p, q float64) (State, error) { return PQWith(f, p, q, Op
 func PQWith(f *fluid.Fluid, p, q float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PQ", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "q", Value: q}, &opt); err != nil {
-		return State{}, err
-	}
-	if err := k.positive(0); err != nil {
+		fluid.Input{Name: "q", Value: q}, &opt, 1); err != nil {
 		return State{}, err
 	}
 	if err := k.quality(q); err != nil {
 		return State{}, err
 	}
+	if k.sol.ok && k.belowTripleP(p) {
+		return k.done(k.sublimationSat(0, p, q))
+	}
+	if k.sol.ok && k.onTripleP(p) {
+		return k.tripleSat(q)
+	}
 	s, err := k.satP(p)
 	if err != nil {
-		if p < k.c.pt && errors.Is(err, fluid.ErrOutOfRange) {
-			return k.sublimation(0, p, q)
+		if p < k.sol.pt && errors.Is(err, fluid.ErrOutOfRange) {
+			return State{}, k.solidError("below the triple point")
 		}
 		return State{}, err
 	}
@@ -351,40 +394,12 @@ func (k *call) satP(p float64) (fluid.Saturation, error) {
 // request checked and the triple point flagged.
 func (k *call) finishSat(s *fluid.Saturation, q float64) (State, error) {
 	st := twoPhase(k.f, s, q)
-	if s.T == k.c.tt {
+	if k.onTripleT(s.T) && q < 1 {
+		// On the triple line: the state without solid.
 		st.Flags |= Indeterminate
 	}
 	if !satisfies(k.opt.Phase, st.Phase) {
 		return State{}, k.notWanted(st.Phase)
-	}
-	return st, nil
-}
-
-// sublimation returns the vapour on the sublimation curve at T (or, with
-// T = 0, at p) for q = 1, and the solid-region error otherwise.
-func (k *call) sublimation(T, p, q float64) (State, error) {
-	if !k.c.hasSub {
-		return State{}, k.c.solidError(k.op, "below the triple point", k.in[0], k.in[1])
-	}
-	if q < 1 {
-		return State{}, k.c.solidError(k.op, "a solid-vapour mixture below the triple point", k.in[0], k.in[1])
-	}
-	if T == 0 {
-		T, _ = k.c.freezeT(p)
-	} else {
-		if T < k.c.subLo {
-			return State{}, k.c.regionError(k.op, regionBeyond, "below the range of the sublimation curve", k.in[0], k.in[1])
-		}
-		p = k.c.psub(T)
-	}
-	pr, err := k.f.PropsTP(T, p, fluid.RootVapor, 0)
-	if err != nil {
-		return State{}, k.rewrap(err)
-	}
-	st := single(&pr, Vapor)
-	st.Flags |= Saturated
-	if !satisfies(k.opt.Phase, Vapor) {
-		return State{}, k.notWanted(Vapor)
 	}
 	return st, nil
 }
@@ -417,13 +432,10 @@ func PH(f *fluid.Fluid, p, h float64) (State, error) { return PHWith(f, p, h, Op
 func PHWith(f *fluid.Fluid, p, h float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PH", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt); err != nil {
+		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	if err := k.positive(0); err != nil {
-		return State{}, err
-	}
-	return k.isobaric(p, qH, h)
+	return k.done(k.isobaricAll(p, qH, h))
 }
 
 // PS returns the state of f at pressure p in Pa and specific entropy s
@@ -434,13 +446,10 @@ func PS(f *fluid.Fluid, p, s float64) (State, error) { return PSWith(f, p, s, Op
 func PSWith(f *fluid.Fluid, p, s float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PS", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt); err != nil {
+		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	if err := k.positive(0); err != nil {
-		return State{}, err
-	}
-	return k.isobaric(p, qS, s)
+	return k.done(k.isobaricAll(p, qS, s))
 }
 
 // dXdT returns (∂X/∂T)_p at pr: cp for h, cp/T for s.
@@ -473,7 +482,20 @@ func sideOf(liquid bool) side {
 	return vaporSide
 }
 
-// isobaric is PH (X = h) and PS (X = s).
+// isobaricAll is PH (X = h) and PS (X = s): below and on the triple line
+// by the solid paths, above it the fluid first.
+func (k *call) isobaricAll(p float64, X quantity, x float64) (State, error) {
+	if k.sol.ok && (k.belowTripleP(p) || k.onTripleP(p)) {
+		return k.isobarSolid(p, X, x)
+	}
+	st, err := k.isobaric(p, X, x)
+	if err == errSolid && !k.decided {
+		return k.isobarSolid(p, X, x)
+	}
+	return st, err
+}
+
+// isobaric is the fluid path of PH (X = h) and PS (X = s).
 func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 	f := k.f
 	c := f.Critical()
@@ -485,42 +507,57 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 	if st, ok := k.isobaricWarm(p, X, x); ok {
 		return st, nil
 	}
-	Tf, floor := k.c.freezeT(p)
-	if p >= c.P || p < k.c.pt {
+	// The lowest fluid temperature at p, a bound from the solid model's
+	// curve nodes (results are placed against the solid in finish).
+	Tf, floor := k.freezeT(p)
+	if p >= c.P || p < k.sol.pt {
 		// One fluid phase along the isobar.
 		sd := anySide
 		root := fluid.RootStable
 		T0 := c.T
-		if p < k.c.pt {
+		if p < k.sol.pt {
 			root, T0, sd = fluid.RootVapor, Tf, vaporSide
+		} else if pcr, ok := props(f, c.T, c.Rho); ok || pcr.H != 0 {
+			// Above pc: start from the liquid at the triple-point
+			// temperature or a gas well above Tc, whichever side of the
+			// critical point's X the input lies on (near Tc the cp of
+			// the isobar misleads).
+			T0 = min(1.5*c.T, 0.5*(c.T+lim.TCeil))
+			if x < X.of(&pcr) {
+				T0 = max(k.sol.tt, lim.TFloor)
+			}
 		}
 		pr0, err := f.PropsTP(T0, p, root, 0)
+		if err != nil && T0 != c.T {
+			pr0, err = f.PropsTP(c.T, p, root, 0)
+		}
 		if err != nil {
 			return State{}, k.rewrap(err)
 		}
-		if p < k.c.pt && x < X.of(&pr0)-X.tol(f, &pr0, x) {
-			return State{}, k.c.lowError(k.op, floor, k.in[0], k.in[1])
+		if p < k.sol.pt && x < X.of(&pr0)-X.tol(f, &pr0, x) {
+			return State{}, k.lowError(floor)
 		}
 		return k.isobarSingle(p, X, x, &pr0, sd, Tf, lim.TCeil, false)
 	}
 	// pt <= p < pc: place x against the saturated phases.
 	var s fluid.Saturation
 	Ts, err := f.AuxSaturationTemperature(p)
-	var pl, pv fluid.Props
 	if err == nil {
 		rl, _ := f.AuxLiquidDensity(Ts)
 		rv, _ := f.AuxVaporDensity(Ts)
-		var okl, okv bool
-		pl, okl = props(f, Ts, rl)
-		pv, okv = props(f, Ts, rv)
-		if okl && okv && want != TwoPhase {
-			// The auxiliary equation's 5 % band in p, as a band in T.
-			dTm := 0.05 * f.GasConstant() * Ts * Ts / math.Max(pv.H-pl.H, 1e-300)
-			switch {
-			case x < X.of(&pl)-dXdT(X, &pl)*dTm && Ts-dTm > Tf:
-				return k.isobarSingle(p, X, x, &pl, liquidSide, Tf, Ts, false)
-			case x > X.of(&pv)+dXdT(X, &pv)*dTm:
+		if want != TwoPhase {
+			// The auxiliary equation's 5 % band in p, as a band in T by
+			// its slope, places x against the saturated phases at the
+			// auxiliary state; the vapour first, then the liquid.
+			dTm := math.Inf(1)
+			if p2, err := f.AuxVaporPressure(Ts * (1 - 1e-5)); err == nil && p2 < p {
+				dTm = 0.05 * p * Ts * 1e-5 / (p - p2)
+			}
+			if pv, ok := props(f, Ts, rv); ok && x > X.of(&pv)+dXdT(X, &pv)*dTm {
 				return k.isobarSingle(p, X, x, &pv, vaporSide, Ts, lim.TCeil, false)
+			}
+			if pl, ok := props(f, Ts, rl); ok && x < X.of(&pl)-dXdT(X, &pl)*dTm {
+				return k.isobarSingle(p, X, x, &pl, liquidSide, Tf, Ts, false)
 			}
 		}
 		s, err = f.SaturationAtPFrom(p, Ts, rl, rv)
@@ -528,15 +565,15 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 		s, err = f.SaturationAtP(p)
 	}
 	if err != nil {
-		if errors.Is(err, fluid.ErrOutOfRange) && p < k.c.pt*1.01 {
+		if errors.Is(err, fluid.ErrOutOfRange) && p < k.sol.pt*1.01 {
 			// Between the stored triple-point pressure and the
 			// equation's vapour pressure at Tt: vapour only.
-			pr0, err := f.PropsTP(max(Tf, k.c.tt), p, fluid.RootVapor, 0)
+			pr0, err := f.PropsTP(max(Tf, k.sol.tt), p, fluid.RootVapor, 0)
 			if err != nil {
 				return State{}, k.rewrap(err)
 			}
 			if x < X.of(&pr0) {
-				return State{}, k.c.solidError(k.op, "below the triple-point temperature", k.in[0], k.in[1])
+				return State{}, k.solidError("below the triple-point temperature")
 			}
 			return k.isobarSingle(p, X, x, &pr0, vaporSide, pr0.T, lim.TCeil, false)
 		}
@@ -551,7 +588,7 @@ func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation
 	lim := f.Limits()
 	want := k.opt.Phase
 	xl, xv := X.of(&s.Liquid), X.of(&s.Vapor)
-	Tf, _ := k.c.freezeT(p)
+	Tf, _ := k.freezeT(p)
 	switch {
 	case x < xl:
 		return k.isobarSingle(p, X, x, &s.Liquid, liquidSide, Tf, s.T, false)
@@ -575,13 +612,13 @@ func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation
 // isobaricWarm tries the warm start of PH/PS.
 func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
 	g := k.opt.Guess
-	if g == nil || g.N < 1 || !(g.T > 0) || k.opt.AllowMetastable {
+	if g == nil || g.N < 1 || !(g.T > 0) || k.opt.AllowMetastable || k.decided {
 		return State{}, false
 	}
 	f := k.f
 	if gT, rl, rv, ok := k.guessSat(); ok {
 		c := f.Critical()
-		if !(p < c.P && p >= k.c.pt) {
+		if !(p < c.P && p >= k.sol.pt) {
 			return State{}, false
 		}
 		s, err := f.SaturationAtPFrom(p, gT, rl, rv)
@@ -591,7 +628,7 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
 		st, err := k.isobaricSat(p, X, x, &s)
 		return st, err == nil
 	}
-	if g.N != 1 {
+	if !k.fluidGuess() {
 		return State{}, false
 	}
 	liquid := g.Rho > f.Critical().Rho
@@ -639,19 +676,19 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		switch {
 		case sd == anySide:
 			root = fluid.RootStable
-			Ta = tlo
+			Ta = max(tlo, k.sol.tt)
 			if x > X.of(start) {
 				Ta = min(thi, 2*start.T)
 			}
 		case sd == liquidSide:
-			root, Ta = fluid.RootLiquid, tlo
+			root, Ta = fluid.RootLiquid, max(tlo, k.sol.tt)
 		}
 		if pa, err := f.PropsTP(Ta, p, root, 0); err == nil {
 			T0, rho0 := extrapolate(X, x, &pa, sd, tlo, thi)
 			pr, ok = newton2(f, qP, p, X, x, T0, rho0, keep, &pa)
 		}
 		if !ok {
-			if sd != anySide && p < c.P && p >= k.c.pt {
+			if sd != anySide && p < c.P && p >= k.sol.pt {
 				if s, err := f.SaturationAtP(p); err == nil {
 					if sd == liquidSide {
 						thi = s.T
@@ -659,6 +696,9 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 						tlo = s.T
 					}
 				}
+			}
+			if Tf, _ := k.freezeT(p); Tf > tlo {
+				tlo = Tf
 			}
 			var below, above bool
 			pr, ok, below, above = isobar(f, p, X, x, tlo, thi, root)
@@ -674,8 +714,8 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 				}
 				return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
 			case below:
-				_, floor := k.c.freezeT(p)
-				return State{}, k.c.lowError(k.op, floor || tlo <= lim.TFloor, k.in[0], k.in[1])
+				_, floor := k.freezeT(p)
+				return State{}, k.lowError(floor || tlo <= lim.TFloor)
 			case below || above:
 				return State{}, k.fail(fluid.ErrOutOfRange, "beyond the accepted temperature range "+
 					fmtG(lim.TFloor)+" <= T <= "+fmtG(lim.TCeil)+" K")
@@ -688,9 +728,9 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		}
 		return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
 	}
-	Tf, floor := k.c.freezeT(p)
+	Tf, floor := k.freezeT(p)
 	if pr.T < Tf*(1-1e-11) && !meta {
-		return State{}, k.c.lowError(k.op, floor, k.in[0], k.in[1])
+		return State{}, k.lowError(floor)
 	}
 	st, err := k.finish(&pr)
 	if err != nil {
@@ -714,9 +754,14 @@ func extrapolate(X quantity, x float64, start *fluid.Props, sd side, tlo, thi fl
 	d := dXdT(X, start)
 	T0 = start.T
 	if d > 0 && isFinite(d) {
-		T0 = min(max(start.T+(x-X.of(start))/d, tlo), thi)
+		// At most a quarter of T away: cp and the expansivity of the
+		// start (huge near the critical point) say little further out.
+		dT := (x - X.of(start)) / d
+		dT = max(min(dT, 0.25*start.T), -0.25*start.T)
+		T0 = min(max(start.T+dT, tlo), thi)
 	}
-	rho0 = start.Rho * math.Exp(-start.Expansivity*(T0-start.T))
+	e := max(min(-start.Expansivity*(T0-start.T), math.Ln2), -math.Ln2)
+	rho0 = start.Rho * math.Exp(e)
 	if !isFinite(rho0) || rho0 <= 0 {
 		rho0 = start.Rho
 	}

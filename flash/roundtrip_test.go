@@ -72,7 +72,11 @@ func checkState(t *testing.T, f *fluid.Fluid, what string, st *State) bool {
 			ok = false
 		}
 	}
-	if math.IsInf(st.Cp, 1) && st.Phase != TwoPhase && st.Flags&AtCritical == 0 {
+	mixture := st.Phase == TwoPhase || st.Phase == SolidVapor || st.Phase == SolidLiquid || st.Phase == Triple
+	if math.IsInf(st.Cp, 1) && !mixture && st.Flags&AtCritical == 0 {
+		ok = false
+	}
+	if math.IsInf(st.Cv, 1) && st.Phase != Triple && st.Flags&AtCritical == 0 {
 		ok = false
 	}
 	if st.N < 1 || st.N > 3 || st.Phase <= Unknown || st.Phase > Triple || st.T <= 0 || st.P <= 0 || st.Rho <= 0 {
@@ -85,13 +89,41 @@ func checkState(t *testing.T, f *fluid.Fluid, what string, st *State) bool {
 	if math.Abs(sum-1) > 1e-12 {
 		ok = false
 	}
+	// Quality and Solid against the phase fractions (DESIGN.md).
+	var xs, xv float64
+	for i := 0; i < st.N && i < 3; i++ {
+		switch st.Phases[i].Phase {
+		case Solid:
+			xs += st.Phases[i].Fraction
+		case Vapor:
+			xv += st.Phases[i].Fraction
+		}
+	}
+	if st.Phase == Vapor {
+		xv = 1 // a supercritical-temperature vapour lists itself as Vapor too
+	}
+	if math.Abs(st.Solid-xs) > 1e-12 || math.Abs(st.Quality-xv) > 1e-12 {
+		ok = false
+	}
 	switch st.Phase {
 	case Vapor:
-		ok = ok && st.Quality == 1
+		ok = ok && st.Quality == 1 && st.Solid == 0
 	case Liquid, Supercritical:
-		ok = ok && st.Quality == 0
+		ok = ok && st.Quality == 0 && st.Solid == 0
+	case Solid:
+		ok = ok && st.Quality == 0 && st.Solid == 1 && st.N == 1 && !math.IsInf(st.Cp, 0) && st.W > 0
 	case TwoPhase:
-		ok = ok && st.Quality > 0 && st.Quality < 1 && st.N == 2 && math.IsInf(st.Cp, 1)
+		ok = ok && st.Quality > 0 && st.Quality < 1 && st.N == 2 && math.IsInf(st.Cp, 1) && st.Solid == 0
+	case SolidVapor:
+		ok = ok && st.Quality > 0 && st.Quality < 1 && st.N == 2 && math.IsInf(st.Cp, 1) &&
+			st.Phases[0].Phase == Solid && st.Phases[1].Phase == Vapor && !math.IsInf(st.Cv, 0) && st.W > 0
+	case SolidLiquid:
+		ok = ok && st.Quality == 0 && st.Solid > 0 && st.Solid < 1 && st.N == 2 && math.IsInf(st.Cp, 1) &&
+			st.Phases[0].Phase == Solid && st.Phases[1].Phase != Vapor && !math.IsInf(st.Cv, 0) && st.W > 0
+	case Triple:
+		ok = ok && st.N == 3 && st.Phases[0].Phase == Solid && st.Phases[1].Phase == Liquid &&
+			st.Phases[2].Phase == Vapor && math.IsInf(st.Cp, 1) && math.IsInf(st.Cv, 1) && st.W == 0 &&
+			st.Solid > 0 && st.Quality > 0 && st.Solid+st.Quality < 1
 	}
 	if !ok {
 		t.Errorf("%s %s: invalid state %+v", f.Name(), what, *st)
@@ -177,8 +209,16 @@ func roundTrip(t *testing.T, f *fluid.Fluid, origin string, st *State, opt Optio
 // nonUnique reports whether st is a liquid below its density maximum
 // ((∂p/∂T)_ρ ≤ 0, in it or in its saturated liquid), where s along the
 // isotherm and p along the isochore are not monotone and TS and PD do
-// not fix the state (their documented choice is the lowest pressure).
+// not fix the state (their documented choice is the lowest pressure),
+// or a state of water at or below its triple point with ice or liquid:
+// ice is lighter than the liquid and melts to lower entropy along an
+// isotherm, so (p, ρ) and (T, s) can have a fluid, an ice and a mixed
+// solution (PD returns the fluid where there is one, TS the state of
+// lowest pressure).
 func nonUnique(f *fluid.Fluid, st *State) bool {
+	if f.Name() == "water" && st.Phase != Vapor && st.T <= f.Triple().T*(1+1e-12) {
+		return true
+	}
 	if st.Phase != Liquid && st.Phase != TwoPhase {
 		return false
 	}

@@ -1,6 +1,7 @@
 package flash
 
 import (
+	"errors"
 	"math"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
@@ -31,17 +32,45 @@ func DT(f *fluid.Fluid, rho, T float64) (State, error) { return DTWith(f, rho, T
 func DTWith(f *fluid.Fluid, rho, T float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.DT", fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"},
-		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt); err != nil {
+		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt, 3); err != nil {
 		return State{}, err
 	}
-	if err := k.positive(0); err != nil {
-		return State{}, err
+	if k.sol.ok && !k.metaFluid() && (k.onTripleT(T) || k.belowTripleT(T) && !k.clearVapour(rho, T) || k.denseCO2(rho, T)) {
+		return k.done(k.dtSolid(rho, T))
 	}
-	if err := k.positive(1); err != nil {
-		return State{}, err
+	st, err := k.dtFluid(rho, T)
+	if err == errSolid && !k.decided {
+		return k.done(k.dtSolid(rho, T))
 	}
+	return k.done(st, err)
+}
+
+// clearVapour reports whether (T, ρ) below the triple point is a vapour
+// by the node bounds: ρ below p_sub/(RT) for a lower bound of the
+// sublimation pressure p_sub at T, and so below the saturated vapour's
+// density (its compression factor is below 1).
+func (k *call) clearVapour(rho, T float64) bool {
+	n := k.sol.n
+	if T < n.subTMin() {
+		return false
+	}
+	lo, _ := n.subPBounds(T)
+	return rho < lo/(k.f.GasConstant()*T)
+}
+
+// denseCO2 reports whether (T, ρ) above the triple point may reach the
+// melting curve of dry ice: denser than the liquid at the triple point
+// (the liquid on the melting curve grows denser with T).
+func (k *call) denseCO2(rho, T float64) bool {
+	n := k.sol.n
+	return n.meltRising && !k.belowTripleT(T) && T <= n.meltEndT() && rho > k.f.Triple().RhoLiquid*(1-1e-9)
+}
+
+// dtFluid is the fluid path of DT.
+func (k *call) dtFluid(rho, T float64) (State, error) {
+	f := k.f
 	c := f.Critical()
-	if T >= k.c.tt && T < c.T && !k.opt.AllowMetastable {
+	if T >= k.sol.tt && T < c.T && !k.opt.AllowMetastable {
 		// Well inside the dome by the auxiliary densities: a mixture.
 		rl, err1 := f.AuxLiquidDensity(T)
 		rv, err2 := f.AuxVaporDensity(T)
@@ -57,14 +86,14 @@ func DTWith(f *fluid.Fluid, rho, T float64, opt Options) (State, error) {
 	}
 	pr, perr := f.Props(T, rho)
 	ok := (perr == nil || isRangeErr(perr) && pr.P > f.Limits().PCeil) && finiteProps(&pr)
-	if T >= c.T || T < k.c.tt {
+	if T >= c.T || T < k.sol.tt {
 		if !ok {
-			if T < k.c.tt && perr != nil && !isRangeErr(perr) {
-				return State{}, k.c.solidError(k.op, "between the vapour and the condensed phases below the triple point", k.in[0], k.in[1])
+			if T < k.sol.tt && perr != nil && !isRangeErr(perr) && !k.decided {
+				return State{}, k.solidError("between the vapour and the condensed phases below the triple point")
 			}
 			return State{}, k.rewrap(perr)
 		}
-		if T < k.c.tt {
+		if T < k.sol.tt {
 			// The vapour below the sublimation curve, the liquid above
 			// the melting curve; and the branch must match.
 			return k.belowTriple(&pr)
@@ -166,13 +195,19 @@ func DU(f *fluid.Fluid, rho, u float64) (State, error) { return DUWith(f, rho, u
 func DUWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.DU", fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"},
-		fluid.Input{Name: "u", Value: u, Unit: "J/kg"}, &opt); err != nil {
+		fluid.Input{Name: "u", Value: u, Unit: "J/kg"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	if err := k.positive(0); err != nil {
-		return State{}, err
+	if k.sol.ok && !k.metaFluid() && k.sol.n.meltRising && rho > f.Triple().RhoLiquid*(1-1e-9) &&
+		rho <= f.Limits().RhoCeil {
+		// Dry ice, or the melting curve above the triple point.
+		return k.done(k.duSolid(rho, u))
 	}
-	return k.isochoric(rho, qU, u)
+	st, err := k.isochoric(rho, qU, u)
+	if err == errSolid && !k.decided {
+		return k.done(k.duSolid(rho, u))
+	}
+	return k.done(st, err)
 }
 
 // isochoric solves X(T, ρ) = x along the isochore ρ, X rising with T
@@ -193,11 +228,13 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	}
 	// A single phase first.
 	pr, ok := newton1(f, X, x, T0, rho, true, lim.TFloor, lim.TCeil)
-	if ok && want != TwoPhase && pr.T < k.c.tt {
+	if ok && want != TwoPhase && pr.T < k.sol.tt {
 		// A fluid below the triple point, or a metastable vapour there
 		// with the equilibrium state elsewhere on the isochore.
-		if st, err := k.belowTriple(&pr); err == nil {
-			return st, nil
+		if !k.decided {
+			if st, err := k.belowTriple(&pr); err == nil {
+				return st, nil
+			}
 		}
 		ok = false
 	}
@@ -226,10 +263,10 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	if gT, rl, rv, okg := k.guessSat(); okg {
 		gl, gv = rl, rv
 		T0 = gT
-	} else if ok && pr.T > k.c.tt && pr.T < c.T {
+	} else if ok && pr.T > k.sol.tt && pr.T < c.T {
 		T0 = pr.T
 	} else {
-		T0 = 0.5 * (k.c.tt + c.T)
+		T0 = 0.5 * (k.sol.tt + c.T)
 	}
 	hiT := c.T
 	if _, ok := props(f, c.T, rho); !ok {
@@ -289,7 +326,7 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 		dT, _ := X.partials(&pr)
 		return X.of(&pr) - x, dT
 	}
-	lo, hi := k.c.tt, hiT
+	lo, hi := k.sol.tt, hiT
 	rlo, _ := eval(lo)
 	if failed != nil {
 		return State{}, k.rewrap(failed)
@@ -297,10 +334,10 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	if rlo > 0 {
 		// Below the triple line: a vapour below the sublimation curve,
 		// or solid.
-		if inside || !ok {
-			return State{}, k.c.solidError(k.op, "below the liquid-vapour states at the triple-point temperature", k.in[0], k.in[1])
+		if k.decided {
+			return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 		}
-		return k.belowTriple(&pr)
+		return State{}, k.solidError("below the liquid-vapour states at the triple-point temperature")
 	}
 	rhi, _ := eval(hi)
 	if failed != nil {
@@ -358,27 +395,20 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 }
 
 // belowTriple finishes a single-phase state below the triple-point
-// temperature: fluid only where the solid curves say so, and on the
-// branch they allow.
+// temperature: fluid only where the solid curves say so (finish), and on
+// the branch of its phase.
 func (k *call) belowTriple(pr *fluid.Props) (State, error) {
-	c := k.f.Critical()
-	r, _, why := k.c.classify(pr.T, pr.P)
-	if r == regionFluid && k.c.hasSub && (pr.Rho < c.Rho) != (pr.P <= k.c.psub(pr.T)) {
-		r, why = regionSolid, "between the vapour and the condensed phases below the triple point"
-	}
-	if r == regionFluid && pr.P > 0 {
-		// On the branch the curves allow, not a rising piece of p(ρ)
+	if !k.decided && pr.P > 0 {
+		// On the branch of its phase, not a rising piece of p(ρ)
 		// inside the equation's unstable region.
+		c := k.f.Critical()
 		root := fluid.RootVapor
 		if pr.Rho > c.Rho {
 			root = fluid.RootLiquid
 		}
 		if b, err := k.f.PropsTP(pr.T, pr.P, root, 0); err != nil || math.Abs(b.Rho-pr.Rho) > 1e-8*pr.Rho {
-			r, why = regionSolid, "between the vapour and the condensed phases below the triple point"
+			return State{}, k.solidError("between the vapour and the condensed phases below the triple point")
 		}
-	}
-	if r != regionFluid {
-		return State{}, k.c.regionError(k.op, r, why, k.in[0], k.in[1])
 	}
 	return k.wanted(k.finish(pr))
 }
@@ -402,15 +432,27 @@ func PD(f *fluid.Fluid, p, rho float64) (State, error) { return PDWith(f, p, rho
 func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PD", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
-		fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"}, &opt); err != nil {
+		fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"}, &opt, 3); err != nil {
 		return State{}, err
 	}
-	if err := k.positive(0); err != nil {
-		return State{}, err
+	if k.sol.ok && !k.metaFluid() && (k.belowTripleP(p) || k.onTripleP(p) ||
+		k.sol.n.meltRising && rho > f.Triple().RhoLiquid*(1-1e-9)) {
+		return k.done(k.pdSolid(p, rho))
 	}
-	if err := k.positive(1); err != nil {
-		return State{}, err
+	st, err := k.pd(p, rho)
+	if err != nil && k.sol.ok && !k.decided && !errors.Is(err, fluid.ErrInvalidInput) {
+		// No fluid state (ice is lighter than water: the fluid is tried
+		// first, see PD).
+		if st2, err2 := k.pdSolid(p, rho); err2 == nil || err == errSolid {
+			return k.done(st2, err2)
+		}
 	}
+	return k.done(st, err)
+}
+
+// pd is the fluid path of PD.
+func (k *call) pd(p, rho float64) (State, error) {
+	f := k.f
 	c := f.Critical()
 	lim := f.Limits()
 	tlo, thi := lim.TFloor, lim.TCeil
@@ -418,13 +460,13 @@ func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
 	if p >= c.P {
 		T0 = max(T0, c.T*1.01)
 	}
-	Tf, _ := k.c.freezeT(p)
+	Tf, _ := k.freezeT(p)
 	tlo = max(tlo, Tf*(1-1e-11))
 	// The liquid-like side: T between the freezing temperature and the
 	// saturation (or critical) temperature, started at the top: the
 	// isochore meets the dome below the solution, not above it.
 	switch {
-	case p < c.P && p >= k.c.pt:
+	case p < c.P && p >= k.sol.pt:
 		s, err := k.satP(p)
 		if err == nil {
 			if q, in := qualityOf(rho, &s); in {
@@ -450,7 +492,7 @@ func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
 	if !ok {
 		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 	}
-	if pr.T < k.c.tt {
+	if pr.T < k.sol.tt {
 		return k.belowTriple(&pr)
 	}
 	return k.wanted(k.finish(&pr))

@@ -431,9 +431,20 @@ func (f *Fluid) solveDelta(tau, pi float64, b branch, g float64) (float64, helmh
 				return x, r, rootFound
 			}
 			xn := x + step
-			if b != branchLiquid && P > 0 && pi > 0 {
+			switch {
+			case b != branchLiquid && P > 0 && pi > 0:
 				// Newton in ln ρ on ln p: nearly linear for gases.
 				xn = x * math.Exp(-math.Log(P/pi)*P/(x*dP))
+			case b == branchLiquid:
+				// A Tait-form step, ρ = ρ₀(1 + K′Δp/K)^(1/K′) with the
+				// bulk modulus K = ρ(∂p/∂ρ)_T here and K′ = dK/dp = 7,
+				// typical of liquids (common practice, no source): the
+				// Newton step where Δp is small, and the stiffening of a
+				// compressed liquid where it is not.
+				const kp = 7.0
+				if base := 1 + kp*(pi-P)/(x*dP); base > 0.25 {
+					xn = x * math.Pow(base, 1/kp)
+				}
 			}
 			x = xn
 		} else {

@@ -490,7 +490,7 @@ func (f *Fluid) auxTsat(p float64) float64 {
 		if !finite(y) {
 			break
 		}
-		if math.Abs(y-lp) < 1e-9 {
+		if math.Abs(y-lp) < 1e-7 { // a start only: Newton's method refines it
 			return T
 		}
 		if x != x0 {
