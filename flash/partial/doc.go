@@ -52,7 +52,7 @@
 // Derivative at a single-phase fluid state costs one evaluation of the
 // equation of state (fluid.Fluid.Props) and a few tens of floating-point
 // operations; at a solid state one Gibbs-energy evaluation
-// (sublimation.Solid.Props); at a two-phase or triple state no
+// (sublimation.Solid.Derivs); at a two-phase or triple state no
 // evaluation at all (the state carries the phases and the mixture's cv).
 // SlopesOf costs one evaluation per phase, SlopesAtT and SlopesAtP the
 // curve's solution besides. Build a Jacobian with At once and call its

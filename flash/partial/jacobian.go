@@ -51,7 +51,7 @@ func det(r, s row) (d0, d1 float64) {
 //     (st.T, st.Rho) (one fluid.Fluid.Props evaluation), in (T, v):
 //     dp = (∂p/∂T)_v dT + (∂p/∂v)_T dv, ds = (cv/T) dT + (∂p/∂T)_v dv.
 //   - Solid: from the solid's Gibbs energy at (st.T, st.P) (one
-//     sublimation.Solid.Props evaluation), in (T, p):
+//     sublimation.Solid.Derivs evaluation), in (T, p):
 //     dv = g_Tp dT + g_pp dp, ds = −g_TT dT − g_Tp dp.
 //   - TwoPhase, SolidVapor, SolidLiquid: two phases in equilibrium, in
 //     (T, v) of the mixture: p follows the coexistence curve,
@@ -277,24 +277,26 @@ func fluidJacobian(op string, f *fluid.Fluid, st *flash.State, ph flash.Phase) (
 	return j, nil
 }
 
-// solidJacobian is the Jacobian of the solid at (st.T, st.P), in (T, p):
-// with v = g_p, g_Tp = αv, g_pp = −κ_T v, g_TT = −cp/T.
+// solidJacobian is the Jacobian of the solid at (st.T, st.P), in (T, p),
+// from its Gibbs energy: v = g_p, s = −g_T, dv = g_Tp dT + g_pp dp,
+// ds = −g_TT dT − g_Tp dp. Outside the model's range sublimation.Solid.Props
+// gives the error.
 func solidJacobian(op string, f *fluid.Fluid, st *flash.State) (Jacobian, error) {
 	sol, err := sublimation.For(f)
 	if err != nil {
 		return Jacobian{}, rewrap(op, st, err)
 	}
-	sp, err := sol.Props(st.T, st.P)
-	if err != nil {
-		return Jacobian{}, rewrap(op, st, err)
+	if l := sol.Limits(); !(st.T >= l.TFloor && st.T <= l.TCeil && st.P <= l.PCeil) {
+		if _, err := sol.Props(st.T, st.P); err != nil {
+			return Jacobian{}, rewrap(op, st, err)
+		}
 	}
-	v := 1 / sp.Rho
-	gTp, gpp := sp.Expansivity*v, -sp.KappaT*v
-	j := Jacobian{phase: flash.Solid, t: sp.T, p: sp.P, v: v, s: sp.S}
+	g := sol.Derivs(st.T, st.P)
+	j := Jacobian{phase: flash.Solid, t: st.T, p: st.P, v: g.GP, s: -g.GT}
 	j.dT = row{x: 1}
 	j.dp = row{y: 1}
-	j.dv = row{x: gTp, y: gpp}
-	j.ds = row{x: sp.Cp / sp.T, y: -gTp}
+	j.dv = row{x: g.GTP, y: g.GPP}
+	j.ds = row{x: -g.GTT, y: -g.GTP}
 	return j, nil
 }
 

@@ -371,6 +371,8 @@ func TestBadInput(t *testing.T) {
 		{"out of range", w, mod(func(s *flash.State) { s.T = 1e5 }), fluid.ErrOutOfRange},
 		{"two-phase without phases", w, mod(func(s *flash.State) { s.Phase, s.N = flash.TwoPhase, 2 }), fluid.ErrInvalidInput},
 		{"solid of R-134a", r, mod(func(s *flash.State) { s.Phase = flash.Solid; s.T = 150 }), fluid.ErrUndefined},
+		{"ice beyond ice Ih", w, mod(func(s *flash.State) { s.Phase, s.T, s.P = flash.Solid, 250, 1e9 }), fluid.ErrOutOfRange},
+		{"ice too warm", w, mod(func(s *flash.State) { s.Phase, s.T = flash.Solid, 400 }), fluid.ErrOutOfRange},
 	} {
 		if _, err := At(c.f, c.st); !errors.Is(err, c.want) {
 			t.Errorf("%s: At error %v, want %v", c.name, err, c.want)
