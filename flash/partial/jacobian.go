@@ -268,7 +268,10 @@ func fluidJacobian(op string, f *fluid.Fluid, st *flash.State, ph flash.Phase) (
 	j.dT = row{x: 1}
 	j.dv = row{y: 1}
 	j.dp = row{x: pr.DpDT, y: -pr.Rho * pr.Rho * pr.DpDrho}
-	if pr.Flags&fluid.AtCritical != 0 {
+	if pr.Flags&fluid.AtCritical != 0 && math.IsInf(pr.Cv, 1) {
+		// Nonanalytic terms: cv is infinite. (Without them, as for
+		// R-134a, cv stays finite at the critical point and only
+		// (∂p/∂ρ)_T vanishes.)
 		j.ds = row{y: pr.DpDT, k: 1}
 		j.crit = true
 	} else {
