@@ -22,6 +22,7 @@ import (
 	"unsafe"
 
 	"github.com/tripoint-thermo/tripoint/flash"
+	"github.com/tripoint-thermo/tripoint/flash/partial"
 	"github.com/tripoint-thermo/tripoint/fluid"
 )
 
@@ -528,6 +529,100 @@ func tp_prop_n(h, pair, prop, n C.int32_t, a, b, out *C.double, stat *C.int32_t,
 // int32ToC converts a Go int to the C pair type; for the tests, which
 // cannot use cgo directly.
 func int32ToC(v int) C.int32_t { return C.int32_t(v) }
+
+// quantity converts a TP_Q_* code; the codes are those of partial.Quantity.
+func quantity(op string, q C.int32_t) (partial.Quantity, error) {
+	if pq := partial.Quantity(q); pq.Valid() {
+		return pq, nil
+	}
+	return 0, fluid.NewError(op, fluid.ErrInvalidInput,
+		fmt.Sprintf("quantity code must be TP_Q_T (1) .. TP_Q_F (9); got %d", int(q)))
+}
+
+//export tp_derivative
+func tp_derivative(h, pair C.int32_t, in1, in2 C.double, a, b, c C.int32_t, e *C.tp_error) (v C.double) {
+	var status C.int32_t
+	defer func() {
+		if status != statusOK {
+			v = C.double(math.NaN())
+		}
+	}()
+	defer guard(e, &status)
+	x, err := derivativeOne(h, pair, float64(in1), float64(in2), a, b, c)
+	if err != nil {
+		status = C.int32_t(fail(e, err))
+		return C.double(math.NaN())
+	}
+	setErr(e, statusOK, "")
+	return C.double(x)
+}
+
+func derivativeOne(h, pair C.int32_t, in1, in2 float64, a, b, c C.int32_t) (float64, error) {
+	var q [3]partial.Quantity
+	for i, code := range [3]C.int32_t{a, b, c} {
+		var err error
+		if q[i], err = quantity("tp_derivative", code); err != nil {
+			return math.NaN(), err
+		}
+	}
+	f, err := lookupHandle(h)
+	if err != nil {
+		return math.NaN(), err
+	}
+	st, err := run(f, pair, in1, in2, flash.Options{})
+	if err != nil {
+		return math.NaN(), err
+	}
+	return partial.Derivative(f, st, q[0], q[1], q[2])
+}
+
+//export tp_curve_derivative
+func tp_curve_derivative(h, curve, at C.int32_t, x C.double, phase, a, b C.int32_t, e *C.tp_error) (v C.double) {
+	var status C.int32_t
+	defer func() {
+		if status != statusOK {
+			v = C.double(math.NaN())
+		}
+	}()
+	defer guard(e, &status)
+	r, err := curveDerivativeOne(h, curve, at, float64(x), phase, a, b)
+	if err != nil {
+		status = C.int32_t(fail(e, err))
+		return C.double(math.NaN())
+	}
+	setErr(e, statusOK, "")
+	return C.double(r)
+}
+
+func curveDerivativeOne(h, curve, at C.int32_t, x float64, phase, a, b C.int32_t) (float64, error) {
+	const op = "tp_curve_derivative"
+	qa, err := quantity(op, a)
+	if err != nil {
+		return math.NaN(), err
+	}
+	qb, err := quantity(op, b)
+	if err != nil {
+		return math.NaN(), err
+	}
+	f, err := lookupHandle(h)
+	if err != nil {
+		return math.NaN(), err
+	}
+	var s partial.Slopes
+	switch partial.Quantity(at) {
+	case partial.T:
+		s, err = partial.SlopesAtT(f, partial.Curve(curve), x)
+	case partial.P:
+		s, err = partial.SlopesAtP(f, partial.Curve(curve), x)
+	default:
+		return math.NaN(), fluid.NewError(op, fluid.ErrInvalidInput,
+			fmt.Sprintf("at must be TP_Q_T (1) or TP_Q_P (2); got %d", int(at)))
+	}
+	if err != nil {
+		return math.NaN(), err
+	}
+	return s.Derivative(int(phase), qa, qb)
+}
 
 // callResult is what one call through the C entry points returned, for
 // the tests (which cannot use cgo types themselves).

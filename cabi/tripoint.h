@@ -113,6 +113,22 @@ extern "C" {
 #define TP_PROP_FLAGS    13 /* TP_FLAG_* bits as a double */
 #define TP_PROP_V        14 /* specific volume 1/rho, m3/kg */
 
+/* Quantity codes of the partial derivatives (stable values). */
+#define TP_Q_T   1 /* K */
+#define TP_Q_P   2 /* Pa */
+#define TP_Q_RHO 3 /* kg/m3 */
+#define TP_Q_V   4 /* m3/kg */
+#define TP_Q_U   5 /* J/kg */
+#define TP_Q_H   6 /* J/kg */
+#define TP_Q_S   7 /* J/(kg K) */
+#define TP_Q_G   8 /* J/kg, Gibbs energy h - Ts */
+#define TP_Q_F   9 /* J/kg, Helmholtz energy u - Ts */
+
+/* Coexistence curves. */
+#define TP_CURVE_SATURATION  1 /* liquid-vapour */
+#define TP_CURVE_SUBLIMATION 2 /* solid-vapour */
+#define TP_CURVE_MELTING     3 /* solid-liquid (and solid-dense fluid) */
+
 /* Error out-parameter. */
 typedef struct tp_error {
     uint32_t size;      /* set to sizeof(tp_error) */
@@ -208,6 +224,24 @@ double tp_prop(int32_t handle, int32_t pair, double a, double b,
 int32_t tp_prop_n(int32_t handle, int32_t pair, int32_t prop, int32_t n,
                   const double* a, const double* b, double* out,
                   int32_t* status, tp_error* err);
+
+/* Partial derivative (da/db)_c, with a, b, c among TP_Q_*, of the state at
+ * inputs (in1, in2) of input pair TP_*, in every region (two-phase, solid,
+ * solid-vapour, solid-liquid and triple included), in SI units. A
+ * derivative that is infinite or does not exist there (cp of a mixture, cv
+ * on the triple line, kappa_T at the critical point) gives NaN with
+ * TP_UNDEFINED. Returns NaN on any error. */
+double tp_derivative(int32_t handle, int32_t pair, double in1, double in2,
+                     int32_t a, int32_t b, int32_t c, tp_error* err);
+
+/* Derivative da/db along coexistence curve TP_CURVE_* of coexisting phase
+ * `phase` (0 or 1: for saturation the liquid and the vapour; for
+ * sublimation and melting the solid and the fluid), at the curve's point of
+ * temperature x (at = TP_Q_T) or pressure x (at = TP_Q_P); a is any TP_Q_*
+ * and b is TP_Q_T or TP_Q_P. For the curve itself, a = TP_Q_P and b =
+ * TP_Q_T give dp/dT (the same for both phases). Returns NaN on error. */
+double tp_curve_derivative(int32_t handle, int32_t curve, int32_t at, double x,
+                           int32_t phase, int32_t a, int32_t b, tp_error* err);
 
 #endif /* TP_TYPES_ONLY */
 

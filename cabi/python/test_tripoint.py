@@ -59,6 +59,21 @@ class TestLibrary(unittest.TestCase):
         hs = co2.prop_n(tripoint.PT, tripoint.PROP_H, ps, ts)
         self.assertEqual(hs, [s.h for s in states])
 
+    def test_derivatives(self):
+        water = self.lib.fluid("water")
+        # Clausius-Clapeyron along the saturation curve at 373.15 K: dp/dT
+        # equals (h'' - h')/(T (v'' - v')) of the saturated phases.
+        dpdt = water.curve_derivative(tripoint.CURVE_SATURATION, tripoint.Q_T, 373.15, 0, tripoint.Q_P, tripoint.Q_T)
+        liq, vap = water.tq(373.15, 0.0), water.tq(373.15, 1.0)
+        cc = (vap.h - liq.h) / (373.15 * (1 / vap.rho - 1 / liq.rho))
+        self.assertAlmostEqual(dpdt / cc, 1.0, places=9)
+        # (dh/dT)_p of a single phase is its cp.
+        st = water.pt(101325.0, 300.0)
+        self.assertAlmostEqual(water.derivative(tripoint.PT, 101325.0, 300.0, tripoint.Q_H, tripoint.Q_T, tripoint.Q_P) / st.cp, 1.0, places=9)
+        # cp of a two-phase mixture is infinite: an error, not a number.
+        with self.assertRaises(tripoint.UndefinedError):
+            water.derivative(tripoint.TQ, 373.15, 0.5, tripoint.Q_H, tripoint.Q_T, tripoint.Q_P)
+
     def test_threads(self):
         co2 = self.lib.fluid("CO2")
         want = co2.prop(tripoint.PT, 2e6, 300.0, tripoint.PROP_H)

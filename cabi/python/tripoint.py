@@ -38,6 +38,10 @@ REF_DEFAULT, REF_IIR, REF_ASHRAE, REF_NBP = range(4)
 # Input pairs.
 PT, PH, PS, PQ, TQ, DU, HS, DT = range(1, 9)
 
+# Quantity codes of the partial derivatives, and coexistence curves.
+Q_T, Q_P, Q_RHO, Q_V, Q_U, Q_H, Q_S, Q_G, Q_F = range(1, 10)
+CURVE_SATURATION, CURVE_SUBLIMATION, CURVE_MELTING = 1, 2, 3
+
 # Property codes.
 (PROP_T, PROP_P, PROP_RHO, PROP_H, PROP_S, PROP_U, PROP_CP, PROP_CV, PROP_W,
  PROP_QUALITY, PROP_SOLID, PROP_PHASE, PROP_FLAGS, PROP_V) = range(1, 15)
@@ -173,6 +177,8 @@ class Library:
             "tp_flash_n": (i32, [i32, i32, i32, P(dbl), P(dbl), P(_Options), P(_State), P(i32), P(_Error)]),
             "tp_prop": (dbl, [i32, i32, dbl, dbl, i32, P(_Error)]),
             "tp_prop_n": (i32, [i32, i32, i32, i32, P(dbl), P(dbl), P(dbl), P(i32), P(_Error)]),
+            "tp_derivative": (dbl, [i32, i32, dbl, dbl, i32, i32, i32, P(_Error)]),
+            "tp_curve_derivative": (dbl, [i32, i32, i32, dbl, i32, i32, i32, P(_Error)]),
         }
         for name, (res, args) in sig.items():
             fn = getattr(lib, name)
@@ -276,6 +282,25 @@ class Fluid:
         err = _err()
         v = self._lib._lib.tp_prop(self._h, pair, a, b, prop, ctypes.byref(err))
         if math.isnan(v) and err.code != OK:
+            _raise(err.code, err.message.decode("ascii"))
+        return v
+
+    def derivative(self, pair, a, b, qa, qb, qc):
+        """(d qa / d qb) at constant qc of the state at (a, b), e.g.
+        derivative(PH, p, h, Q_RHO, Q_H, Q_P); raises UndefinedError where it
+        is infinite or does not exist."""
+        err = _err()
+        v = self._lib._lib.tp_derivative(self._h, pair, a, b, qa, qb, qc, ctypes.byref(err))
+        if err.code != OK:
+            _raise(err.code, err.message.decode("ascii"))
+        return v
+
+    def curve_derivative(self, curve, at, x, phase, qa, qb):
+        """d qa / d qb of coexisting phase 0 or 1 along a curve at T = x
+        (at=Q_T) or p = x (at=Q_P)."""
+        err = _err()
+        v = self._lib._lib.tp_curve_derivative(self._h, curve, at, x, phase, qa, qb, ctypes.byref(err))
+        if err.code != OK:
             _raise(err.code, err.message.decode("ascii"))
         return v
 

@@ -1,8 +1,6 @@
 package main
 
 import (
-	"errors"
-	"flag"
 	"io"
 	"math"
 	"path/filepath"
@@ -10,6 +8,7 @@ import (
 	"testing"
 
 	"github.com/tripoint-thermo/tripoint/examples/internal/kit"
+	"github.com/tripoint-thermo/tripoint/examples/internal/kittest"
 	"github.com/tripoint-thermo/tripoint/flash"
 	"github.com/tripoint-thermo/tripoint/fluid"
 	"gonum.org/v1/gonum/integrate"
@@ -227,38 +226,16 @@ func TestRun(t *testing.T) {
 
 func TestBadFlags(t *testing.T) {
 	t.Parallel()
-	for _, tc := range []struct {
-		args []string
-		want string
-	}{
-		{[]string{"-tevap-C", "cold"}, "-tevap-C"},
-		{[]string{"-tevap-C", "-8", "-tevap-K", "265"}, "already given"},
-		{[]string{"-eta", "1.2"}, "-eta"},
-		{[]string{"-eta", "0"}, "-eta"},
-		{[]string{"-tevap-C", "40", "-tout-C", "35"}, "-tout-C"},
-		{[]string{"-superheat-K", "-2"}, "-superheat-K"},
-		{[]string{"-fluids", "CO2,nitrogen"}, "nitrogen"},
-		{[]string{"-units", "imperial"}, "-units"},
-		{[]string{"-pgc-bar", "-5"}, "-pgc-bar"},
-		{[]string{"extra"}, "unexpected argument"},
-	} {
-		var errs strings.Builder
-		err := run(tc.args, io.Discard, &errs)
-		if err == nil || errors.Is(err, flag.ErrHelp) {
-			t.Errorf("%v: error %v", tc.args, err)
-			continue
-		}
-		if !strings.Contains(errs.String()+err.Error(), tc.want) {
-			t.Errorf("%v: message %q does not name %q", tc.args, errs.String(), tc.want)
-		}
-	}
-	var errs strings.Builder
-	if err := run([]string{"-h"}, io.Discard, &errs); !errors.Is(err, flag.ErrHelp) {
-		t.Errorf("-h: %v", err)
-	}
-	for _, w := range []string{"-tevap-C", "-tout-K", "-pgc-bar", "-superheat-K", "supermarket"} {
-		if !strings.Contains(errs.String(), w) {
-			t.Errorf("-h lacks %q", w)
-		}
-	}
+	kittest.CheckCommandLine(t, run, []kittest.BadFlag{
+		{Args: []string{"-tevap-C", "cold"}, Want: "-tevap-C"},
+		{Args: []string{"-tevap-C", "-8", "-tevap-K", "265"}, Want: "already given"},
+		{Args: []string{"-eta", "1.2"}, Want: "-eta"},
+		{Args: []string{"-eta", "0"}, Want: "-eta"},
+		{Args: []string{"-tevap-C", "40", "-tout-C", "35"}, Want: "-tout-C"},
+		{Args: []string{"-superheat-K", "-2"}, Want: "-superheat-K"},
+		{Args: []string{"-fluids", "CO2,nitrogen"}, Want: "nitrogen"},
+		{Args: []string{"-units", "imperial"}, Want: "-units"},
+		{Args: []string{"-pgc-bar", "-5"}, Want: "-pgc-bar"},
+		{Args: []string{"extra"}, Want: "unexpected argument"},
+	}, []string{"-tevap-C", "-tout-K", "-pgc-bar", "-superheat-K", "supermarket"})
 }

@@ -32,6 +32,17 @@ var (
 	unitPa  = scale("Pa", "Pa", 1)
 	unitKJ  = scale("kJkg", "kJ/kg", 1e3)
 	unitJ   = scale("Jkg", "J/kg", 1)
+
+	unitL    = scale("L", "L", 1e-3)
+	unitM3   = scale("m3", "m³", 1)
+	unitKg   = scale("kg", "kg", 1)
+	unitMm   = scale("mm", "mm", 1e-3)
+	unitM    = scale("m", "m", 1)
+	unitM2   = scale("m2", "m²", 1)
+	unitS    = scale("s", "s", 1)
+	unitMin  = scale("min", "min", 60)
+	unitHour = scale("h", "h", 3600)
+	unitHTC  = scale("Wm2K", "W/(m²·K)", 1)
 )
 
 // ZeroCelsius is 0 °C in K.
@@ -181,6 +192,37 @@ func (f *Flags) Pressure(name, what string, defBar float64) *Quantity {
 // Enthalpy adds -name-kJkg and -name-Jkg, with default defKJ in kJ/kg.
 func (f *Flags) Enthalpy(name, what string, defKJ float64) *Quantity {
 	return f.quantity(name, what, defKJ, unitKJ, unitJ)
+}
+
+// Volume adds -name-L and -name-m3, with default defL in litres.
+func (f *Flags) Volume(name, what string, defL float64) *Quantity {
+	return f.quantity(name, what, defL, unitL, unitM3)
+}
+
+// Mass adds -name-kg, with default defKg in kg.
+func (f *Flags) Mass(name, what string, defKg float64) *Quantity {
+	return f.quantity(name, what, defKg, unitKg)
+}
+
+// Length adds -name-mm and -name-m, with default defMm in mm.
+func (f *Flags) Length(name, what string, defMm float64) *Quantity {
+	return f.quantity(name, what, defMm, unitMm, unitM)
+}
+
+// Area adds -name-m2, with default defM2 in m² (0: not set, for optional
+// areas).
+func (f *Flags) Area(name, what string, defM2 float64) *Quantity {
+	return f.quantity(name, what, defM2, unitM2)
+}
+
+// Duration adds -name-s, -name-min and -name-h, with default defS in s.
+func (f *Flags) Duration(name, what string, defS float64) *Quantity {
+	return f.quantity(name, what, defS, unitS, unitMin, unitHour)
+}
+
+// HeatTransferCoefficient adds -name-Wm2K, with default def in W/(m²·K).
+func (f *Flags) HeatTransferCoefficient(name, what string, def float64) *Quantity {
+	return f.quantity(name, what, def, unitHTC)
 }
 
 // Float adds a dimensionless flag -name.

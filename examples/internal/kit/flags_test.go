@@ -43,6 +43,36 @@ func TestFlagsUnits(t *testing.T) {
 	}
 }
 
+func TestFlagsMoreUnits(t *testing.T) {
+	t.Parallel()
+	// Conversions are exact definitions: 1 L = 1e-3 m³, 1 mm = 1e-3 m,
+	// 1 min = 60 s, 1 h = 3600 s (SI brochure; common practice).
+	for _, tc := range []struct {
+		args                []string
+		wantV, wantD, wantT float64 // m³, m, s
+	}{
+		{nil, 0.05, 0.003, 600},
+		{[]string{"-v-m3", "0.2", "-d-m", "0.01", "-t-min", "2"}, 0.2, 0.01, 120},
+		{[]string{"-v-L", "12.5", "-d-mm", "6", "-t-h", "1.5"}, 0.0125, 0.006, 5400},
+	} {
+		fs := NewFlags("x", "test", io.Discard)
+		v := fs.Volume("v", "a volume", 50)
+		d := fs.Length("d", "a diameter", 3)
+		tm := fs.Duration("t", "a time", 600)
+		m := fs.Mass("m", "a mass", 20)
+		a := fs.Area("a", "an area", 0).Optional()
+		k := fs.HeatTransferCoefficient("k", "a coefficient", 10)
+		if err := fs.Parse(tc.args); err != nil {
+			t.Fatalf("%v: %v", tc.args, err)
+		}
+		for _, c := range []struct{ got, want float64 }{{v.Value(), tc.wantV}, {d.Value(), tc.wantD}, {tm.Value(), tc.wantT}, {m.Value(), 20}, {a.Value(), 0}, {k.Value(), 10}} {
+			if math.Abs(c.got-c.want) > 1e-12*math.Max(1, math.Abs(c.want)) {
+				t.Errorf("%v: got %v, want %v", tc.args, c.got, c.want)
+			}
+		}
+	}
+}
+
 func TestFlagsErrors(t *testing.T) {
 	t.Parallel()
 	for _, tc := range []struct {
@@ -81,6 +111,16 @@ func TestFlagsErrors(t *testing.T) {
 		if !strings.Contains(out.String(), w) {
 			t.Errorf("-h output lacks %q:\n%s", w, out.String())
 		}
+	}
+	// An optional quantity shows no default.
+	out.Reset()
+	fs = NewFlags("x", "synopsis line", &out)
+	fs.Pressure("p", "an optional pressure", 0).Optional()
+	if err := fs.Parse([]string{"-h"}); !errors.Is(err, flag.ErrHelp) {
+		t.Errorf("-h: %v, want flag.ErrHelp", err)
+	}
+	if strings.Contains(out.String(), "default") {
+		t.Errorf("-h shows a default of an optional quantity:\n%s", out.String())
 	}
 }
 

@@ -141,9 +141,24 @@ type KeyEntry struct {
 	Fill color.Color    // a filled box, if not nil
 }
 
-// Key is a plotter that draws a key of the chart's lines in the top
-// right corner of the data area, on a box of the paper colour.
-type Key struct{ Entries []KeyEntry }
+// Key is a plotter that draws a key of the chart's lines in a corner of
+// the data area (the top right one unless Left or Bottom is set), on a
+// box of the paper colour.
+type Key struct {
+	Entries      []KeyEntry
+	Left, Bottom bool // the corner: left instead of right, bottom instead of top
+}
+
+// Size returns the width and height of the key's box.
+func (k Key) Size() (w, h vg.Length) {
+	sty := text.Style{Font: font.From(Sans, 9), Handler: plot.DefaultTextHandler}
+	pad, thumb, row := vg.Points(6), vg.Points(26), vg.Points(13)
+	var tw vg.Length
+	for _, e := range k.Entries {
+		tw = max(tw, sty.Width(e.Text))
+	}
+	return pad + thumb + pad + tw + pad, pad + row*vg.Length(len(k.Entries)) + pad
+}
 
 // Plot implements plot.Plotter.
 func (k Key) Plot(c draw.Canvas, _ *plot.Plot) {
@@ -152,13 +167,14 @@ func (k Key) Plot(c draw.Canvas, _ *plot.Plot) {
 	}
 	sty := text.Style{Color: Ink, Font: font.From(Sans, 9), XAlign: text.XLeft, YAlign: text.YCenter, Handler: plot.DefaultTextHandler}
 	pad, thumb, row := vg.Points(6), vg.Points(26), vg.Points(13)
-	var w vg.Length
-	for _, e := range k.Entries {
-		w = max(w, sty.Width(e.Text))
-	}
-	bw := pad + thumb + pad + w + pad
-	bh := pad + row*vg.Length(len(k.Entries)) + pad
+	bw, bh := k.Size()
 	r := vg.Rectangle{Min: vg.Point{X: c.Max.X - pad - bw, Y: c.Max.Y - pad - bh}, Max: vg.Point{X: c.Max.X - pad, Y: c.Max.Y - pad}}
+	if k.Left {
+		r.Min.X, r.Max.X = c.Min.X+pad, c.Min.X+pad+bw
+	}
+	if k.Bottom {
+		r.Min.Y, r.Max.Y = c.Min.Y+pad, c.Min.Y+pad+bh
+	}
 	c.SetColor(Paper)
 	c.Fill(r.Path())
 	c.SetLineStyle(Line(GridInk, 1))
