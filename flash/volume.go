@@ -219,6 +219,16 @@ func DU(f *fluid.Fluid, rho, u float64) (State, error) { return DUWith(f, rho, u
 // DUWith is DU with options: a warm start from opt.Guess, a requested
 // phase, metastable single-phase states with opt.AllowMetastable.
 func DUWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
+	st, err := duWith(f, rho, u, opt)
+	if err != nil && opt.Guess != nil && errors.Is(err, fluid.ErrNoConvergence) {
+		// A guess must never make a solvable case fail: start cold.
+		opt.Guess = nil
+		return duWith(f, rho, u, opt)
+	}
+	return st, err
+}
+
+func duWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.DU", fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"},
 		fluid.Input{Name: "u", Value: u, Unit: "J/kg"}, &opt, 1); err != nil {
@@ -402,6 +412,7 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	}
 	T := min(max(T0, lo), hi)
 	converged := false
+	prevR := math.Inf(1)
 	for it := 0; it < 200; it++ {
 		r, d := eval(T)
 		if failed != nil {
@@ -425,9 +436,13 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 			lo = T
 		}
 		Tn := T - r/d
-		if !(Tn > lo && Tn < hi) {
+		// Bisect where Newton leaves the bracket or stalls (|r| not
+		// halved: a slope far off the secant creeps along one end of
+		// the bracket), so that the bracket always shrinks.
+		if !(Tn > lo && Tn < hi) || math.Abs(r) > 0.5*prevR {
 			Tn = 0.5 * (lo + hi)
 		}
+		prevR = math.Abs(r)
 		T = Tn
 	}
 	if !converged {
