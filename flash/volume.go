@@ -427,7 +427,12 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 			break
 		}
 		if hi-lo <= 1e-14*hi {
-			converged = math.Abs(r) <= X.floor(f, ref, x)
+			// T is fixed to rounding. Within a millikelvin of Tc the
+			// equation fixes the saturated densities only loosely
+			// (fluid.SaturationAtT), and the mixture's u jumps between
+			// neighbouring temperatures by more than the floor: the
+			// state is then as determined as the equation allows.
+			converged = math.Abs(r) <= X.floor(f, ref, x) || inside && c.T-T < 1e-3
 			break
 		}
 		if r > 0 {
