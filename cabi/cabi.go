@@ -478,8 +478,9 @@ func propOne(h, pair C.int32_t, a, b float64, prop C.int32_t) (float64, error) {
 	return property(&st, prop)
 }
 
-//export tp_prop
-func tp_prop(h, pair C.int32_t, a, b C.double, prop C.int32_t, e *C.tp_error) (v C.double) {
+// scalarCall runs fn for an entry point that returns one double: the
+// value, or NaN with the status in e on an error or a panic.
+func scalarCall(e *C.tp_error, fn func() (float64, error)) (v C.double) {
 	var status C.int32_t
 	defer func() {
 		if status != statusOK {
@@ -487,13 +488,18 @@ func tp_prop(h, pair C.int32_t, a, b C.double, prop C.int32_t, e *C.tp_error) (v
 		}
 	}()
 	defer guard(e, &status)
-	x, err := propOne(h, pair, float64(a), float64(b), prop)
+	x, err := fn()
 	if err != nil {
 		status = C.int32_t(fail(e, err))
 		return C.double(math.NaN())
 	}
 	setErr(e, statusOK, "")
 	return C.double(x)
+}
+
+//export tp_prop
+func tp_prop(h, pair C.int32_t, a, b C.double, prop C.int32_t, e *C.tp_error) C.double {
+	return scalarCall(e, func() (float64, error) { return propOne(h, pair, float64(a), float64(b), prop) })
 }
 
 //export tp_prop_n
@@ -540,21 +546,8 @@ func quantity(op string, q C.int32_t) (partial.Quantity, error) {
 }
 
 //export tp_derivative
-func tp_derivative(h, pair C.int32_t, in1, in2 C.double, a, b, c C.int32_t, e *C.tp_error) (v C.double) {
-	var status C.int32_t
-	defer func() {
-		if status != statusOK {
-			v = C.double(math.NaN())
-		}
-	}()
-	defer guard(e, &status)
-	x, err := derivativeOne(h, pair, float64(in1), float64(in2), a, b, c)
-	if err != nil {
-		status = C.int32_t(fail(e, err))
-		return C.double(math.NaN())
-	}
-	setErr(e, statusOK, "")
-	return C.double(x)
+func tp_derivative(h, pair C.int32_t, in1, in2 C.double, a, b, c C.int32_t, e *C.tp_error) C.double {
+	return scalarCall(e, func() (float64, error) { return derivativeOne(h, pair, float64(in1), float64(in2), a, b, c) })
 }
 
 func derivativeOne(h, pair C.int32_t, in1, in2 float64, a, b, c C.int32_t) (float64, error) {
@@ -577,21 +570,8 @@ func derivativeOne(h, pair C.int32_t, in1, in2 float64, a, b, c C.int32_t) (floa
 }
 
 //export tp_curve_derivative
-func tp_curve_derivative(h, curve, at C.int32_t, x C.double, phase, a, b C.int32_t, e *C.tp_error) (v C.double) {
-	var status C.int32_t
-	defer func() {
-		if status != statusOK {
-			v = C.double(math.NaN())
-		}
-	}()
-	defer guard(e, &status)
-	r, err := curveDerivativeOne(h, curve, at, float64(x), phase, a, b)
-	if err != nil {
-		status = C.int32_t(fail(e, err))
-		return C.double(math.NaN())
-	}
-	setErr(e, statusOK, "")
-	return C.double(r)
+func tp_curve_derivative(h, curve, at C.int32_t, x C.double, phase, a, b C.int32_t, e *C.tp_error) C.double {
+	return scalarCall(e, func() (float64, error) { return curveDerivativeOne(h, curve, at, float64(x), phase, a, b) })
 }
 
 func curveDerivativeOne(h, curve, at C.int32_t, x float64, phase, a, b C.int32_t) (float64, error) {
