@@ -85,13 +85,9 @@ func (s Solid) ends() *curveEnds {
 //	T below the vapour floor or above the triple point: fluid.ErrOutOfRange
 func (s Solid) SublimationPressure(T float64) (Coexistence, error) {
 	const op = "sublimation.Solid.SublimationPressure"
-	in := fluid.Input{Name: "T", Value: T, Unit: "K"}
-	if !finite(T) || T <= 0 {
-		return Coexistence{}, fluid.NewError(op, fluid.ErrInvalidInput, "T must be finite and positive", in)
-	}
-	e := s.ends()
-	if e.err != nil {
-		return Coexistence{}, e.err
+	in, e, err := s.curveInput(op, "T", T, "K")
+	if err != nil {
+		return Coexistence{}, err
 	}
 	if T < s.d.curveTMin || T > e.triple[0]*(1+edgeSlack) {
 		return Coexistence{}, fluid.NewError(op, fluid.ErrOutOfRange,
@@ -111,13 +107,9 @@ func (s Solid) SublimationPressure(T float64) (Coexistence, error) {
 //	p outside the curve's range: fluid.ErrOutOfRange
 func (s Solid) SublimationTemperature(p float64) (Coexistence, error) {
 	const op = "sublimation.Solid.SublimationTemperature"
-	in := fluid.Input{Name: "p", Value: p, Unit: "Pa"}
-	if !finite(p) || p <= 0 {
-		return Coexistence{}, fluid.NewError(op, fluid.ErrInvalidInput, "p must be finite and positive", in)
-	}
-	e := s.ends()
-	if e.err != nil {
-		return Coexistence{}, e.err
+	in, e, err := s.curveInput(op, "p", p, "Pa")
+	if err != nil {
+		return Coexistence{}, err
 	}
 	if p < e.subPMin*(1-edgeSlack) || p > e.triple[1]*(1+edgeSlack) {
 		return Coexistence{}, fluid.NewError(op, fluid.ErrOutOfRange,
@@ -140,13 +132,9 @@ func (s Solid) SublimationTemperature(p float64) (Coexistence, error) {
 //	  the other ices)
 func (s Solid) MeltingPressure(T float64) (Coexistence, error) {
 	const op = "sublimation.Solid.MeltingPressure"
-	in := fluid.Input{Name: "T", Value: T, Unit: "K"}
-	if !finite(T) || T <= 0 {
-		return Coexistence{}, fluid.NewError(op, fluid.ErrInvalidInput, "T must be finite and positive", in)
-	}
-	e := s.ends()
-	if e.err != nil {
-		return Coexistence{}, e.err
+	in, e, err := s.curveInput(op, "T", T, "K")
+	if err != nil {
+		return Coexistence{}, err
 	}
 	lo, hi := e.triple[0], e.meltTEnd
 	if lo > hi {
@@ -170,19 +158,30 @@ func (s Solid) MeltingPressure(T float64) (Coexistence, error) {
 //	  the other ices)
 func (s Solid) MeltingTemperature(p float64) (Coexistence, error) {
 	const op = "sublimation.Solid.MeltingTemperature"
-	in := fluid.Input{Name: "p", Value: p, Unit: "Pa"}
-	if !finite(p) || p <= 0 {
-		return Coexistence{}, fluid.NewError(op, fluid.ErrInvalidInput, "p must be finite and positive", in)
-	}
-	e := s.ends()
-	if e.err != nil {
-		return Coexistence{}, e.err
+	in, e, err := s.curveInput(op, "p", p, "Pa")
+	if err != nil {
+		return Coexistence{}, err
 	}
 	if p < e.triple[1]*(1-edgeSlack) || p > s.d.meltPMax {
 		return Coexistence{}, fluid.NewError(op, fluid.ErrOutOfRange,
 			"valid range "+fmtG(e.triple[1])+" <= p <= "+fmtG(s.d.meltPMax)+" Pa for the melting of "+s.d.name+"; "+s.d.meltBeyond, in)
 	}
 	return s.meltingAtP(op, p, 0, 0)
+}
+
+// curveInput is the common start of the curve functions: the input x
+// named name (finite and positive, else ErrInvalidInput) and the curves'
+// end points.
+func (s Solid) curveInput(op, name string, x float64, unit string) (fluid.Input, *curveEnds, error) {
+	in := fluid.Input{Name: name, Value: x, Unit: unit}
+	if !finite(x) || x <= 0 {
+		return in, nil, fluid.NewError(op, fluid.ErrInvalidInput, name+" must be finite and positive", in)
+	}
+	e := s.ends()
+	if e.err != nil {
+		return in, nil, e.err
+	}
+	return in, e, nil
 }
 
 // Triple returns the triple point where the solid model, the liquid and
