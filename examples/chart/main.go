@@ -20,12 +20,9 @@
 package main
 
 import (
-	"errors"
-	"flag"
 	"fmt"
 	"io"
 	"math"
-	"os"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -47,21 +44,7 @@ to 10 pc, within the range of the equation of state.
 
 Usage: chart [flags]`
 
-func main() {
-	err := run(os.Args[1:], os.Stdout, os.Stderr)
-	switch {
-	case errors.Is(err, flag.ErrHelp):
-	case err != nil:
-		var ue usageError
-		if !errors.As(err, &ue) {
-			fmt.Fprintln(os.Stderr, "chart:", err)
-		}
-		os.Exit(2)
-	}
-}
-
-// usageError is a bad command line, already reported with its flag.
-type usageError struct{ error }
+func main() { kit.Main("chart", run) }
 
 // config is the parsed command line.
 type config struct {
@@ -95,15 +78,12 @@ func parse(args []string, stderr io.Writer) (config, error) {
 	hcm := fs.Float("height-cm", 19, "page height of each chart in cm")
 	dense := fs.Int("points", 160, "points per line (more: smoother, slower)")
 	if err := fs.Parse(args); err != nil {
-		if errors.Is(err, flag.ErrHelp) {
-			return config{}, err
-		}
-		return config{}, usageError{err}
+		return config{}, err
 	}
 	c := config{out: *out, dense: *dense}
 	f, err := fluid.Lookup(*name)
 	if err != nil {
-		return c, usageError{fs.Check("fluid", "%v", err)}
+		return c, fs.Check("fluid", "%v", err)
 	}
 	var r fluid.RefState
 	switch strings.ToUpper(*ref) {
@@ -116,30 +96,30 @@ func parse(args []string, stderr io.Writer) (config, error) {
 	case "NBP":
 		r = fluid.RefNBP
 	default:
-		return c, usageError{fs.Check("ref", "%q is not one of default, IIR, ASHRAE, NBP", *ref)}
+		return c, fs.Check("ref", "%q is not one of default, IIR, ASHRAE, NBP", *ref)
 	}
 	if r != fluid.RefDefault {
 		if f, err = f.WithReference(r); err != nil {
-			return c, usageError{fs.Check("ref", "%v", err)}
+			return c, fs.Check("ref", "%v", err)
 		}
 	}
 	c.fluid = f
 	if c.units, err = kit.UnitsNamed(*units); err != nil {
-		return c, usageError{fs.Check("units", "%v", err)}
+		return c, fs.Check("units", "%v", err)
 	}
 	for _, w := range strings.Split(*which, ",") {
 		w = strings.TrimSpace(w)
 		if err := fs.Choice("charts", w, "ph", "ts"); err != nil {
-			return c, usageError{err}
+			return c, err
 		}
 		c.charts = append(c.charts, w)
 	}
 	if !(*wcm >= 8 && *wcm <= 200) || !(*hcm >= 6 && *hcm <= 200) {
-		return c, usageError{fs.Check("width-cm", "page %g cm x %g cm: want 8..200 cm wide and 6..200 cm high", *wcm, *hcm)}
+		return c, fs.Check("width-cm", "page %g cm x %g cm: want 8..200 cm wide and 6..200 cm high", *wcm, *hcm)
 	}
 	c.width, c.height = vg.Length(*wcm)*vg.Centimeter, vg.Length(*hcm)*vg.Centimeter
 	if *dense < 20 || *dense > 5000 {
-		return c, usageError{fs.Check("points", "%d: want 20..5000", *dense)}
+		return c, fs.Check("points", "%d: want 20..5000", *dense)
 	}
 	b := kit.DefaultBounds(f)
 	lim := f.Limits()
@@ -157,13 +137,13 @@ func parse(args []string, stderr io.Writer) (config, error) {
 	}
 	switch {
 	case b.TMin <= 0 || b.TMin >= b.TMax:
-		return c, usageError{fs.Check("tmin-C", "%s: want above 0 K and below the highest temperature %s", tmin.Format(b.TMin), tmin.Format(b.TMax))}
+		return c, fs.Check("tmin-C", "%s: want above 0 K and below the highest temperature %s", tmin.Format(b.TMin), tmin.Format(b.TMax))
 	case b.TMax > lim.TCeil:
-		return c, usageError{fs.Check("tmax-C", "%s: above the highest temperature of %s's equation, %s", tmax.Format(b.TMax), f.Name(), tmax.Format(lim.TCeil))}
+		return c, fs.Check("tmax-C", "%s: above the highest temperature of %s's equation, %s", tmax.Format(b.TMax), f.Name(), tmax.Format(lim.TCeil))
 	case b.PMin <= 0 || b.PMin >= b.PMax:
-		return c, usageError{fs.Check("pmin-bar", "%s: want above 0 and below the highest pressure %s", pmin.Format(b.PMin), pmin.Format(b.PMax))}
+		return c, fs.Check("pmin-bar", "%s: want above 0 and below the highest pressure %s", pmin.Format(b.PMin), pmin.Format(b.PMax))
 	case b.PMax > lim.PCeil:
-		return c, usageError{fs.Check("pmax-bar", "%s: above the highest pressure of %s's equation, %s", pmax.Format(b.PMax), f.Name(), pmax.Format(lim.PCeil))}
+		return c, fs.Check("pmax-bar", "%s: above the highest pressure of %s's equation, %s", pmax.Format(b.PMax), f.Name(), pmax.Format(lim.PCeil))
 	}
 	c.bounds = b
 	c.prefix = *prefix

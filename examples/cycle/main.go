@@ -24,11 +24,8 @@
 package main
 
 import (
-	"errors"
-	"flag"
 	"fmt"
 	"io"
-	"os"
 	"path/filepath"
 	"strings"
 	"text/tabwriter"
@@ -48,21 +45,7 @@ gas cooler or condenser outlet at 35 C on a summer day.
 
 Usage: cycle [flags]`
 
-func main() {
-	err := run(os.Args[1:], os.Stdout, os.Stderr)
-	switch {
-	case errors.Is(err, flag.ErrHelp):
-	case err != nil:
-		var ue usageError
-		if !errors.As(err, &ue) {
-			fmt.Fprintln(os.Stderr, "cycle:", err)
-		}
-		os.Exit(2)
-	}
-}
-
-// usageError is a bad command line, already reported with its flag.
-type usageError struct{ error }
+func main() { kit.Main("cycle", run) }
 
 // config is the parsed command line.
 type config struct {
@@ -91,33 +74,30 @@ func parse(args []string, stderr io.Writer) (config, error) {
 	chart := fs.Bool("chart", true, "draw the cycles on log p-h charts")
 	quiet := fs.Bool("quiet", false, "no progress line")
 	if err := fs.Parse(args); err != nil {
-		if errors.Is(err, flag.ErrHelp) {
-			return config{}, err
-		}
-		return config{}, usageError{err}
+		return config{}, err
 	}
 	c := config{out: *out, prefix: *prefix, chart: *chart, quiet: *quiet}
 	if !(*eta > 0 && *eta <= 1) {
-		return c, usageError{fs.Check("eta", "%g: the isentropic efficiency must be in (0, 1]", *eta)}
+		return c, fs.Check("eta", "%g: the isentropic efficiency must be in (0, 1]", *eta)
 	}
 	if tout.Value() <= tevap.Value()+sh.Value() {
-		return c, usageError{fs.Check("tout-C", "the outlet temperature %s must be above the suction temperature %s (evaporating temperature plus superheat)",
-			tout.Format(tout.Value()), tevap.Format(tevap.Value()+sh.Value()))}
+		return c, fs.Check("tout-C", "the outlet temperature %s must be above the suction temperature %s (evaporating temperature plus superheat)",
+			tout.Format(tout.Value()), tevap.Format(tevap.Value()+sh.Value()))
 	}
 	if pgc.IsSet() && !(pgc.Value() > 0) {
-		return c, usageError{fs.Check("pgc-bar", "%s: must be positive", pgc.Format(pgc.Value()))}
+		return c, fs.Check("pgc-bar", "%s: must be positive", pgc.Format(pgc.Value()))
 	}
 	var err error
 	if c.units, err = kit.UnitsNamed(*units); err != nil {
-		return c, usageError{fs.Check("units", "%v", err)}
+		return c, fs.Check("units", "%v", err)
 	}
 	for _, n := range strings.Split(*names, ",") {
 		f, err := fluid.Lookup(strings.TrimSpace(n))
 		if err != nil {
-			return c, usageError{fs.Check("fluids", "%v", err)}
+			return c, fs.Check("fluids", "%v", err)
 		}
 		if f, err = f.WithReference(fluid.RefIIR); err != nil {
-			return c, usageError{fs.Check("fluids", "%s: %v", n, err)}
+			return c, fs.Check("fluids", "%s: %v", n, err)
 		}
 		c.fluids = append(c.fluids, f)
 	}

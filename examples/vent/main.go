@@ -40,12 +40,9 @@
 package main
 
 import (
-	"errors"
-	"flag"
 	"fmt"
 	"io"
 	"math"
-	"os"
 	"path/filepath"
 	"strings"
 	"text/tabwriter"
@@ -68,21 +65,7 @@ through a 3 mm orifice, vapour drawn from the top, adiabatic.
 
 Usage: vent [flags]`
 
-func main() {
-	err := run(os.Args[1:], os.Stdout, os.Stderr)
-	switch {
-	case errors.Is(err, flag.ErrHelp):
-	case err != nil:
-		var ue usageError
-		if !errors.As(err, &ue) {
-			fmt.Fprintln(os.Stderr, "vent:", err)
-		}
-		os.Exit(2)
-	}
-}
-
-// usageError is a bad command line, already reported with its flag.
-type usageError struct{ error }
+func main() { kit.Main("vent", run) }
 
 // config is the parsed command line.
 type config struct {
@@ -119,20 +102,17 @@ func parse(args []string, stderr io.Writer) (config, error) {
 	plotOn := fs.Bool("plot", true, "draw the plots")
 	quiet := fs.Bool("quiet", false, "no progress line")
 	if err := fs.Parse(args); err != nil {
-		if errors.Is(err, flag.ErrHelp) {
-			return config{}, err
-		}
-		return config{}, usageError{err}
+		return config{}, err
 	}
 	c := config{out: *out, prefix: *prefix, plot: *plotOn, quiet: *quiet, rows: *rows, m0: fill.Value(), T0: t0.Value()}
 	if !(*cd > 0 && *cd <= 1) {
-		return c, usageError{fs.Check("cd", "%g: the discharge coefficient must be in (0, 1]", *cd)}
+		return c, fs.Check("cd", "%g: the discharge coefficient must be in (0, 1]", *cd)
 	}
 	if !(*rtol >= 1e-8 && *rtol <= 1e-2) {
-		return c, usageError{fs.Check("rtol", "%g: the tolerance must be in 1e-8 .. 1e-2 (below 1e-8 the throat search of the nozzle is the limit)", *rtol)}
+		return c, fs.Check("rtol", "%g: the tolerance must be in 1e-8 .. 1e-2 (below 1e-8 the throat search of the nozzle is the limit)", *rtol)
 	}
 	if *rows < 1 || *rows > 10000 {
-		return c, usageError{fs.Check("rows", "%d: must be in 1 .. 10000", *rows)}
+		return c, fs.Check("rows", "%d: must be in 1 .. 10000", *rows)
 	}
 	var d Draw
 	switch *draw {
@@ -141,11 +121,11 @@ func parse(args []string, stderr io.Writer) (config, error) {
 	case "liquid":
 		d = DrawLiquid
 	default:
-		return c, usageError{fs.Choice("draw", *draw, "vapour", "liquid")}
+		return c, fs.Choice("draw", *draw, "vapour", "liquid")
 	}
 	var err error
 	if c.units, err = kit.UnitsNamed(*units); err != nil {
-		return c, usageError{fs.Check("units", "%v", err)}
+		return c, fs.Check("units", "%v", err)
 	}
 	f, err := fluid.Lookup("CO2")
 	if err == nil {
@@ -155,14 +135,14 @@ func parse(args []string, stderr io.Writer) (config, error) {
 		return c, err
 	}
 	if rho := fill.Value() / vol.Value(); rho > 1100 {
-		return c, usageError{fs.Check("fill-kg", "%g kg in %g L is %.0f kg/m3: above 1100 kg/m3 the vessel would be overfilled with liquid (a hydraulic hazard, and outside this model)",
-			fill.Value(), vol.Value()*1e3, rho)}
+		return c, fs.Check("fill-kg", "%g kg in %g L is %.0f kg/m3: above 1100 kg/m3 the vessel would be overfilled with liquid (a hydraulic hazard, and outside this model)",
+			fill.Value(), vol.Value()*1e3, rho)
 	}
 	area := wall.Value()
 	if !wall.IsSet() {
 		area = cylinderWall(vol.Value(), 4)
 	} else if !(area > 0) {
-		return c, usageError{fs.Check("wall-m2", "%g: the wall area must be positive", area)}
+		return c, fs.Check("wall-m2", "%g: the wall area must be positive", area)
 	}
 	c.v = Vessel{F: f, Volume: vol.Value(), Orifice: dia.Value(), Cd: *cd, PAmb: pamb.Value(), TAmb: tamb.Value(),
 		HTC: htc.Value(), Wall: area, Draw: d}
@@ -170,8 +150,8 @@ func parse(args []string, stderr io.Writer) (config, error) {
 	if pend.IsSet() {
 		pe = pend.Value()
 		if !(pe > pamb.Value()) {
-			return c, usageError{fs.Check("pend-bar", "%s: the end pressure must be above the ambient pressure %s",
-				pend.Format(pe), pamb.Format(pamb.Value()))}
+			return c, fs.Check("pend-bar", "%s: the end pressure must be above the ambient pressure %s",
+				pend.Format(pe), pamb.Format(pamb.Value()))
 		}
 	}
 	c.set = Settings{TEnd: tend.Value(), PEnd: pe, RTol: *rtol}

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"os"
 	"sort"
 	"strconv"
 	"strings"
@@ -246,7 +247,10 @@ func (f *Flags) Bool(name string, def bool, usage string) *bool { return f.fs.Bo
 // printed to the output with the usage.
 func (f *Flags) Parse(args []string) error {
 	if err := f.fs.Parse(args); err != nil {
-		return err
+		if errors.Is(err, flag.ErrHelp) {
+			return err
+		}
+		return UsageError{err} // the flag package has printed it
 	}
 	if f.fs.NArg() > 0 {
 		return f.fail(fmt.Errorf("unexpected argument %q (all inputs are flags; see -h)", f.fs.Arg(0)))
@@ -274,7 +278,7 @@ func (f *Flags) Check(flagName, format string, args ...any) error {
 
 func (f *Flags) fail(err error) error {
 	fmt.Fprintf(f.out, "%s: %v\n(run with -h for the flags)\n", f.fs.Name(), err)
-	return err
+	return UsageError{err}
 }
 
 // Choice checks that value is one of the allowed words, returning an
@@ -288,4 +292,26 @@ func (f *Flags) Choice(flagName, value string, allowed ...string) error {
 	s := append([]string(nil), allowed...)
 	sort.Strings(s)
 	return f.Check(flagName, "%q is not one of %s", value, strings.Join(s, ", "))
+}
+
+// UsageError is a bad command line, already reported on the flag output
+// with the flag it concerns (Parse, Check and Choice return it).
+type UsageError struct{ error }
+
+// Unwrap returns the underlying error.
+func (e UsageError) Unwrap() error { return e.error }
+
+// Main runs a command: run with the command-line arguments, standard
+// output and standard error. It returns normally on success or -h, and
+// otherwise exits with status 2, after printing the error prefixed with
+// the command's name unless it is a UsageError (already reported).
+func Main(name string, run func(args []string, stdout, stderr io.Writer) error) {
+	err := run(os.Args[1:], os.Stdout, os.Stderr)
+	if err == nil || errors.Is(err, flag.ErrHelp) {
+		return
+	}
+	if !errors.As(err, new(UsageError)) {
+		fmt.Fprintln(os.Stderr, name+":", err)
+	}
+	os.Exit(2)
 }
