@@ -420,36 +420,29 @@ func (c *Chart) solidAtPOf(p, y, tHi float64, get func(Pt) float64, dydT func(su
 // solid model where the entropy lies below the fluid's on its
 // coexistence curve.
 func (c *Chart) Isentrope(s float64, n int) Curve {
-	get := func(p Pt) float64 { return p.S }
-	dsdT := func(sp sublimation.Props) float64 { return sp.Cp / sp.T }
-	var cur []Pt
-	var segs [][]Pt
-	for _, p := range LogSpace(c.B.PMin, c.B.PMax, n) {
-		pt, err := c.atPOf(p, s, get, func(p, s float64) (flash.State, error) { return flash.PS(c.F, p, s) }, dsdT)
-		if err != nil || pt.T < c.B.TMin || pt.T > c.B.TMax {
-			if len(cur) > 1 {
-				segs = append(segs, cur)
-			}
-			cur = nil
-			continue
-		}
-		cur = append(cur, pt)
-	}
-	if len(cur) > 1 {
-		segs = append(segs, cur)
-	}
-	return Curve{Value: s, Segs: segs}
+	return c.isobarsOf(s, n, func(p Pt) float64 { return p.S },
+		func(p, s float64) (flash.State, error) { return flash.PS(c.F, p, s) },
+		func(sp sublimation.Props) float64 { return sp.Cp / sp.T })
 }
 
 // Isenthalp returns the isenthalp h over the chart's pressures, as
 // Isentrope.
 func (c *Chart) Isenthalp(h float64, n int) Curve {
-	get := func(p Pt) float64 { return p.H }
-	dhdT := func(sp sublimation.Props) float64 { return sp.Cp }
+	return c.isobarsOf(h, n, func(p Pt) float64 { return p.H },
+		func(p, h float64) (flash.State, error) { return flash.PH(c.F, p, h) },
+		func(sp sublimation.Props) float64 { return sp.Cp })
+}
+
+// isobarsOf traces the line where the quantity get equals x over the
+// chart's pressures: on each isobar the fluid state from solve (a PS or PH
+// flash), else the solid state or solid–fluid mixture, whose x changes
+// with T by dxdT; segments break where no state lies within the chart.
+func (c *Chart) isobarsOf(x float64, n int, get func(Pt) float64,
+	solve func(p, x float64) (flash.State, error), dxdT func(sublimation.Props) float64) Curve {
 	var cur []Pt
 	var segs [][]Pt
 	for _, p := range LogSpace(c.B.PMin, c.B.PMax, n) {
-		pt, err := c.atPOf(p, h, get, func(p, h float64) (flash.State, error) { return flash.PH(c.F, p, h) }, dhdT)
+		pt, err := c.atPOf(p, x, get, solve, dxdT)
 		if err != nil || pt.T < c.B.TMin || pt.T > c.B.TMax {
 			if len(cur) > 1 {
 				segs = append(segs, cur)
@@ -462,7 +455,7 @@ func (c *Chart) Isenthalp(h float64, n int) Curve {
 	if len(cur) > 1 {
 		segs = append(segs, cur)
 	}
-	return Curve{Value: h, Segs: segs}
+	return Curve{Value: x, Segs: segs}
 }
 
 // Isochore returns the isochore ρ over the chart's temperatures: fluid
