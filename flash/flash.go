@@ -187,6 +187,9 @@ func (k *call) finish(pr *fluid.Props) (State, error) {
 // stable fluid phase at its (T, p), with the Indeterminate flag of a
 // state exactly on the vapour-pressure curve.
 func (k *call) stable(pr *fluid.Props) (bool, Flags) {
+	if st, ok := k.stableByCache(pr); ok {
+		return st, 0
+	}
 	root, fl, err := k.f.StableRoot(pr.T, pr.P)
 	if err != nil || root == fluid.RootStable {
 		return err == nil, fl
@@ -201,6 +204,14 @@ func (k *call) stable(pr *fluid.Props) (bool, Flags) {
 // against the root of its branch at its (T, p) where the auxiliary
 // saturated densities do not settle it.
 func (k *call) stableAtRho(pr *fluid.Props) (bool, Flags) {
+	if e, ok := k.f.SaturationEstimateAtT(pr.T); ok {
+		switch placeTRho(&e, pr.Rho) {
+		case cacheLiquid, cacheVapor:
+			return true, 0
+		case cacheInside:
+			return false, 0
+		}
+	}
 	ok, fl := k.stable(pr)
 	c := k.f.Critical()
 	if !ok || pr.T >= c.T {
@@ -286,6 +297,18 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	}
 	if pl == placeBeyond || pl == placeSolid && !meta {
 		return k.done(k.ptSolid(p, T, pl, why, nil))
+	}
+	if pl == placeFluid && root == fluid.RootStable && p <= f.Limits().PCeil {
+		// Below Tc the cached curve places (T, p) on a branch where p
+		// lies outside its bound of the vapour pressure.
+		if e, ok := f.SaturationEstimateAtT(T); ok && math.Abs(p-e.P) > e.Err.P {
+			liquid := p > e.P
+			// (At the pressure ceiling a root whose pressure rounds above
+			// it is left to fluid.PropsTP, which says so.)
+			if pr, ok := k.densityOn(T, p, &e, liquid, k.guessRho(root)); ok && pr.P <= f.Limits().PCeil {
+				return k.wanted(single(&pr, fluidPhase(f, T, p, pr.Rho)), nil)
+			}
+		}
 	}
 	pr, err := f.PropsTP(T, p, root, k.guessRho(root))
 	if err != nil {
@@ -404,14 +427,16 @@ func PQWith(f *fluid.Fluid, p, q float64, opt Options) (State, error) {
 	return k.finishSat(&s, q)
 }
 
-// satP returns the saturation at p, warm-started from the guess.
+// satP returns the saturation at p, started from the cached curve, else
+// from the guess.
 func (k *call) satP(p float64) (fluid.Saturation, error) {
-	var s fluid.Saturation
-	var err error
-	if gT, rl, rv, ok := k.guessSat(); ok {
-		s, err = k.f.SaturationAtPFrom(p, gT, rl, rv)
-	} else {
-		s, err = k.f.SaturationAtP(p)
+	s, ok, err := k.satFromCacheP(p)
+	if !ok {
+		if gT, rl, rv, okg := k.guessSat(); okg {
+			s, err = k.f.SaturationAtPFrom(p, gT, rl, rv)
+		} else {
+			s, err = k.f.SaturationAtP(p)
+		}
 	}
 	if err != nil {
 		return s, k.rewrap(err)
@@ -585,29 +610,24 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 		}
 		return k.isobarSingle(p, X, x, &pr0, sd, Tf, lim.TCeil, false)
 	}
-	// pt <= p < pc: place x against the saturated phases.
+	// pt <= p < pc: place x against the saturated phases, by the cached
+	// curve where x lies outside its bounds.
 	var s fluid.Saturation
-	Ts, err := f.AuxSaturationTemperature(p)
-	if err == nil {
-		rl, _ := f.AuxLiquidDensity(Ts)
-		rv, _ := f.AuxVaporDensity(Ts)
+	var err error
+	if e, ok := f.SaturationEstimateAtP(p); ok {
 		if want != TwoPhase {
-			// The auxiliary equation's 5 % band in p, as a band in T by
-			// its slope, places x against the saturated phases at the
-			// auxiliary state; the vapour first, then the liquid.
-			dTm := math.Inf(1)
-			if p2, err := f.AuxVaporPressure(Ts * (1 - 1e-5)); err == nil && p2 < p {
-				dTm = 0.05 * p * Ts * 1e-5 / (p - p2)
-			}
-			if pv, ok := props(f, Ts, rv); ok && x > X.of(&pv)+dXdT(X, &pv)*dTm {
-				return k.isobarSingle(p, X, x, &pv, vaporSide, Ts, lim.TCeil, false)
-			}
-			if pl, ok := props(f, Ts, rl); ok && x < X.of(&pl)-dXdT(X, &pl)*dTm {
-				return k.isobarSingle(p, X, x, &pl, liquidSide, Tf, Ts, false)
+			switch placeX(&e, X, x) {
+			case cacheVapor:
+				return k.isobarSingle(p, X, x, &e.Vapor, vaporSide, e.T-e.Err.T, lim.TCeil, false)
+			case cacheLiquid:
+				return k.isobarSingle(p, X, x, &e.Liquid, liquidSide, Tf, e.T+e.Err.T, false)
 			}
 		}
-		s, err = f.SaturationAtPFrom(p, Ts, rl, rv)
+		s, err = f.SaturationAtPFrom(p, e.T, e.Liquid.Rho, e.Vapor.Rho)
 	} else {
+		// Within a millikelvin of the critical point, or between the
+		// stored triple-point pressure and the equation's vapour
+		// pressure at Tt: the equation's saturation.
 		s, err = f.SaturationAtP(p)
 	}
 	if err != nil {
@@ -667,7 +687,10 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
 		if !(p < c.P && p >= k.sol.pt) {
 			return State{}, false
 		}
-		s, err := f.SaturationAtPFrom(p, gT, rl, rv)
+		s, ok, err := k.satFromCacheP(p)
+		if !ok {
+			s, err = f.SaturationAtPFrom(p, gT, rl, rv)
+		}
 		if err != nil {
 			return State{}, false
 		}

@@ -171,14 +171,16 @@ func qualityOf(rho float64, s *fluid.Saturation) (float64, bool) {
 	return (1/rho - 1/rl) / (1/rv - 1/rl), true
 }
 
-// satT returns the saturation at T, warm-started from the guess.
+// satT returns the saturation at T, started from the cached curve, else
+// from the guess.
 func (k *call) satT(T float64) (fluid.Saturation, error) {
-	var s fluid.Saturation
-	var err error
-	if gT, rl, rv, ok := k.guessSat(); ok && math.Abs(gT-T) < 0.1*T {
-		s, err = k.f.SaturationAtTFrom(T, rl, rv)
-	} else {
-		s, err = k.f.SaturationAtT(T)
+	s, ok, err := k.satFromCacheT(T)
+	if !ok {
+		if gT, rl, rv, okg := k.guessSat(); okg && math.Abs(gT-T) < 0.1*T {
+			s, err = k.f.SaturationAtTFrom(T, rl, rv)
+		} else {
+			s, err = k.f.SaturationAtT(T)
+		}
 	}
 	if err != nil {
 		return s, k.rewrap(err)
@@ -280,6 +282,11 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	}
 	want := k.opt.Phase
 	meta := k.opt.AllowMetastable && (want == Liquid || want == Vapor)
+	if !meta && !k.decided {
+		if st, err, ok := k.isochoreCached(rho, x); ok {
+			return st, err
+		}
+	}
 	T0 := 1.1 * c.T
 	g := k.opt.Guess
 	if g != nil && g.T > 0 {
