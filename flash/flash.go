@@ -21,6 +21,9 @@ type call struct {
 	sol      solidSide
 	decided  bool
 	fixedTlo float64
+	// at, if at[0] > 0, is the (T, ρ) from which the next isobarSingle
+	// starts Newton's method, instead of its start state extrapolated.
+	at [2]float64
 }
 
 // init sets up k for a flash; it validates what every flash shares:
@@ -588,6 +591,17 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 		T0 := c.T
 		if p < k.sol.pt {
 			root, T0, sd = fluid.RootVapor, Tf, vaporSide
+		} else if ls, ok := k.liquidStart(p, X, x, 0); ok {
+			// Above pc, liquid-like below Tc by the cached curve.
+			return k.isobarSingle(p, X, x, &ls, anySide, Tf, lim.TCeil, false)
+		} else if _, tEnd := f.SaturationEstimateRange(); tEnd > 0 {
+			// Above the liquid at the end of the cached curve: gas-like,
+			// by Newton's method in (T, ρ) from the ideal gas at 1.5 Tc
+			// (the saturated vapour there to fall back toward).
+			e, _ := f.SaturationEstimateAtT(tEnd)
+			T0 = min(1.5*c.T, 0.5*(c.T+lim.TCeil))
+			k.at = [2]float64{T0, p / (f.GasConstant() * T0)}
+			return k.isobarSingle(p, X, x, &e.Vapor, sd, Tf, lim.TCeil, false)
 		} else if pcr, ok := props(f, c.T, c.Rho); ok || pcr.H != 0 {
 			// Above pc: start from the liquid at the triple-point
 			// temperature or a gas well above Tc, whichever side of the
@@ -596,6 +610,11 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 			T0 = min(1.5*c.T, 0.5*(c.T+lim.TCeil))
 			if x < X.of(&pcr) {
 				T0 = max(k.sol.tt, lim.TFloor)
+			} else {
+				// Gas-like: Newton's method in (T, ρ) from the ideal
+				// gas at T0 (the critical state to fall back toward).
+				k.at = [2]float64{T0, p / (f.GasConstant() * T0)}
+				return k.isobarSingle(p, X, x, &pcr, sd, Tf, lim.TCeil, false)
 			}
 		}
 		pr0, err := f.PropsTP(T0, p, root, 0)
@@ -620,7 +639,14 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 			case cacheVapor:
 				return k.isobarSingle(p, X, x, &e.Vapor, vaporSide, e.T-e.Err.T, lim.TCeil, false)
 			case cacheLiquid:
-				return k.isobarSingle(p, X, x, &e.Liquid, liquidSide, Tf, e.T+e.Err.T, false)
+				start := e.Liquid
+				if X == qH || X == qS {
+					T0, _ := extrapolate(X, x, &e.Liquid, liquidSide, Tf, e.T)
+					if ls, ok := k.liquidStart(p, X, x, T0); ok {
+						start = ls
+					}
+				}
+				return k.isobarSingle(p, X, x, &start, liquidSide, Tf, e.T+e.Err.T, false)
 			}
 		}
 		s, err = f.SaturationAtPFrom(p, e.T, e.Liquid.Rho, e.Vapor.Rho)
@@ -706,7 +732,9 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
 	if p >= f.Critical().P {
 		sd = anySide
 	}
-	pr, ok := newton2(f, qP, p, X, x, g.T, g.Rho, onBranch(f, sd, lim.TFloor, lim.TCeil), nil)
+	T0, rho0 := predict(g, p, X, x)
+	from := fluid.Props{T: g.T, Rho: g.Rho}
+	pr, ok := newton2(f, qP, p, X, x, T0, rho0, onBranch(f, sd, lim.TFloor, lim.TCeil), &from)
 	if !ok {
 		return State{}, false
 	}
@@ -718,6 +746,38 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
 		return State{}, false
 	}
 	return st, true
+}
+
+// predict returns the start of a warm-started PH (X = h) or PS (X = s)
+// at pressure p: the single-phase guess g carried to (p, x) by one
+// Newton step from its own derivatives, which its state holds implicitly
+// (common thermodynamic identities):
+//
+//	(∂p/∂ρ)_T = w² cv/cp,  (∂p/∂T)_ρ = ρ √((cp − cv)(∂p/∂ρ)_T/T)
+//
+// (the root taken positive: a liquid below its density maximum, where
+// it is negative, is started less well). Where the step would move T by
+// more than 5 % or ρ by more than 10 %, or the guess lacks what it needs,
+// the guess itself.
+func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
+	T, rho = g.T, g.Rho
+	cp, cv, w := g.Cp, g.Cv, g.W
+	if !(cp > cv && cv > 0 && w > 0 && isFinite(cp)) {
+		return T, rho
+	}
+	pr := fluid.Props{T: T, Rho: rho, P: g.P, H: g.H, S: g.S, U: g.U, Cv: cv}
+	pr.DpDrho = w * w * cv / cp
+	pr.DpDT = rho * math.Sqrt((cp-cv)*pr.DpDrho/T)
+	a1, a2 := qP.partials(&pr)
+	b1, b2 := X.partials(&pr)
+	ra, rb := g.P-p, X.of(&pr)-x
+	det := a1*b2 - a2*b1
+	dT := (-ra*b2 + rb*a2) / det
+	dRho := (-rb*a1 + ra*b1) / det
+	if !isFinite(dT) || !isFinite(dRho) || math.Abs(dT) > 0.05*T || math.Abs(dRho) > 0.1*rho {
+		return T, rho
+	}
+	return T + dT, rho + dRho
 }
 
 // isobarSingle solves a single-phase state at p with X = x on side sd,
@@ -736,6 +796,7 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		keepLo, keepHi = lim.TFloor, lim.TCeil
 	}
 	keep := onBranch(f, sd, keepLo, keepHi)
+	keep.logStep = k.at[0] > 0 || sd == vaporSide
 	mayFreeze := !meta && sd != vaporSide && k.sol.ok && !k.decided
 	if d := dXdT(X, start); mayFreeze && d > 0 && start.T+(x-X.of(start))/d < k.freezeTHi(p) &&
 		k.belowFreezing(p, X, x) {
@@ -745,6 +806,11 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		return State{}, errSolid
 	}
 	T0, rho0 := extrapolate(X, x, start, sd, tlo, thi)
+	if k.at[0] > 0 {
+		// A start given by the caller.
+		T0, rho0 = k.at[0], k.at[1]
+		k.at = [2]float64{}
+	}
 	pr, ok := newton2(f, qP, p, X, x, T0, rho0, keep, start)
 	if !ok && mayFreeze && k.belowFreezing(p, X, x) {
 		// Below the liquid where it may freeze: the solid paths decide,

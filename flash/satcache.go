@@ -314,7 +314,8 @@ func (k *call) mixtureOnIsochore(rho, u, lo, hi float64) (st State, err error, o
 		if !(Tn > a && Tn < b) {
 			Tn = 0.5 * (a + b)
 		}
-		if math.Abs(Tn-T) <= 1e-13*T || b-a <= 1e-13*b {
+		// The cached curve is good to about 1e-8: a start needs no more.
+		if math.Abs(Tn-T) <= 1e-10*T || b-a <= 1e-10*b {
 			T = Tn
 			break
 		}
@@ -357,4 +358,83 @@ func (k *call) mixtureOnIsochore(rho, u, lo, hi float64) (st State, err error, o
 		T = Tn
 	}
 	return st, nil, false
+}
+
+// liquidStart estimates the compressed liquid at pressure p with X = x
+// (h or s) from the cached curve, as a start for Newton's method: the
+// saturated liquid at the T where
+//
+//	g(T) = X′(T) + (∂X/∂p)_T (p − p_sat(T)) − x = 0,
+//	(∂h/∂p)_T = (1 − Tβ′)/ρ′,  (∂s/∂p)_T = −β′/ρ′
+//
+// (β′ the saturated liquid's expansivity: a liquid's X departs from the
+// saturated liquid's at its temperature nearly linearly in p), by
+// Newton's method on the curve from T0, or where T0 is 0 from the T at
+// which X′ = x, with the density carried to p in the Tait form of
+// densityOn. Near Tc, where β′ diverges, the correction misleads: steps
+// are limited to a tenth of T, and a search that does not settle in a
+// few steps keeps its start. ok is false where x lies above the liquid at
+// the end of the curve (Tc − 1 mK).
+func (k *call) liquidStart(p float64, X quantity, x, T0 float64) (start fluid.Props, ok bool) {
+	f := k.f
+	lo, hi := f.SaturationEstimateRange()
+	T := T0
+	if !(T >= lo && T <= hi) {
+		v := fluid.SatLiquidH
+		if X == qS {
+			v = fluid.SatLiquidS
+		}
+		var buf [2]fluid.SatEstimate
+		if xs := f.SaturationEstimatesWhere(v, x, buf[:0]); len(xs) > 0 {
+			T = xs[0].T
+		} else if el, ok := f.SaturationEstimateAtT(lo); ok && x < X.of(&el.Liquid) {
+			// Below the liquid at the triple point.
+			T = lo
+		} else {
+			return start, false
+		}
+	}
+	var e fluid.SatEstimate
+	best, bestR := T, math.Inf(1)
+	for it := 0; it < 5; it++ {
+		if e, ok = f.SaturationEstimateAtT(T); !ok {
+			return start, false
+		}
+		l := &e.Liquid
+		xl, dxl, dxdp := l.H, e.Slope.Liquid.H, (1-T*l.Expansivity)/l.Rho
+		if X == qS {
+			xl, dxl, dxdp = l.S, e.Slope.Liquid.S, -l.Expansivity/l.Rho
+		}
+		r := xl + dxdp*(p-e.P) - x
+		if math.Abs(r) < bestR {
+			best, bestR = T, math.Abs(r)
+		}
+		dT := -r / (dxl - dxdp*e.Slope.P)
+		if !isFinite(dT) {
+			break
+		}
+		dT = max(min(dT, 0.1*T), -0.1*T)
+		if math.Abs(dT) <= 1e-5*T {
+			break
+		}
+		T = min(max(T+dT, lo), hi)
+	}
+	if e, ok = f.SaturationEstimateAtT(best); !ok {
+		return start, false
+	}
+	start = e.Liquid
+	start.P = p
+	const kp = 7.0 // as in densityOn
+	if base := 1 + kp*(p-e.P)/(start.Rho*start.DpDrho); base > 0 && isFinite(base) {
+		start.Rho *= math.Pow(base, 1/kp)
+	}
+	// Its X by the same estimate: the start of Newton's method is then
+	// (best, ρ) itself.
+	dxdp := (1 - best*start.Expansivity) / e.Liquid.Rho
+	if X == qS {
+		start.S += -start.Expansivity / e.Liquid.Rho * (p - e.P)
+	} else {
+		start.H += dxdp * (p - e.P)
+	}
+	return start, true
 }

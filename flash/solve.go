@@ -137,6 +137,9 @@ type branch struct {
 	c        fluid.Point
 	sd       side
 	tlo, thi float64
+	// logStep: Newton's method in (ln T, ln ρ) on ln p (a = p), nearly
+	// linear for gases (p = ρRTZ), from starts far off.
+	logStep bool
 }
 
 func (b *branch) keep(pr *fluid.Props) bool {
@@ -188,17 +191,33 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 		}
 		a1, a2 := a.partials(&pr)
 		b1, b2 := b.partials(&pr)
+		logged := br.logStep && a == qP && pr.P > 0 && va > 0
+		if logged {
+			// In ln T and ln ρ, on ln p: the linear step below then
+			// gives d ln T and d ln ρ, turned back into dT and dρ.
+			ra = math.Log(pr.P / va)
+			a1, a2 = a1*T/pr.P, a2*rho/pr.P
+			b1, b2 = b1*T, b2*rho
+		}
 		det := a1*b2 - a2*b1
 		dT := (-ra*b2 + rb*a2) / det
 		dRho := (-rb*a1 + ra*b1) / det
 		if !isFinite(dT) || !isFinite(dRho) {
 			return pr, false
 		}
+		if logged {
+			dT = T * math.Expm1(max(min(dT, math.Ln2), -math.Ln2))
+			dRho = rho * math.Expm1(max(min(dRho, 2*math.Ln2), -2*math.Ln2))
+		}
 		s := 1.0
-		if math.Abs(dT) > 0.25*T {
+		switch {
+		case logged:
+			// Bounded in the logarithms above.
+		case math.Abs(dT) > 0.25*T:
 			s = 0.25 * T / math.Abs(dT)
 		}
-		if dRho < -0.5*rho {
+		if logged {
+		} else if dRho < -0.5*rho {
 			s = min(s, 0.5*rho/-dRho)
 		} else if dRho > rho {
 			s = min(s, rho/dRho)

@@ -550,7 +550,22 @@ func (k *call) pd(p, rho float64) (State, error) {
 	// The liquid-like side: T between the freezing temperature and the
 	// saturation (or critical) temperature, started at the top: the
 	// isochore meets the dome below the solution, not above it.
+	e, cached := f.SaturationEstimateAtP(p)
+	pl := cacheUndecided
+	if cached {
+		pl = placeTRho(&e, rho)
+	}
 	switch {
+	case pl == cacheLiquid:
+		// Denser than the saturated liquid by the cached curve: below
+		// its T, from it along the isobar by its expansivity.
+		thi, T0 = e.T+e.Err.T, e.T
+		if b := e.Liquid.Expansivity; b > 0 {
+			T0 = e.T - math.Log(rho/e.Liquid.Rho)/b
+		}
+	case pl == cacheVapor:
+		tlo = e.T - e.Err.T
+		T0 = max(e.T, p/(rho*f.GasConstant()*e.Vapor.Z))
 	case p < c.P && p >= k.sol.pt:
 		s, err := k.satP(p)
 		if err == nil {

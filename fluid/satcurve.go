@@ -42,6 +42,9 @@ type satCurve struct {
 	lnp   []float64     // ln p of the nodes, ascending (for the search in p)
 	ts    []float64     // T of the nodes, ascending
 	tc    float64       // Critical().T
+	// mono[q] is +1 or −1 where quantity q rises or falls with T along
+	// the whole curve (node values and slopes), else 0.
+	mono [nSatQ]int8
 }
 
 // Indices of the interpolated quantities.
@@ -193,6 +196,9 @@ func (f *Fluid) buildSatCurve() (*satCurve, error) {
 			return nil, errSatCurve
 		}
 	}
+	for q := range nSatQ {
+		c.mono[q] = monotone(c.nodes, q)
+	}
 	// The coordinate and the error of each interpolant in each interval,
 	// measured between the nodes.
 	for i := range c.ivs {
@@ -269,6 +275,23 @@ func (f *Fluid) measureInterval(c *satCurve, i int) error {
 		}
 	}
 	return nil
+}
+
+// monotone returns +1 or −1 where the values and slopes of quantity q at
+// the nodes all rise or all fall, else 0.
+func monotone(ns []satNode, q int) int8 {
+	up, down := true, true
+	for i := range ns {
+		up = up && ns[i].d[q] > 0 && (i == 0 || ns[i].v[q] > ns[i-1].v[q])
+		down = down && ns[i].d[q] < 0 && (i == 0 || ns[i].v[q] < ns[i-1].v[q])
+	}
+	switch {
+	case up:
+		return 1
+	case down:
+		return -1
+	}
+	return 0
 }
 
 // satFloor is the rounding floor of quantity q over an interval.
@@ -537,44 +560,88 @@ func (f *Fluid) SaturationEstimateAtP(p float64) (e SatEstimate, ok bool) {
 	return e, true
 }
 
-// SaturationEstimatesAtRho appends to dst the estimated saturation states
-// of f at which the saturated liquid (for rho > Critical().Rho) or the
-// saturated vapour (for rho < Critical().Rho) has density rho in kg/m³,
-// in ascending temperature, within the range of SaturationEstimateAtT,
-// and returns the extended slice. Each is as SaturationEstimateAtP: Err.T
-// bounds the error of its temperature (large where the saturated density
-// hardly changes with T), and the phases' errors include its effect. The
-// liquid of water, whose saturated density has a maximum near 277 K, can
-// have two such states; every other case at most one. With dst of enough
-// capacity the call allocates nothing.
-func (f *Fluid) SaturationEstimatesAtRho(rho float64, dst []SatEstimate) []SatEstimate {
+// SatValue selects a value of a saturated phase, for
+// SaturationEstimatesWhere.
+type SatValue int8
+
+// The values of the saturated liquid and vapour: density, enthalpy,
+// entropy and internal energy.
+const (
+	SatLiquidRho SatValue = iota
+	SatVaporRho
+	SatLiquidH
+	SatVaporH
+	SatLiquidS
+	SatVaporS
+	SatLiquidU
+	SatVaporU
+)
+
+// satQ maps a SatValue to its interpolant and whether it is a logarithm.
+var satQ = [...]struct {
+	q   int
+	log bool
+}{{sqLnRhoL, true}, {sqLnRhoV, true}, {sqHL, false}, {sqHV, false},
+	{sqSL, false}, {sqSV, false}, {sqUL, false}, {sqUV, false}}
+
+// SaturationEstimatesWhere appends to dst the estimated saturation states
+// of f at which value v of a saturated phase equals x (SI units, in f's
+// reference state), in ascending temperature, within the range of
+// SaturationEstimateAtT, and returns the extended slice. Each is as
+// SaturationEstimateAtP: Err.T bounds the error of its temperature (large
+// where v hardly changes with T), and the phases' errors include its
+// effect. Values that rise or fall monotonically along the curve (ρ′, ρ″,
+// h′, s′, u′, s″) have at most one such state; the density of liquid
+// water (a maximum near 277 K) and h″ and u″ (a maximum well below Tc)
+// can have two. With dst of enough capacity the call allocates nothing.
+func (f *Fluid) SaturationEstimatesWhere(v SatValue, x float64, dst []SatEstimate) []SatEstimate {
 	c := f.satCurve()
-	if c == nil || !(rho > 0) || !finite(rho) {
+	if c == nil || v < 0 || int(v) >= len(satQ) || !finite(x) {
 		return dst
 	}
-	q := sqLnRhoV
-	if rho > f.crit.Rho {
-		q = sqLnRhoL
+	q := satQ[v].q
+	target := x
+	switch {
+	case satQ[v].log:
+		if !(x > 0) {
+			return dst
+		}
+		target = math.Log(x)
+	case q == sqSL || q == sqSV:
+		target -= f.sOff
+	default:
+		target -= f.hOff
 	}
-	lr := math.Log(rho)
 	add := func(i int, T float64) {
 		var e SatEstimate
 		f.satEstimate(c, i, T, &e)
-		ph := &e.Vapor
-		if q == sqLnRhoL {
-			ph = &e.Liquid
-		}
-		dlr := e.Slope.Vapor.Rho / e.Vapor.Rho
-		if q == sqLnRhoL {
-			dlr = e.Slope.Liquid.Rho / e.Liquid.Rho
-		}
-		ph.Rho = rho
-		e.addErrT(c.ivs[i].err[q] / math.Abs(dlr))
+		var bs satBasis
+		c.basis(i, T, int(c.ivs[i].coord[q]), &bs)
+		slope := bs.slope(&c.nodes[i], &c.nodes[i+1], q)
+		e.addErrT(c.ivs[i].err[q] / math.Abs(slope))
 		dst = append(dst, e)
 	}
-	for i := range c.ivs {
+	lo, hi := 0, len(c.ivs)
+	if m := float64(c.mono[q]); m != 0 {
+		// One crossing at most: the interval by bisection of the nodes.
+		n := len(c.nodes)
+		if (c.nodes[0].v[q]-target)*m > 0 || (c.nodes[n-1].v[q]-target)*m < 0 {
+			return dst
+		}
+		a, b := 0, n-1
+		for b-a > 1 {
+			mid := (a + b) / 2
+			if (c.nodes[mid].v[q]-target)*m > 0 {
+				b = mid
+			} else {
+				a = mid
+			}
+		}
+		lo, hi = a, a+1
+	}
+	for i := lo; i < hi; i++ {
 		a, b := &c.nodes[i], &c.nodes[i+1]
-		fa, fb := a.v[q]-lr, b.v[q]-lr
+		fa, fb := a.v[q]-target, b.v[q]-target
 		switch {
 		case fa == 0:
 			add(i, a.T)
@@ -583,19 +650,31 @@ func (f *Fluid) SaturationEstimatesAtRho(rho float64, dst []SatEstimate) []SatEs
 		case fb == 0:
 			// At the next interval's first node.
 		case (fa < 0) != (fb < 0):
-			add(i, c.rootIn(i, q, lr, a.T, b.T))
+			add(i, c.rootIn(i, q, target, a.T, b.T))
 		case (a.d[q] < 0) != (b.d[q] < 0):
-			// An extremum inside: two roots where it lies beyond rho.
+			// An extremum inside: two roots where it lies beyond x.
 			Tm := c.extremumIn(i, q)
 			var bs satBasis
 			c.basis(i, Tm, int(c.ivs[i].coord[q]), &bs)
-			if fm := bs.value(a, b, q) - lr; fm != 0 && (fm < 0) != (fa < 0) {
-				add(i, c.rootIn(i, q, lr, a.T, Tm))
-				add(i, c.rootIn(i, q, lr, Tm, b.T))
+			if fm := bs.value(a, b, q) - target; fm != 0 && (fm < 0) != (fa < 0) {
+				add(i, c.rootIn(i, q, target, a.T, Tm))
+				add(i, c.rootIn(i, q, target, Tm, b.T))
 			}
 		}
 	}
 	return dst
+}
+
+// SaturationEstimatesAtRho is SaturationEstimatesWhere for the density
+// rho in kg/m³ of the saturated liquid (rho > Critical().Rho) or vapour
+// (rho < Critical().Rho): the crossings of the isochore with the
+// saturated phase of its side, at most two (water's liquid near its
+// density maximum), else one or none.
+func (f *Fluid) SaturationEstimatesAtRho(rho float64, dst []SatEstimate) []SatEstimate {
+	if rho > f.crit.Rho {
+		return f.SaturationEstimatesWhere(SatLiquidRho, rho, dst)
+	}
+	return f.SaturationEstimatesWhere(SatVaporRho, rho, dst)
 }
 
 // addErrT adds an error dT in K of the estimate's temperature to its

@@ -118,7 +118,8 @@ func TestSatCurveRange(t *testing.T) {
 }
 
 // TestSatCurveAtRho checks the crossings of isochores with the saturated
-// phases: each estimate has the given density on its side, its T lies
+// phases: each estimate has the given density on its side within its
+// bound, its T lies
 // within its bound of a temperature where the equation's saturated phase
 // has that density (the equation's ρ′ or ρ″ straddles ρ across
 // T ± Err.T), and water's liquid at 999.9 kg/m³, between its saturated
@@ -160,12 +161,12 @@ func TestSatCurveAtRho(t *testing.T) {
 
 func checkCrossing(t *testing.T, f *Fluid, rho float64, e *SatEstimate, liquid bool) {
 	t.Helper()
-	ph := &e.Vapor
+	ph, er := &e.Vapor, &e.Err.Vapor
 	if liquid {
-		ph = &e.Liquid
+		ph, er = &e.Liquid, &e.Err.Liquid
 	}
-	if ph.Rho != rho || !(e.Err.T > 0) {
-		t.Errorf("%s rho = %v: estimate %v, Err.T %v", f.Name(), rho, ph.Rho, e.Err.T)
+	if !(math.Abs(ph.Rho-rho) <= er.Rho) || !(e.Err.T > 0) {
+		t.Errorf("%s rho = %v: estimate %v (bound %v), Err.T %v", f.Name(), rho, ph.Rho, er.Rho, e.Err.T)
 	}
 	at := func(T float64) float64 {
 		s, err := f.SaturationAtT(T)
@@ -288,3 +289,55 @@ func BenchmarkSatCurve(b *testing.B) {
 }
 
 var benchSinkSat float64
+
+// TestSatCurveWhere checks the crossings of other saturated values: h′
+// and s′ (rising along the whole curve: one crossing, found by bisection
+// of the nodes) and h″, which has a maximum well below Tc, so that a
+// value just below the maximum is crossed twice. Each crossing's T lies
+// within its bound of a temperature where the equation's value equals x
+// (it straddles x across T ± Err.T).
+func TestSatCurveWhere(t *testing.T) {
+	t.Parallel()
+	for _, f := range allFluids(t) {
+		lo, hi := f.SaturationEstimateRange()
+		at := func(v SatValue, T float64) float64 {
+			s, err := f.SaturationAtT(T)
+			if err != nil {
+				t.Fatal(err)
+			}
+			switch v {
+			case SatLiquidH:
+				return s.Liquid.H
+			case SatLiquidS:
+				return s.Liquid.S
+			}
+			return s.Vapor.H
+		}
+		check := func(v SatValue, x float64, n int) {
+			xs := f.SaturationEstimatesWhere(v, x, nil)
+			if len(xs) != n {
+				t.Errorf("%s value %d = %v: %d crossings, want %d", f.Name(), v, x, len(xs), n)
+				return
+			}
+			for _, e := range xs {
+				if a, b := at(v, e.T-e.Err.T)-x, at(v, e.T+e.Err.T)-x; a*b > 0 {
+					t.Errorf("%s value %d = %v: no crossing within T = %v +- %v", f.Name(), v, x, e.T, e.Err.T)
+				}
+			}
+		}
+		for _, fr := range []float64{0.05, 0.5, 0.95} {
+			T := lo + fr*(hi-lo)
+			check(SatLiquidH, at(SatLiquidH, T), 1)
+			check(SatLiquidS, at(SatLiquidS, T), 1)
+		}
+		check(SatLiquidH, at(SatLiquidH, lo)-1, 0)
+		check(SatLiquidH, at(SatLiquidH, hi)+1, 0)
+		// h″ just below its maximum (the largest of the nodes).
+		c := f.satCurve()
+		hmax := math.Inf(-1)
+		for i := range c.nodes {
+			hmax = max(hmax, c.nodes[i].v[sqHV])
+		}
+		check(SatVaporH, hmax+f.hOff-1, 2)
+	}
+}
