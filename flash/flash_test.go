@@ -2,6 +2,7 @@ package flash
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"sync"
@@ -293,15 +294,7 @@ func TestRobustness(t *testing.T) {
 					if !checkState(t, f, what, &got) {
 						continue
 					}
-					for _, q := range []struct {
-						name string
-						v    float64
-					}{{fc.a, a}, {fc.b, b}} {
-						g, floor := backward(f, &got, q.name, q.v)
-						if math.Abs(g-q.v) > floor {
-							t.Errorf("%s %s(%.17g, %.17g): %s off by %.3g (floor %.3g)", f.Name(), fc.name, a, b, q.name, g-q.v, floor)
-						}
-					}
+					checkInputs(t, f, fmt.Sprintf("%s(%.17g, %.17g)", fc.name, a, b), &got, fc, a, b)
 					// Random inputs, mostly nonsense.
 					x := randomInput(r)
 					y := randomInput(r)

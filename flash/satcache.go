@@ -394,9 +394,12 @@ func (k *call) liquidStart(p float64, X quantity, x, T0 float64) (start fluid.Pr
 			return start, false
 		}
 	}
-	var e fluid.SatEstimate
-	best, bestR := T, math.Inf(1)
-	for it := 0; it < 5; it++ {
+	// Newton's method on the curve, to 1e-3 in T: a start needs no more
+	// (Newton's method in (T, ρ) takes it on from the estimate's X).
+	var e, best fluid.SatEstimate
+	var xt, bestX float64
+	bestR := math.Inf(1)
+	for it := 0; it < 4; it++ {
 		if e, ok = f.SaturationEstimateAtT(T); !ok {
 			return start, false
 		}
@@ -405,36 +408,32 @@ func (k *call) liquidStart(p float64, X quantity, x, T0 float64) (start fluid.Pr
 		if X == qS {
 			xl, dxl, dxdp = l.S, e.Slope.Liquid.S, -l.Expansivity/l.Rho
 		}
-		r := xl + dxdp*(p-e.P) - x
-		if math.Abs(r) < bestR {
-			best, bestR = T, math.Abs(r)
+		xt = xl + dxdp*(p-e.P)
+		if r := math.Abs(xt - x); r < bestR {
+			best, bestX, bestR = e, xt, r
 		}
-		dT := -r / (dxl - dxdp*e.Slope.P)
-		if !isFinite(dT) {
+		dT := (x - xt) / (dxl - dxdp*e.Slope.P)
+		if !isFinite(dT) || math.Abs(dT) <= 1e-3*T {
 			break
 		}
 		dT = max(min(dT, 0.1*T), -0.1*T)
-		if math.Abs(dT) <= 1e-5*T {
-			break
-		}
 		T = min(max(T+dT, lo), hi)
 	}
-	if e, ok = f.SaturationEstimateAtT(best); !ok {
+	if !(bestR < math.Inf(1)) {
 		return start, false
 	}
-	start = e.Liquid
+	start = best.Liquid
 	start.P = p
 	const kp = 7.0 // as in densityOn
-	if base := 1 + kp*(p-e.P)/(start.Rho*start.DpDrho); base > 0 && isFinite(base) {
+	if base := 1 + kp*(p-best.P)/(start.Rho*start.DpDrho); base > 0 && isFinite(base) {
 		start.Rho *= math.Pow(base, 1/kp)
 	}
-	// Its X by the same estimate: the start of Newton's method is then
-	// (best, ρ) itself.
-	dxdp := (1 - best*start.Expansivity) / e.Liquid.Rho
+	// Its X by the same estimate, from which Newton's method in (T, ρ)
+	// goes on.
 	if X == qS {
-		start.S += -start.Expansivity / e.Liquid.Rho * (p - e.P)
+		start.S = bestX
 	} else {
-		start.H += dxdp * (p - e.P)
+		start.H = bestX
 	}
 	return start, true
 }

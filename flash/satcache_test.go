@@ -149,14 +149,7 @@ func TestCacheBandRoundTrip(t *testing.T) {
 				if !checkState(t, f, what, &st) {
 					continue
 				}
-				for _, q := range []struct {
-					name string
-					v    float64
-				}{{c.fc.a, c.a}, {c.fc.b, c.b}} {
-					if g, floor := backward(f, &st, q.name, q.v); math.Abs(g-q.v) > floor {
-						t.Errorf("%s %s: %s = %.17g, off by %.3g (floor %.3g)", f.Name(), what, q.name, g, g-q.v, floor)
-					}
-				}
+				checkInputs(t, f, what, &st, c.fc, c.a, c.b)
 				if c.want != Unknown && st.Phase != c.want {
 					t.Errorf("%s %s: phase %v (T = %v, q = %v), want %v", f.Name(), what, st.Phase, st.T, st.Quality, c.want)
 				}

@@ -91,6 +91,7 @@ type satStart struct {
 // units (ln p and ln ρ: relative, stored as e^err − 1).
 type satInterval struct {
 	coord   [nSatQ]uint8
+	uses    uint8 // bit k set: some quantity is cubic in coordinate k
 	err     [nSatQ]float64
 	h, hinv [nCoord]float64 // the width in each coordinate and its inverse
 }
@@ -269,6 +270,7 @@ func (f *Fluid) measureInterval(c *satCurve, i int) error {
 			}
 		}
 		iv.coord[q] = uint8(k)
+		iv.uses |= 1 << k
 		iv.err[q] = satCurveSafety*(errs[k][q]+spread[q]) + f.satFloor(q, a, b)
 		if q == sqLnP || q == sqLnRhoL || q == sqLnRhoV {
 			iv.err[q] = math.Expm1(iv.err[q])
@@ -419,17 +421,17 @@ func (bs *satBasis) slope(a, b *satNode, q int) float64 {
 // derivatives with T into dv.
 func (c *satCurve) interp(i int, T float64, v, dv *[nSatQ]float64) {
 	a, b := &c.nodes[i], &c.nodes[i+1]
-	var bs [nCoord]satBasis
-	var have [nCoord]bool
 	iv := &c.ivs[i]
-	for q := range nSatQ {
-		k := iv.coord[q]
-		if !have[k] {
-			c.basis(i, T, int(k), &bs[k])
-			have[k] = true
+	var bs [nCoord]satBasis
+	for k := range nCoord {
+		if iv.uses&(1<<k) != 0 {
+			c.basis(i, T, k, &bs[k])
 		}
-		v[q] = bs[k].value(a, b, q)
-		dv[q] = bs[k].slope(a, b, q)
+	}
+	for q := range nSatQ {
+		h := &bs[iv.coord[q]]
+		v[q] = h.h00*a.v[q] + h.h10*a.d[q] + h.h01*b.v[q] + h.h11*b.d[q]
+		dv[q] = h.g00*a.v[q] + h.g10*a.d[q] + h.g01*b.v[q] + h.g11*b.d[q]
 	}
 }
 
@@ -761,7 +763,7 @@ func (f *Fluid) satEstimate(c *satCurve, i int, T float64, e *SatEstimate) {
 	var v, dv [nSatQ]float64
 	c.interp(i, T, &v, &dv)
 	a, b := &c.nodes[i], &c.nodes[i+1]
-	w := (T - a.T) / (b.T - a.T)
+	w := (T - a.T) * c.ivs[i].hinv[coordT]
 	bd := &c.ivs[i].err
 	p := math.Exp(v[sqLnP])
 	e.T, e.P = T, p

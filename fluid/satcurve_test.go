@@ -341,3 +341,41 @@ func TestSatCurveWhere(t *testing.T) {
 		check(SatVaporH, hmax+f.hOff-1, 2)
 	}
 }
+
+// FuzzSatEstimate calls the estimates at arbitrary T, p and ρ for every
+// fluid (chosen by k): no panic; an estimate is in range, finite, with
+// non-negative bounds, and its liquid is denser than its vapour.
+func FuzzSatEstimate(f *testing.F) {
+	for _, s := range [][2]float64{{300, 1e5}, {647.095, 2.2e7}, {216.592, 517964}, {0, 0},
+		{math.NaN(), math.Inf(1)}, {-1, 1e308}, {374.21, 999.9}} {
+		f.Add(s[0], s[1], uint8(0))
+	}
+	fs := allFluids(f)
+	f.Fuzz(func(t *testing.T, T, x float64, k uint8) {
+		g := fs[int(k)%len(fs)]
+		lo, hi := g.SaturationEstimateRange()
+		check := func(e *SatEstimate) {
+			v, b := estValues(e)
+			for i := range v {
+				if !finite(v[i]) || !(b[i] >= 0) || !finite(b[i]) {
+					t.Fatalf("%s: %s = %v, bound %v", g.Name(), satQNames[i], v[i], b[i])
+				}
+			}
+			if !(e.T >= lo && e.T <= hi) || !(e.Liquid.Rho > e.Vapor.Rho) || !(e.Err.T >= 0) {
+				t.Fatalf("%s: estimate %+v", g.Name(), *e)
+			}
+		}
+		if e, ok := g.SaturationEstimateAtT(T); ok {
+			check(&e)
+		}
+		if e, ok := g.SaturationEstimateAtP(x); ok {
+			check(&e)
+		}
+		var buf [4]SatEstimate
+		for _, v := range []SatValue{SatLiquidRho, SatVaporH, SatLiquidS, SatValue(k % 9)} {
+			for _, e := range g.SaturationEstimatesWhere(v, x, buf[:0]) {
+				check(&e)
+			}
+		}
+	})
+}
