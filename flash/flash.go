@@ -204,8 +204,9 @@ func (k *call) stable(pr *fluid.Props) (bool, Flags) {
 // stableAtRho is stable for a state found at a given or solved density
 // (DT, DU, TS, PD): below Tc, p(ρ) of a multiparameter equation can rise
 // in places inside the saturation dome, so a root there is checked
-// against the root of its branch at its (T, p) where the auxiliary
-// saturated densities do not settle it.
+// against the root of its branch at its (T, p) where neither the cached
+// saturation curve (outside its bounds) nor the auxiliary saturated
+// densities settle it.
 func (k *call) stableAtRho(pr *fluid.Props) (bool, Flags) {
 	if e, ok := k.f.SaturationEstimateAtT(pr.T); ok {
 		switch placeTRho(&e, pr.Rho) {
@@ -469,11 +470,15 @@ func (k *call) finishSat(s *fluid.Saturation, q float64) (State, error) {
 // also solid, solid–vapour (below the triple-point pressure) and
 // solid–liquid (above it).
 //
-// Below pc the auxiliary vapour-pressure equation places h against the
-// saturated enthalpies; within its uncertainty of the curve, the
-// equation's own saturation (SaturationAtP) decides. Single-phase states
-// come from Newton's method in (T, ρ) on p and h with the analytic
-// Jacobian, with a bracketed search along the isobar where it fails.
+// Below pc the fluid's cached saturation curve
+// (fluid.SaturationEstimateAtP) places h against the saturated
+// enthalpies; within its error bounds of the curve, and within a
+// millikelvin of the critical point where it ends, the equation's own
+// saturation (SaturationAtP) decides. Single-phase states come from
+// Newton's method in (T, ρ) on p and h with the analytic Jacobian,
+// started from the cached saturated phase (a liquid from the saturated
+// liquid at its own temperature, carried to p), with a bracketed search
+// along the isobar where it fails.
 // Below the triple-point pressure h is placed against the solid and the
 // vapour on the model's sublimation curve at p, above it against the
 // solid and the liquid on its melting curve where h lies below the liquid
@@ -783,10 +788,11 @@ func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
 // isobarSingle solves a single-phase state at p with X = x on side sd,
 // between tlo and thi, from the state start; meta allows a metastable
 // result (flagged). It tries Newton's method in (T, ρ) from the start
-// extrapolated with (∂X/∂T)_p, then from the far end of the bracket (near
-// the critical point the start's cp misleads), then a bracketed search
-// along the isobar, between the equation's own saturation temperature
-// and the far end below pc.
+// extrapolated with (∂X/∂T)_p (or from k.at, where the caller set it;
+// in ln T and ln ρ on ln p for a vapour and from k.at), then from the
+// far end of the bracket (near the critical point the start's cp
+// misleads), then a bracketed search along the isobar, between the
+// equation's own saturation temperature and the far end below pc.
 func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props, sd side, tlo, thi float64, meta bool) (State, error) {
 	f := k.f
 	c := f.Critical()
@@ -795,8 +801,10 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 	if meta {
 		keepLo, keepHi = lim.TFloor, lim.TCeil
 	}
+	at := k.at // a start given by the caller, for this call only
+	k.at = [2]float64{}
 	keep := onBranch(f, sd, keepLo, keepHi)
-	keep.logStep = k.at[0] > 0 || sd == vaporSide
+	keep.logStep = at[0] > 0 || sd == vaporSide
 	mayFreeze := !meta && sd != vaporSide && k.sol.ok && !k.decided
 	if d := dXdT(X, start); mayFreeze && d > 0 && start.T+(x-X.of(start))/d < k.freezeTHi(p) &&
 		k.belowFreezing(p, X, x) {
@@ -806,10 +814,8 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		return State{}, errSolid
 	}
 	T0, rho0 := extrapolate(X, x, start, sd, tlo, thi)
-	if k.at[0] > 0 {
-		// A start given by the caller.
-		T0, rho0 = k.at[0], k.at[1]
-		k.at = [2]float64{}
+	if at[0] > 0 {
+		T0, rho0 = at[0], at[1]
 	}
 	pr, ok := newton2(f, qP, p, X, x, T0, rho0, keep, start)
 	if !ok && mayFreeze && k.belowFreezing(p, X, x) {
@@ -852,7 +858,7 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 			pr, ok, below, above = isobar(f, p, X, x, tlo, thi, root)
 			switch {
 			case above && sd == liquidSide && thi < c.T || below && sd == vaporSide:
-				// The auxiliary equation misplaced the dome's edge.
+				// The start misjudged the dome's edge.
 				if s, err := f.SaturationAtP(p); err == nil {
 					xl, xv := X.of(&s.Liquid), X.of(&s.Vapor)
 					if x >= xl && x <= xv {

@@ -87,10 +87,18 @@ func (k *call) dtFluid(rho, T float64) (State, error) {
 	f := k.f
 	c := f.Critical()
 	if T >= k.sol.tt && T < c.T && !k.opt.AllowMetastable {
-		// Well inside the dome by the auxiliary densities: a mixture.
-		rl, err1 := f.AuxLiquidDensity(T)
-		rv, err2 := f.AuxVaporDensity(T)
-		if err1 == nil && err2 == nil && rho > 1.05*rv && rho < 0.95*rl {
+		// Inside the dome by the cached curve (outside its bounds), or
+		// where it ends, well inside by the auxiliary densities: a
+		// mixture.
+		inside := false
+		if e, ok := f.SaturationEstimateAtT(T); ok {
+			inside = placeTRho(&e, rho) == cacheInside
+		} else {
+			rl, err1 := f.AuxLiquidDensity(T)
+			rv, err2 := f.AuxVaporDensity(T)
+			inside = err1 == nil && err2 == nil && rho > 1.05*rv && rho < 0.95*rl
+		}
+		if inside {
 			s, err := k.satT(T)
 			if err != nil {
 				return State{}, err
@@ -195,10 +203,13 @@ func (k *call) satT(T float64) (fluid.Saturation, error) {
 // Along an isochore u rises with T, in one phase and across the
 // saturation dome alike, so DU solves u(T) = u along it: Newton's method
 // in T with cv in a single phase, and in the dome with the mixture's cv
-// (see State) over saturation states at each T, bracketed. Isochores
-// that cross the dome twice (water's liquid near 4 °C, whose saturated
-// density has a maximum) are handled, since the function of T is the
-// same. At the triple point u(T) rises at fixed T: where (ρ, u) lies among
+// (see State) over saturation states at each T, bracketed. Below Tc the
+// fluid's cached saturation curve first places u along the isochore
+// between its crossings with the saturated phases, and a mixture is
+// solved on it and polished by the equation's saturation (two of them,
+// typically). Isochores that cross the dome twice (water's liquid near
+// 4 °C, whose saturated density has a maximum) are handled, since the
+// function of T is the same. At the triple point u(T) rises at fixed T: where (ρ, u) lies among
 // the three-phase mixtures DU returns Phase Triple with the fractions
 // they fix (T and p those of the triple point), below them it follows the
 // isochore through the solid–vapour, solid–liquid and solid states (with

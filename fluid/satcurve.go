@@ -374,17 +374,6 @@ func coordOf(k int, T, Tc float64) (u, dudT float64) {
 	return T, 1
 }
 
-// dudT returns the derivative of coordinate k with T at T.
-func dudT(k int, T, Tc float64) float64 {
-	switch k {
-	case coordY:
-		return -1 / (T * T)
-	case coordX:
-		return -1 / (Tc - T)
-	}
-	return 1
-}
-
 // basis sets bs to the basis of interval i at T in coordinate k.
 func (c *satCurve) basis(i int, T float64, k int, bs *satBasis) {
 	u, ku := coordOf(k, T, c.tc)
@@ -433,14 +422,6 @@ func (c *satCurve) interp(i int, T float64, v, dv *[nSatQ]float64) {
 		v[q] = h.h00*a.v[q] + h.h10*a.d[q] + h.h01*b.v[q] + h.h11*b.d[q]
 		dv[q] = h.g00*a.v[q] + h.g10*a.d[q] + h.g01*b.v[q] + h.g11*b.d[q]
 	}
-}
-
-// lnpAt returns ln p of interval i at T and its derivative with T.
-func (c *satCurve) lnpAt(i int, T float64) (lp, dlp float64) {
-	var bs satBasis
-	c.basis(i, T, int(c.ivs[i].coord[sqLnP]), &bs)
-	a, b := &c.nodes[i], &c.nodes[i+1]
-	return bs.value(a, b, sqLnP), bs.slope(a, b, sqLnP)
 }
 
 // intervalT returns the interval holding T, or −1 outside the curve.

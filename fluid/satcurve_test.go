@@ -4,6 +4,7 @@ import (
 	"math"
 	"sync"
 	"testing"
+	"unsafe"
 )
 
 // estValues returns the bounded values of an estimate and their bounds,
@@ -75,7 +76,9 @@ func TestSatCurveBounds(t *testing.T) {
 				n++
 			}
 		}
-		t.Logf("%s: %d nodes, %d points checked; largest error / bound %.3f", f.Name(), len(c.nodes), n, worst)
+		mem := len(c.nodes)*int(unsafe.Sizeof(satNode{})+16) + len(c.ivs)*int(unsafe.Sizeof(satInterval{}))
+		t.Logf("%s: %d nodes (%d kB), %d points checked; largest error / bound %.3f",
+			f.Name(), len(c.nodes), mem/1000, n, worst)
 	}
 }
 
