@@ -154,6 +154,15 @@ func (k *call) densityOn(T, p float64, e *fluid.SatEstimate, liquid bool, guess 
 		rho0 = guess
 	}
 	rho0 = min(max(rho0, lo), hi)
+	if math.Abs(p/e.P-1) > 0.1 {
+		// Far from the vapour pressure fluid.PropsTP decides the root
+		// from the auxiliary equation without a saturation solve (they
+		// are good to 2 %), and its iteration evaluates only the residual
+		// part of the equation: from the same start.
+		if pr, err := f.PropsTP(T, p, fluid.RootStable, rho0); err == nil && (pr.Rho > e.Liquid.Rho) == liquid {
+			return pr, true
+		}
+	}
 	return newton1(f, qP, p, T, rho0, false, lo, hi)
 }
 
