@@ -339,6 +339,12 @@ func TestAllocs(t *testing.T) {
 		"TQ warm":      func() { TQWith(f, 401, 0.5, Options{Guess: &two}) },
 		"PQ":           func() { PQ(f, 1e5, 0.5) },
 		"DT":           func() { DT(f, 10, 400) },
+		"DT two-phase": func() { DT(f, 10, 450) },
+		"DU two-phase": func() { DU(f, two.Rho, two.U) },
+		"DU liquid":    func() { DU(f, 990, 2e5) },
+		"PT near sat":  func() { PT(f, 1.001*two.P, 400) },
+		"PH p > pc":    func() { PH(f, 5e7, 5e5) },
+		"PD":           func() { PD(f, 1e5, 990) },
 	} {
 		if a := testing.AllocsPerRun(20, fn); a != 0 {
 			t.Errorf("%s: %v allocs", name, a)

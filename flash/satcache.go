@@ -118,14 +118,27 @@ func (k *call) satFromCacheP(p float64) (fluid.Saturation, bool, error) {
 	return s, true, err
 }
 
+// taitRho returns the density of the liquid l compressed by dp in Pa, in
+// the Tait form of fluid.Density's liquid steps: ρ(1 + K′dp/K)^(1/K′)
+// with the bulk modulus K = ρ(∂p/∂ρ)_T of l and K′ = dK/dp = 7, typical
+// of liquids (common practice, no source); l's density where that is
+// not defined.
+func taitRho(l *fluid.Props, dp float64) float64 {
+	const kp = 7.0
+	if base := 1 + kp*dp/(l.Rho*l.DpDrho); base > 0 && isFinite(base) {
+		return l.Rho * math.Pow(base, 1/kp)
+	}
+	return l.Rho
+}
+
 // densityOn solves p(T, ρ) = p for ρ on the stable branch that the cached
-// curve e at T chose (liquid true: ρ > ρ′; else ρ < ρ″), by Newton's
-// method in ln ρ kept in that bracket (newton1), started from the
-// saturated phase carried to p: for the liquid by its compressibility in
-// the Tait form of fluid.Density's liquid steps, for the vapour by the
+// curve e at T chose (liquid true: ρ > ρ′; else ρ < ρ″), started from the
+// saturated phase carried to p: the liquid by taitRho, the vapour by the
 // second-virial form Z = 1 + (Z″ − 1)p/p_sat through the saturated
-// vapour's compression factor Z″. A positive guess (a warm start)
-// replaces the start.
+// vapour's compression factor Z″; a positive guess (a warm start)
+// replaces the start. Far from the vapour pressure fluid.PropsTP solves
+// it; near it, where PropsTP would solve the saturation to choose the
+// root, Newton's method in ln ρ kept in that bracket (newton1).
 func (k *call) densityOn(T, p float64, e *fluid.SatEstimate, liquid bool, guess float64) (fluid.Props, bool) {
 	f := k.f
 	lim := f.Limits()
@@ -134,12 +147,7 @@ func (k *call) densityOn(T, p float64, e *fluid.SatEstimate, liquid bool, guess 
 		l := &e.Liquid
 		lo = max(l.Rho-2*e.Err.Liquid.Rho, f.Critical().Rho)
 		hi = lim.RhoCeil
-		const kp = 7.0 // K′ = dK/dp, typical of liquids (common practice, no source)
-		K := l.Rho * l.DpDrho
-		rho0 = l.Rho
-		if base := 1 + kp*(p-e.P)/K; base > 0 && isFinite(base) {
-			rho0 = l.Rho * math.Pow(base, 1/kp)
-		}
+		rho0 = taitRho(l, p-e.P)
 	} else {
 		v := &e.Vapor
 		lo = 1e-12 * v.Rho * p / e.P
@@ -379,8 +387,7 @@ func (k *call) mixtureOnIsochore(rho, u, lo, hi float64) (st State, err error, o
 // (β′ the saturated liquid's expansivity: a liquid's X departs from the
 // saturated liquid's at its temperature nearly linearly in p), by
 // Newton's method on the curve from T0, or where T0 is 0 from the T at
-// which X′ = x, with the density carried to p in the Tait form of
-// densityOn. Near Tc, where β′ diverges, the correction misleads: steps
+// which X′ = x, with the density carried to p by taitRho. Near Tc, where β′ diverges, the correction misleads: steps
 // are limited to a tenth of T, and a search that does not settle in a
 // few steps keeps its start. ok is false where x lies above the liquid at
 // the end of the curve (Tc − 1 mK).
@@ -433,10 +440,7 @@ func (k *call) liquidStart(p float64, X quantity, x, T0 float64) (start fluid.Pr
 	}
 	start = best.Liquid
 	start.P = p
-	const kp = 7.0 // as in densityOn
-	if base := 1 + kp*(p-best.P)/(start.Rho*start.DpDrho); base > 0 && isFinite(base) {
-		start.Rho *= math.Pow(base, 1/kp)
-	}
+	start.Rho = taitRho(&best.Liquid, p-best.P)
 	// Its X by the same estimate, from which Newton's method in (T, ρ)
 	// goes on.
 	if X == qS {
