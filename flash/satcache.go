@@ -83,15 +83,15 @@ func (k *call) stableByCache(pr *fluid.Props) (stable, decided bool) {
 	if pr.T >= c.T {
 		return true, true
 	}
-	e, ok := k.f.SaturationEstimateAtT(pr.T)
+	ps, errP, ok := k.f.VaporPressureEstimate(pr.T)
 	if !ok {
 		return false, false
 	}
 	liquid := pr.Rho > c.Rho
 	switch {
-	case pr.P > e.P+e.Err.P:
+	case pr.P > ps+errP:
 		return liquid, true
-	case pr.P < e.P-e.Err.P:
+	case pr.P < ps-errP:
 		return !liquid, true
 	}
 	return false, false

@@ -156,7 +156,8 @@ func (b *branch) keep(pr *fluid.Props) bool {
 // with the analytic Jacobian, from (T, ρ), with steps limited to a
 // quarter of T and half of ρ and halved back toward the last good point
 // where they leave the accepted region, meet an unstable state or leave
-// the branch br. It returns the state and whether it
+// the branch br, and stopped where they keep pressing beyond the
+// accepted temperatures. It returns the state and whether it
 // converged (to 1/100 of the floors, or to the floors where rounding
 // stalls the iteration).
 //
@@ -171,7 +172,7 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 		prev, havePrev = *start, true
 	}
 	w := watch{best: math.Inf(1)}
-	backs := 0
+	backs, pinned := 0, 0
 	lastStep := math.Inf(1)
 	for it := 0; it < 60; it++ {
 		pr, ok := props(f, T, rho)
@@ -210,17 +211,25 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 			dRho = rho * math.Expm1(max(min(dRho, 2*math.Ln2), -2*math.Ln2))
 		}
 		s := 1.0
-		switch {
-		case logged:
-			// Bounded in the logarithms above.
-		case math.Abs(dT) > 0.25*T:
-			s = 0.25 * T / math.Abs(dT)
+		if !logged {
+			// (Bounded in the logarithms above where logged.)
+			if math.Abs(dT) > 0.25*T {
+				s = 0.25 * T / math.Abs(dT)
+			}
+			if dRho < -0.5*rho {
+				s = min(s, 0.5*rho/-dRho)
+			} else if dRho > rho {
+				s = min(s, rho/dRho)
+			}
 		}
-		if logged {
-		} else if dRho < -0.5*rho {
-			s = min(s, 0.5*rho/-dRho)
-		} else if dRho > rho {
-			s = min(s, rho/dRho)
+		// Held at an end of the accepted temperatures and sent beyond it
+		// three times in a row: the solution lies outside them.
+		if T == lim.TCeil && dT > 0 || T == lim.TFloor && dT < 0 {
+			if pinned++; pinned >= 3 {
+				return pr, false
+			}
+		} else {
+			pinned = 0
 		}
 		prev, havePrev = pr, true
 		lastStep = s * max(math.Abs(dT)/T, math.Abs(dRho)/rho)

@@ -518,6 +518,25 @@ func (f *Fluid) SaturationEstimateRange() (lo, hi float64) {
 	return c.ts[0], c.ts[len(c.ts)-1]
 }
 
+// VaporPressureEstimate returns the vapour pressure of f at temperature
+// T in K and the bound of its error, both in Pa, from the cached curve:
+// the P and Err.P of SaturationEstimateAtT at a fraction of its cost,
+// for placing states. ok is false where SaturationEstimateAtT's is.
+func (f *Fluid) VaporPressureEstimate(T float64) (p, errP float64, ok bool) {
+	c := f.satCurve()
+	if c == nil {
+		return 0, 0, false
+	}
+	i := c.intervalT(T)
+	if i < 0 {
+		return 0, 0, false
+	}
+	var bs satBasis
+	c.basis(i, T, int(c.ivs[i].coord[sqLnP]), &bs)
+	p = math.Exp(bs.value(&c.nodes[i], &c.nodes[i+1], sqLnP))
+	return p, p * c.ivs[i].err[sqLnP], true
+}
+
 // SaturationEstimateAtP returns the estimated saturation of f at pressure
 // p in Pa, as SaturationEstimateAtT: ok is false outside the pressures of
 // its temperature range. Err.T bounds the error of the estimated T, and

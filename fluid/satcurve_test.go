@@ -52,6 +52,9 @@ func TestSatCurveBounds(t *testing.T) {
 				if !ok {
 					t.Fatalf("%s: no estimate at T = %v", f.Name(), T)
 				}
+				if ps, errP, ok := f.VaporPressureEstimate(T); !ok || ps != e.P || errP != e.Err.P {
+					t.Errorf("%s T = %v: VaporPressureEstimate %v +- %v, estimate %v +- %v", f.Name(), T, ps, errP, e.P, e.Err.P)
+				}
 				got, bound := estValues(&e)
 				for q := range got {
 					r := math.Abs(got[q]-want[q]) / bound[q]
@@ -254,6 +257,7 @@ func TestSatCurveAllocs(t *testing.T) {
 		"AtT":   func() { f.SaturationEstimateAtT(400) },
 		"AtP":   func() { f.SaturationEstimateAtP(1e5) },
 		"AtRho": func() { f.SaturationEstimatesAtRho(999.9, buf[:0]) },
+		"p":     func() { f.VaporPressureEstimate(400) },
 	} {
 		fn()
 		if a := testing.AllocsPerRun(20, fn); a != 0 {
