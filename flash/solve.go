@@ -223,8 +223,10 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 			}
 		}
 		// Held at an end of the accepted temperatures and sent beyond it
-		// three times in a row: the solution lies outside them.
-		if T == lim.TCeil && dT > 0 || T == lim.TFloor && dT < 0 {
+		// by more than 1e-6·T three times in a row (a solution at the
+		// end itself draws the steps to nothing): the solution lies
+		// outside them.
+		if T == lim.TCeil && dT > 1e-6*T || T == lim.TFloor && dT < -1e-6*T {
 			if pinned++; pinned >= 3 {
 				return pr, false
 			}
