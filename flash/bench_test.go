@@ -72,7 +72,8 @@ var benchRegions = []benchRegion{
 	}},
 	{"vapour", func(f *fluid.Fluid) []State {
 		tp, c := f.Triple(), f.Critical()
-		return gridPT(f, linspace(tp.T+0.2*(c.T-tp.T), 1.5*c.T, 5), func(T float64) []float64 {
+		hi := min(1.5*c.T, f.Limits().TMax) // within the published range (R-134a: 455 K)
+		return gridPT(f, linspace(tp.T+0.2*(c.T-tp.T), hi, 5), func(T float64) []float64 {
 			ps := c.P
 			if T < c.T {
 				ps = satPressure(f, T)
@@ -82,7 +83,8 @@ var benchRegions = []benchRegion{
 	}},
 	{"supercritical", func(f *fluid.Fluid) []State {
 		c := f.Critical()
-		return gridPT(f, linspace(1.1*c.T, 2*c.T, 5), func(T float64) []float64 {
+		hi := min(2*c.T, f.Limits().TMax) // within the published range
+		return gridPT(f, linspace(1.1*c.T, hi, 5), func(T float64) []float64 {
 			return []float64{1.5 * c.P, 3 * c.P, 6 * c.P}
 		})
 	}},

@@ -21,6 +21,9 @@ type call struct {
 	sol      solidSide
 	decided  bool
 	fixedTlo float64
+	// at, if at[0] > 0, is the (T, ρ) from which the next isobarSingle
+	// starts Newton's method, instead of its start state extrapolated.
+	at [2]float64
 }
 
 // init sets up k for a flash; it validates what every flash shares:
@@ -187,6 +190,9 @@ func (k *call) finish(pr *fluid.Props) (State, error) {
 // stable fluid phase at its (T, p), with the Indeterminate flag of a
 // state exactly on the vapour-pressure curve.
 func (k *call) stable(pr *fluid.Props) (bool, Flags) {
+	if st, ok := k.stableByCache(pr); ok {
+		return st, 0
+	}
 	root, fl, err := k.f.StableRoot(pr.T, pr.P)
 	if err != nil || root == fluid.RootStable {
 		return err == nil, fl
@@ -198,9 +204,18 @@ func (k *call) stable(pr *fluid.Props) (bool, Flags) {
 // stableAtRho is stable for a state found at a given or solved density
 // (DT, DU, TS, PD): below Tc, p(ρ) of a multiparameter equation can rise
 // in places inside the saturation dome, so a root there is checked
-// against the root of its branch at its (T, p) where the auxiliary
-// saturated densities do not settle it.
+// against the root of its branch at its (T, p) where neither the cached
+// saturation curve (outside its bounds) nor the auxiliary saturated
+// densities settle it.
 func (k *call) stableAtRho(pr *fluid.Props) (bool, Flags) {
+	if e, ok := k.f.SaturationEstimateAtT(pr.T); ok {
+		switch placeTRho(&e, pr.Rho) {
+		case cacheLiquid, cacheVapor:
+			return true, 0
+		case cacheInside:
+			return false, 0
+		}
+	}
 	ok, fl := k.stable(pr)
 	c := k.f.Critical()
 	if !ok || pr.T >= c.T {
@@ -286,6 +301,18 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	}
 	if pl == placeBeyond || pl == placeSolid && !meta {
 		return k.done(k.ptSolid(p, T, pl, why, nil))
+	}
+	if pl == placeFluid && root == fluid.RootStable && p <= f.Limits().PCeil {
+		// Below Tc the cached curve places (T, p) on a branch where p
+		// lies outside its bound of the vapour pressure.
+		if e, ok := f.SaturationEstimateAtT(T); ok && math.Abs(p-e.P) > e.Err.P {
+			liquid := p > e.P
+			// (At the pressure ceiling a root whose pressure rounds above
+			// it is left to fluid.PropsTP, which says so.)
+			if pr, ok := k.densityOn(T, p, &e, liquid, k.guessRho(root)); ok && pr.P <= f.Limits().PCeil {
+				return k.wanted(single(&pr, fluidPhase(f, T, p, pr.Rho)), nil)
+			}
+		}
 	}
 	pr, err := f.PropsTP(T, p, root, k.guessRho(root))
 	if err != nil {
@@ -404,14 +431,16 @@ func PQWith(f *fluid.Fluid, p, q float64, opt Options) (State, error) {
 	return k.finishSat(&s, q)
 }
 
-// satP returns the saturation at p, warm-started from the guess.
+// satP returns the saturation at p, started from the cached curve, else
+// from the guess.
 func (k *call) satP(p float64) (fluid.Saturation, error) {
-	var s fluid.Saturation
-	var err error
-	if gT, rl, rv, ok := k.guessSat(); ok {
-		s, err = k.f.SaturationAtPFrom(p, gT, rl, rv)
-	} else {
-		s, err = k.f.SaturationAtP(p)
+	s, ok, err := k.satFromCacheP(p)
+	if !ok {
+		if gT, rl, rv, okg := k.guessSat(); okg {
+			s, err = k.f.SaturationAtPFrom(p, gT, rl, rv)
+		} else {
+			s, err = k.f.SaturationAtP(p)
+		}
 	}
 	if err != nil {
 		return s, k.rewrap(err)
@@ -441,11 +470,15 @@ func (k *call) finishSat(s *fluid.Saturation, q float64) (State, error) {
 // also solid, solid–vapour (below the triple-point pressure) and
 // solid–liquid (above it).
 //
-// Below pc the auxiliary vapour-pressure equation places h against the
-// saturated enthalpies; within its uncertainty of the curve, the
-// equation's own saturation (SaturationAtP) decides. Single-phase states
-// come from Newton's method in (T, ρ) on p and h with the analytic
-// Jacobian, with a bracketed search along the isobar where it fails.
+// Below pc the fluid's cached saturation curve
+// (fluid.SaturationEstimateAtP) places h against the saturated
+// enthalpies; within its error bounds of the curve, and within a
+// millikelvin of the critical point where it ends, the equation's own
+// saturation (SaturationAtP) decides. Single-phase states come from
+// Newton's method in (T, ρ) on p and h with the analytic Jacobian,
+// started from the cached saturated phase (a liquid from the saturated
+// liquid at its own temperature, carried to p), with a bracketed search
+// along the isobar where it fails.
 // Below the triple-point pressure h is placed against the solid and the
 // vapour on the model's sublimation curve at p, above it against the
 // solid and the liquid on its melting curve where h lies below the liquid
@@ -563,6 +596,17 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 		T0 := c.T
 		if p < k.sol.pt {
 			root, T0, sd = fluid.RootVapor, Tf, vaporSide
+		} else if ls, ok := k.liquidStart(p, X, x, 0); ok {
+			// Above pc, liquid-like below Tc by the cached curve.
+			return k.isobarSingle(p, X, x, &ls, anySide, Tf, lim.TCeil, false)
+		} else if _, tEnd := f.SaturationEstimateRange(); tEnd > 0 {
+			// Above the liquid at the end of the cached curve: gas-like,
+			// by Newton's method in (T, ρ) from the ideal gas at 1.5 Tc
+			// (the saturated vapour there to fall back toward).
+			e, _ := f.SaturationEstimateAtT(tEnd)
+			T0 = min(1.5*c.T, 0.5*(c.T+lim.TCeil))
+			k.at = [2]float64{T0, p / (f.GasConstant() * T0)}
+			return k.isobarSingle(p, X, x, &e.Vapor, sd, Tf, lim.TCeil, false)
 		} else if pcr, ok := props(f, c.T, c.Rho); ok || pcr.H != 0 {
 			// Above pc: start from the liquid at the triple-point
 			// temperature or a gas well above Tc, whichever side of the
@@ -571,6 +615,11 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 			T0 = min(1.5*c.T, 0.5*(c.T+lim.TCeil))
 			if x < X.of(&pcr) {
 				T0 = max(k.sol.tt, lim.TFloor)
+			} else {
+				// Gas-like: Newton's method in (T, ρ) from the ideal
+				// gas at T0 (the critical state to fall back toward).
+				k.at = [2]float64{T0, p / (f.GasConstant() * T0)}
+				return k.isobarSingle(p, X, x, &pcr, sd, Tf, lim.TCeil, false)
 			}
 		}
 		pr0, err := f.PropsTP(T0, p, root, 0)
@@ -585,29 +634,31 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 		}
 		return k.isobarSingle(p, X, x, &pr0, sd, Tf, lim.TCeil, false)
 	}
-	// pt <= p < pc: place x against the saturated phases.
+	// pt <= p < pc: place x against the saturated phases, by the cached
+	// curve where x lies outside its bounds.
 	var s fluid.Saturation
-	Ts, err := f.AuxSaturationTemperature(p)
-	if err == nil {
-		rl, _ := f.AuxLiquidDensity(Ts)
-		rv, _ := f.AuxVaporDensity(Ts)
+	var err error
+	if e, ok := f.SaturationEstimateAtP(p); ok {
 		if want != TwoPhase {
-			// The auxiliary equation's 5 % band in p, as a band in T by
-			// its slope, places x against the saturated phases at the
-			// auxiliary state; the vapour first, then the liquid.
-			dTm := math.Inf(1)
-			if p2, err := f.AuxVaporPressure(Ts * (1 - 1e-5)); err == nil && p2 < p {
-				dTm = 0.05 * p * Ts * 1e-5 / (p - p2)
-			}
-			if pv, ok := props(f, Ts, rv); ok && x > X.of(&pv)+dXdT(X, &pv)*dTm {
-				return k.isobarSingle(p, X, x, &pv, vaporSide, Ts, lim.TCeil, false)
-			}
-			if pl, ok := props(f, Ts, rl); ok && x < X.of(&pl)-dXdT(X, &pl)*dTm {
-				return k.isobarSingle(p, X, x, &pl, liquidSide, Tf, Ts, false)
+			switch placeX(&e, X, x) {
+			case cacheVapor:
+				return k.isobarSingle(p, X, x, &e.Vapor, vaporSide, e.T-e.Err.T, lim.TCeil, false)
+			case cacheLiquid:
+				start := e.Liquid
+				if X == qH || X == qS {
+					T0, _ := extrapolate(X, x, &e.Liquid, liquidSide, Tf, e.T)
+					if ls, ok := k.liquidStart(p, X, x, T0); ok {
+						start = ls
+					}
+				}
+				return k.isobarSingle(p, X, x, &start, liquidSide, Tf, e.T+e.Err.T, false)
 			}
 		}
-		s, err = f.SaturationAtPFrom(p, Ts, rl, rv)
+		s, err = f.SaturationAtPFrom(p, e.T, e.Liquid.Rho, e.Vapor.Rho)
 	} else {
+		// Within a millikelvin of the critical point, or between the
+		// stored triple-point pressure and the equation's vapour
+		// pressure at Tt: the equation's saturation.
 		s, err = f.SaturationAtP(p)
 	}
 	if err != nil {
@@ -667,7 +718,10 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
 		if !(p < c.P && p >= k.sol.pt) {
 			return State{}, false
 		}
-		s, err := f.SaturationAtPFrom(p, gT, rl, rv)
+		s, ok, err := k.satFromCacheP(p)
+		if !ok {
+			s, err = f.SaturationAtPFrom(p, gT, rl, rv)
+		}
 		if err != nil {
 			return State{}, false
 		}
@@ -683,7 +737,9 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
 	if p >= f.Critical().P {
 		sd = anySide
 	}
-	pr, ok := newton2(f, qP, p, X, x, g.T, g.Rho, onBranch(f, sd, lim.TFloor, lim.TCeil), nil)
+	T0, rho0 := predict(g, p, X, x)
+	from := fluid.Props{T: g.T, Rho: g.Rho}
+	pr, ok := newton2(f, qP, p, X, x, T0, rho0, onBranch(f, sd, lim.TFloor, lim.TCeil), &from)
 	if !ok {
 		return State{}, false
 	}
@@ -697,13 +753,46 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
 	return st, true
 }
 
+// predict returns the start of a warm-started PH (X = h) or PS (X = s)
+// at pressure p: the single-phase guess g carried to (p, x) by one
+// Newton step from its own derivatives, which its state holds implicitly
+// (common thermodynamic identities):
+//
+//	(∂p/∂ρ)_T = w² cv/cp,  (∂p/∂T)_ρ = ρ √((cp − cv)(∂p/∂ρ)_T/T)
+//
+// (the root taken positive: a liquid below its density maximum, where
+// it is negative, is started less well). Where the step would move T by
+// more than 5 % or ρ by more than 10 %, or the guess lacks what it needs,
+// the guess itself.
+func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
+	T, rho = g.T, g.Rho
+	cp, cv, w := g.Cp, g.Cv, g.W
+	if !(cp > cv && cv > 0 && w > 0 && isFinite(cp)) {
+		return T, rho
+	}
+	pr := fluid.Props{T: T, Rho: rho, P: g.P, H: g.H, S: g.S, U: g.U, Cv: cv}
+	pr.DpDrho = w * w * cv / cp
+	pr.DpDT = rho * math.Sqrt((cp-cv)*pr.DpDrho/T)
+	a1, a2 := qP.partials(&pr)
+	b1, b2 := X.partials(&pr)
+	ra, rb := g.P-p, X.of(&pr)-x
+	det := a1*b2 - a2*b1
+	dT := (-ra*b2 + rb*a2) / det
+	dRho := (-rb*a1 + ra*b1) / det
+	if !isFinite(dT) || !isFinite(dRho) || math.Abs(dT) > 0.05*T || math.Abs(dRho) > 0.1*rho {
+		return T, rho
+	}
+	return T + dT, rho + dRho
+}
+
 // isobarSingle solves a single-phase state at p with X = x on side sd,
 // between tlo and thi, from the state start; meta allows a metastable
 // result (flagged). It tries Newton's method in (T, ρ) from the start
-// extrapolated with (∂X/∂T)_p, then from the far end of the bracket (near
-// the critical point the start's cp misleads), then a bracketed search
-// along the isobar, between the equation's own saturation temperature
-// and the far end below pc.
+// extrapolated with (∂X/∂T)_p (or from k.at, where the caller set it;
+// in ln T and ln ρ on ln p for a vapour and from k.at), then from the
+// far end of the bracket (near the critical point the start's cp
+// misleads), then a bracketed search along the isobar, between the
+// equation's own saturation temperature and the far end below pc.
 func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props, sd side, tlo, thi float64, meta bool) (State, error) {
 	f := k.f
 	c := f.Critical()
@@ -712,7 +801,10 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 	if meta {
 		keepLo, keepHi = lim.TFloor, lim.TCeil
 	}
+	at := k.at // a start given by the caller, for this call only
+	k.at = [2]float64{}
 	keep := onBranch(f, sd, keepLo, keepHi)
+	keep.logStep = at[0] > 0 || sd == vaporSide
 	mayFreeze := !meta && sd != vaporSide && k.sol.ok && !k.decided
 	if d := dXdT(X, start); mayFreeze && d > 0 && start.T+(x-X.of(start))/d < k.freezeTHi(p) &&
 		k.belowFreezing(p, X, x) {
@@ -722,6 +814,9 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		return State{}, errSolid
 	}
 	T0, rho0 := extrapolate(X, x, start, sd, tlo, thi)
+	if at[0] > 0 {
+		T0, rho0 = at[0], at[1]
+	}
 	pr, ok := newton2(f, qP, p, X, x, T0, rho0, keep, start)
 	if !ok && mayFreeze && k.belowFreezing(p, X, x) {
 		// Below the liquid where it may freeze: the solid paths decide,
@@ -763,7 +858,7 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 			pr, ok, below, above = isobar(f, p, X, x, tlo, thi, root)
 			switch {
 			case above && sd == liquidSide && thi < c.T || below && sd == vaporSide:
-				// The auxiliary equation misplaced the dome's edge.
+				// The start misjudged the dome's edge.
 				if s, err := f.SaturationAtP(p); err == nil {
 					xl, xv := X.of(&s.Liquid), X.of(&s.Vapor)
 					if x >= xl && x <= xv {

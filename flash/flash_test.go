@@ -2,6 +2,7 @@ package flash
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"sync"
@@ -293,15 +294,7 @@ func TestRobustness(t *testing.T) {
 					if !checkState(t, f, what, &got) {
 						continue
 					}
-					for _, q := range []struct {
-						name string
-						v    float64
-					}{{fc.a, a}, {fc.b, b}} {
-						g, floor := backward(f, &got, q.name, q.v)
-						if math.Abs(g-q.v) > floor {
-							t.Errorf("%s %s(%.17g, %.17g): %s off by %.3g (floor %.3g)", f.Name(), fc.name, a, b, q.name, g-q.v, floor)
-						}
-					}
+					checkInputs(t, f, fmt.Sprintf("%s(%.17g, %.17g)", fc.name, a, b), &got, fc, a, b)
 					// Random inputs, mostly nonsense.
 					x := randomInput(r)
 					y := randomInput(r)
@@ -346,6 +339,12 @@ func TestAllocs(t *testing.T) {
 		"TQ warm":      func() { TQWith(f, 401, 0.5, Options{Guess: &two}) },
 		"PQ":           func() { PQ(f, 1e5, 0.5) },
 		"DT":           func() { DT(f, 10, 400) },
+		"DT two-phase": func() { DT(f, 10, 450) },
+		"DU two-phase": func() { DU(f, two.Rho, two.U) },
+		"DU liquid":    func() { DU(f, 990, 2e5) },
+		"PT near sat":  func() { PT(f, 1.001*two.P, 400) },
+		"PH p > pc":    func() { PH(f, 5e7, 5e5) },
+		"PD":           func() { PD(f, 1e5, 990) },
 	} {
 		if a := testing.AllocsPerRun(20, fn); a != 0 {
 			t.Errorf("%s: %v allocs", name, a)

@@ -56,6 +56,26 @@ func backward(f *fluid.Fluid, st *State, name string, want float64) (got, floor 
 	panic("unknown quantity " + name)
 }
 
+// checkInputs asserts that st, the result of flash fc, reproduces its
+// inputs a and b within their backward-residual floors, and returns the
+// residuals in units of the floors.
+func checkInputs(t *testing.T, f *fluid.Fluid, what string, st *State, fc flashCase, a, b float64) (ra, rb float64) {
+	t.Helper()
+	var r [2]float64
+	for i, c := range [2]struct {
+		name string
+		want float64
+	}{{fc.a, a}, {fc.b, b}} {
+		g, floor := backward(f, st, c.name, c.want)
+		r[i] = math.Abs(g-c.want) / floor
+		if math.Abs(g-c.want) > floor {
+			t.Errorf("%s %s: %s = %.17g, off by %.3g (floor %.3g); T = %v, phase %v",
+				f.Name(), what, c.name, g, g-c.want, floor, st.T, st.Phase)
+		}
+	}
+	return r[0], r[1]
+}
+
 // checkState asserts the invariants every returned state must satisfy:
 // finite values, the documented infinities only, phase fractions that add
 // up, a known phase.
@@ -182,18 +202,10 @@ func roundTrip(t *testing.T, f *fluid.Fluid, origin string, st *State, opt Optio
 		if !checkState(t, f, what, &got) {
 			continue
 		}
-		for _, c := range []struct {
-			name string
-			want float64
-		}{{fc.a, a}, {fc.b, b}} {
-			g, floor := backward(f, &got, c.name, c.want)
-			if math.Abs(g-c.want) > floor {
-				t.Errorf("%s %s: %s = %.17g, off by %.3g (floor %.3g); T = %v, phase %v",
-					f.Name(), what, c.name, g, g-c.want, floor, got.T, got.Phase)
-			}
-			if worst != nil {
-				worst[c.name] = max(worst[c.name], math.Abs(g-c.want)/floor)
-			}
+		ra, rb := checkInputs(t, f, what, &got, fc, a, b)
+		if worst != nil {
+			worst[fc.a] = max(worst[fc.a], ra)
+			worst[fc.b] = max(worst[fc.b], rb)
 		}
 		samePhase := got.Phase == st.Phase ||
 			(st.Flags|got.Flags)&(Indeterminate|AtCritical) != 0 ||

@@ -137,6 +137,9 @@ type branch struct {
 	c        fluid.Point
 	sd       side
 	tlo, thi float64
+	// logStep: Newton's method in (ln T, ln ρ) on ln p (a = p), nearly
+	// linear for gases (p = ρRTZ), from starts far off.
+	logStep bool
 }
 
 func (b *branch) keep(pr *fluid.Props) bool {
@@ -153,7 +156,8 @@ func (b *branch) keep(pr *fluid.Props) bool {
 // with the analytic Jacobian, from (T, ρ), with steps limited to a
 // quarter of T and half of ρ and halved back toward the last good point
 // where they leave the accepted region, meet an unstable state or leave
-// the branch br. It returns the state and whether it
+// the branch br, and stopped where they keep pressing beyond the
+// accepted temperatures. It returns the state and whether it
 // converged (to 1/100 of the floors, or to the floors where rounding
 // stalls the iteration).
 //
@@ -168,7 +172,7 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 		prev, havePrev = *start, true
 	}
 	w := watch{best: math.Inf(1)}
-	backs := 0
+	backs, pinned := 0, 0
 	lastStep := math.Inf(1)
 	for it := 0; it < 60; it++ {
 		pr, ok := props(f, T, rho)
@@ -188,20 +192,46 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 		}
 		a1, a2 := a.partials(&pr)
 		b1, b2 := b.partials(&pr)
+		logged := br.logStep && a == qP && pr.P > 0 && va > 0
+		if logged {
+			// In ln T and ln ρ, on ln p: the linear step below then
+			// gives d ln T and d ln ρ, turned back into dT and dρ.
+			ra = math.Log(pr.P / va)
+			a1, a2 = a1*T/pr.P, a2*rho/pr.P
+			b1, b2 = b1*T, b2*rho
+		}
 		det := a1*b2 - a2*b1
 		dT := (-ra*b2 + rb*a2) / det
 		dRho := (-rb*a1 + ra*b1) / det
 		if !isFinite(dT) || !isFinite(dRho) {
 			return pr, false
 		}
-		s := 1.0
-		if math.Abs(dT) > 0.25*T {
-			s = 0.25 * T / math.Abs(dT)
+		if logged {
+			dT = T * math.Expm1(max(min(dT, math.Ln2), -math.Ln2))
+			dRho = rho * math.Expm1(max(min(dRho, 2*math.Ln2), -2*math.Ln2))
 		}
-		if dRho < -0.5*rho {
-			s = min(s, 0.5*rho/-dRho)
-		} else if dRho > rho {
-			s = min(s, rho/dRho)
+		s := 1.0
+		if !logged {
+			// (Bounded in the logarithms above where logged.)
+			if math.Abs(dT) > 0.25*T {
+				s = 0.25 * T / math.Abs(dT)
+			}
+			if dRho < -0.5*rho {
+				s = min(s, 0.5*rho/-dRho)
+			} else if dRho > rho {
+				s = min(s, rho/dRho)
+			}
+		}
+		// Held at an end of the accepted temperatures and sent beyond it
+		// by more than 1e-6·T three times in a row (a solution at the
+		// end itself draws the steps to nothing): the solution lies
+		// outside them.
+		if T == lim.TCeil && dT > 1e-6*T || T == lim.TFloor && dT < -1e-6*T {
+			if pinned++; pinned >= 3 {
+				return pr, false
+			}
+		} else {
+			pinned = 0
 		}
 		prev, havePrev = pr, true
 		lastStep = s * max(math.Abs(dT)/T, math.Abs(dRho)/rho)

@@ -87,10 +87,18 @@ func (k *call) dtFluid(rho, T float64) (State, error) {
 	f := k.f
 	c := f.Critical()
 	if T >= k.sol.tt && T < c.T && !k.opt.AllowMetastable {
-		// Well inside the dome by the auxiliary densities: a mixture.
-		rl, err1 := f.AuxLiquidDensity(T)
-		rv, err2 := f.AuxVaporDensity(T)
-		if err1 == nil && err2 == nil && rho > 1.05*rv && rho < 0.95*rl {
+		// Inside the dome by the cached curve (outside its bounds), or
+		// where it ends, well inside by the auxiliary densities: a
+		// mixture.
+		inside := false
+		if e, ok := f.SaturationEstimateAtT(T); ok {
+			inside = placeTRho(&e, rho) == cacheInside
+		} else {
+			rl, err1 := f.AuxLiquidDensity(T)
+			rv, err2 := f.AuxVaporDensity(T)
+			inside = err1 == nil && err2 == nil && rho > 1.05*rv && rho < 0.95*rl
+		}
+		if inside {
 			s, err := k.satT(T)
 			if err != nil {
 				return State{}, err
@@ -171,14 +179,16 @@ func qualityOf(rho float64, s *fluid.Saturation) (float64, bool) {
 	return (1/rho - 1/rl) / (1/rv - 1/rl), true
 }
 
-// satT returns the saturation at T, warm-started from the guess.
+// satT returns the saturation at T, started from the cached curve, else
+// from the guess.
 func (k *call) satT(T float64) (fluid.Saturation, error) {
-	var s fluid.Saturation
-	var err error
-	if gT, rl, rv, ok := k.guessSat(); ok && math.Abs(gT-T) < 0.1*T {
-		s, err = k.f.SaturationAtTFrom(T, rl, rv)
-	} else {
-		s, err = k.f.SaturationAtT(T)
+	s, ok, err := k.satFromCacheT(T)
+	if !ok {
+		if gT, rl, rv, okg := k.guessSat(); okg && math.Abs(gT-T) < 0.1*T {
+			s, err = k.f.SaturationAtTFrom(T, rl, rv)
+		} else {
+			s, err = k.f.SaturationAtT(T)
+		}
 	}
 	if err != nil {
 		return s, k.rewrap(err)
@@ -193,10 +203,13 @@ func (k *call) satT(T float64) (fluid.Saturation, error) {
 // Along an isochore u rises with T, in one phase and across the
 // saturation dome alike, so DU solves u(T) = u along it: Newton's method
 // in T with cv in a single phase, and in the dome with the mixture's cv
-// (see State) over saturation states at each T, bracketed. Isochores
-// that cross the dome twice (water's liquid near 4 °C, whose saturated
-// density has a maximum) are handled, since the function of T is the
-// same. At the triple point u(T) rises at fixed T: where (ρ, u) lies among
+// (see State) over saturation states at each T, bracketed. Below Tc the
+// fluid's cached saturation curve first places u along the isochore
+// between its crossings with the saturated phases, and a mixture is
+// solved on it and polished by the equation's saturation (two of them,
+// typically). Isochores that cross the dome twice (water's liquid near
+// 4 °C, whose saturated density has a maximum) are handled, since the
+// function of T is the same. At the triple point u(T) rises at fixed T: where (ρ, u) lies among
 // the three-phase mixtures DU returns Phase Triple with the fractions
 // they fix (T and p those of the triple point), below them it follows the
 // isochore through the solid–vapour, solid–liquid and solid states (with
@@ -280,6 +293,11 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	}
 	want := k.opt.Phase
 	meta := k.opt.AllowMetastable && (want == Liquid || want == Vapor)
+	if !meta && !k.decided {
+		if st, err, ok := k.isochoreCached(rho, x); ok {
+			return st, err
+		}
+	}
 	T0 := 1.1 * c.T
 	g := k.opt.Guess
 	if g != nil && g.T > 0 {
@@ -543,7 +561,22 @@ func (k *call) pd(p, rho float64) (State, error) {
 	// The liquid-like side: T between the freezing temperature and the
 	// saturation (or critical) temperature, started at the top: the
 	// isochore meets the dome below the solution, not above it.
+	e, cached := f.SaturationEstimateAtP(p)
+	pl := cacheUndecided
+	if cached {
+		pl = placeTRho(&e, rho)
+	}
 	switch {
+	case pl == cacheLiquid:
+		// Denser than the saturated liquid by the cached curve: below
+		// its T, from it along the isobar by its expansivity.
+		thi, T0 = e.T+e.Err.T, e.T
+		if b := e.Liquid.Expansivity; b > 0 {
+			T0 = e.T - math.Log(rho/e.Liquid.Rho)/b
+		}
+	case pl == cacheVapor:
+		tlo = e.T - e.Err.T
+		T0 = max(e.T, p/(rho*f.GasConstant()*e.Vapor.Z))
 	case p < c.P && p >= k.sol.pt:
 		s, err := k.satP(p)
 		if err == nil {

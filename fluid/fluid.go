@@ -53,6 +53,11 @@ type Fluid struct {
 
 	ref        RefState
 	hOff, sOff float64 // added to h (and u, g) and s by the reference state
+
+	// satHolder holds the cached saturation curve (satcurve.go), built on
+	// first use; shared by the copies WithReference makes, nil for a
+	// fluid not made by the registry.
+	satHolder *satCurveHolder
 }
 
 // auxiliary holds a fluid's published auxiliary equations, in SI units.

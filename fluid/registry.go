@@ -15,6 +15,7 @@ var registry = sync.OnceValues(func() (map[string]*Fluid, []string) {
 	var names []string
 	for _, c := range constructors {
 		f := c()
+		f.satHolder = &satCurveHolder{}
 		names = append(names, f.name)
 		for _, n := range append([]string{f.name}, f.aliases...) {
 			m[normalize(n)] = f

@@ -1,0 +1,98 @@
+//go:build tripoint_evalcount
+
+package flash
+
+import (
+	"slices"
+	"testing"
+
+	"github.com/tripoint-thermo/tripoint/fluid"
+	"github.com/tripoint-thermo/tripoint/internal/evalcount"
+)
+
+// evalsOf returns the median and the largest number of residual
+// evaluations per call of flash fl over the states sts (as the
+// benchmarks call it, see cases).
+func evalsOf(f *fluid.Fluid, fl benchFlash, sts []State) (med, worst uint64) {
+	var ns []uint64
+	for _, c := range cases(fl, sts) {
+		n0 := evalcount.Load()
+		fl.fn(f, c.a, c.b, c.opt)
+		ns = append(ns, evalcount.Load()-n0)
+	}
+	if len(ns) == 0 {
+		return 0, 0
+	}
+	slices.Sort(ns)
+	return ns[len(ns)/2], ns[len(ns)-1]
+}
+
+// regionByName returns the benchmark region of that name.
+func regionByName(name string) benchRegion {
+	for _, rg := range benchRegions {
+		if rg.name == name {
+			return rg
+		}
+	}
+	panic("no benchmark region " + name)
+}
+
+// TestFlashEvals checks the speed goals of issue 4 in evaluations of the
+// fluid equation (only a build with -tags tripoint_evalcount counts
+// them), as medians over the benchmark grids (BenchmarkFlash) of every
+// fluid: PT at most 4 away from saturation and near it, 7 above Tc;
+// single-phase PH and PS at most 6; two-phase PH and PS, TQ and PQ at
+// most 6 (one saturation from the cached curve's start); warm-started PH
+// at most 3 in one phase; DU of a mixture at most 20 in every case; and
+// near saturation (within 0.5 % of the vapour pressure) no dearer than
+// the dearer of the liquid and the vapour away from it.
+func TestFlashEvals(t *testing.T) {
+	flashes := map[string]benchFlash{}
+	for _, fl := range benchFlashes {
+		flashes[fl.name] = fl
+	}
+	type goal struct {
+		flash, region string
+		median, worst uint64 // 0: not checked
+	}
+	goals := []goal{
+		{"PT", "liquid", 4, 0}, {"PT", "vapour", 4, 0}, {"PT", "nearSaturation", 4, 0},
+		{"PT", "supercritical", 7, 0},
+		{"PH", "liquid", 6, 0}, {"PH", "vapour", 6, 0}, {"PH", "supercritical", 6, 0},
+		{"PS", "liquid", 6, 0}, {"PS", "vapour", 6, 0}, {"PS", "supercritical", 6, 0},
+		{"PH", "twoPhase", 6, 0}, {"PS", "twoPhase", 6, 0},
+		{"TQ", "twoPhase", 6, 0}, {"PQ", "twoPhase", 6, 0},
+		{"PHwarm", "liquid", 3, 0}, {"PHwarm", "vapour", 3, 0}, {"PHwarm", "supercritical", 3, 0},
+		{"PHwarm", "nearSaturation", 3, 0},
+		{"DU", "twoPhase", 20, 20},
+	}
+	for _, f := range fluids(t) {
+		med := map[[2]string]uint64{}
+		for _, rg := range benchRegions {
+			sts := rg.states(f)
+			for _, fl := range benchFlashes {
+				if applies(fl.name, rg.name) {
+					m, _ := evalsOf(f, fl, sts)
+					med[[2]string{fl.name, rg.name}] = m
+				}
+			}
+		}
+		for _, g := range goals {
+			rg := regionByName(g.region)
+			m, w := evalsOf(f, flashes[g.flash], rg.states(f))
+			if g.median > 0 && m > g.median {
+				t.Errorf("%s %s %s: median %d evaluations, goal %d", f.Name(), g.flash, g.region, m, g.median)
+			}
+			if g.worst > 0 && w > g.worst {
+				t.Errorf("%s %s %s: up to %d evaluations, goal %d", f.Name(), g.flash, g.region, w, g.worst)
+			}
+		}
+		for _, fl := range []string{"PT", "PH", "PS", "DU", "DT", "PD"} {
+			near := med[[2]string{fl, "nearSaturation"}]
+			away := max(med[[2]string{fl, "liquid"}], med[[2]string{fl, "vapour"}])
+			if near > away {
+				t.Errorf("%s %s: median %d evaluations near saturation, %d away from it", f.Name(), fl, near, away)
+			}
+		}
+	}
+}
