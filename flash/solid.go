@@ -282,10 +282,7 @@ func (k *call) solidFloorT() float64 { return max(k.sol.s.Limits().TFloor, 1) }
 // solidProps returns the solid at (T, p) as a result of this flash.
 func (k *call) solidProps(T, p float64) (sublimation.Props, error) {
 	if p > k.sol.n.solidPMax()*(1+1e-12) {
-		if k.sol.anomalous() {
-			return sublimation.Props{}, k.beyondError(beyondIce)
-		}
-		return sublimation.Props{}, k.beyondError(beyondCO2)
+		return sublimation.Props{}, k.beyondError(k.beyondWhy(p))
 	}
 	sp, err := k.sol.s.Props(T, p)
 	if err != nil {

@@ -75,6 +75,16 @@ func (k *call) placePT(T, p float64) (placement, fluid.Root, string) {
 		return placeFluid, fluid.RootStable, ""
 	}
 	n := b.n
+	if Tm, _, ok := k.highIceT(p); ok {
+		// Water above the end of ice Ih's melting curve: the liquid
+		// above the melting curves of the high-pressure ices; beyond
+		// them ices outside the model (ptSolid says so, or with a
+		// metastable liquid requested PT returns it, flagged).
+		if T >= Tm*(1-1e-12) {
+			return placeFluid, fluid.RootStable, ""
+		}
+		return placeSolid, 0, ""
+	}
 	if !k.belowTripleT(T) {
 		if !n.meltRising || p <= n.pt*(1+tripleTolP) || T > n.meltEndT() {
 			return placeFluid, fluid.RootStable, ""
@@ -99,7 +109,7 @@ func (k *call) placePT(T, p float64) (placement, fluid.Root, string) {
 		case p < n.subPMin():
 			return placeBeyond, 0, belowFloor
 		case p > n.solidPMax():
-			return placeBeyond, 0, k.beyondWhy()
+			return placeBeyond, 0, k.beyondWhy(p)
 		}
 		return placeSolid, 0, ""
 	}
@@ -110,7 +120,7 @@ func (k *call) placePT(T, p float64) (placement, fluid.Root, string) {
 	case p <= hi:
 		return placeNear, fluid.RootVapor, ""
 	case p > n.solidPMax():
-		return placeBeyond, 0, k.beyondWhy()
+		return placeBeyond, 0, k.beyondWhy(p)
 	case n.meltRising || T < n.meltEndT():
 		return placeSolid, 0, ""
 	}
@@ -125,9 +135,14 @@ func (k *call) placePT(T, p float64) (placement, fluid.Root, string) {
 	return placeSolid, 0, ""
 }
 
-// beyondWhy explains a state above the solid model's pressure limit.
-func (k *call) beyondWhy() string {
+// beyondWhy explains a state at pressure p above the solid model's
+// pressure limit: for water the ice whose melting curve bounds the
+// liquid there (highIceWhy).
+func (k *call) beyondWhy(p float64) string {
 	if k.sol.anomalous() {
+		if _, _, ok := k.highIceT(p); ok {
+			return k.highIceWhy(p)
+		}
 		return beyondIce
 	}
 	return beyondCO2
@@ -269,16 +284,19 @@ func (k *call) isobarSolid(p float64, X quantity, x float64) (State, error) {
 	}
 	if p > n.solidPMax() {
 		// Above the end of the melting curve: the fluid above the
-		// temperature where it ends (CO2) or above the triple point
-		// (water); colder, solid phases outside the models.
-		Tlo := n.meltEndT()
-		if !n.meltRising {
-			Tlo = k.sol.tt
+		// temperature where it ends (CO2) or above the melting curves
+		// of the high-pressure ices (water); colder, solid phases
+		// outside the models, or on request the metastable liquid.
+		Tlo := k.freezeTHi(p)
+		if meta && k.opt.Phase == Liquid {
+			if pl, err := k.f.PropsTP(Tlo, p, fluid.RootLiquid, 0); err == nil {
+				return k.isobarSingle(p, X, x, &pl, anySide, lim.TFloor, lim.TCeil, true)
+			}
 		}
 		k.decide(Tlo)
 		st, err := k.isobaric(p, X, x)
 		if err == errSolid {
-			return State{}, k.beyondError(k.beyondWhy())
+			return State{}, k.beyondError(k.beyondWhy(p))
 		}
 		return st, err
 	}
@@ -437,7 +455,7 @@ func (k *call) solidAtTRho(rho, T, plo, phi float64) (State, error) {
 	if !ok {
 		g := k.sol.s.Derivs(T, phi)
 		if rho*g.GP > 1 && phi >= k.sol.n.solidPMax() {
-			return State{}, k.beyondError(k.beyondWhy())
+			return State{}, k.beyondError(k.beyondWhy(phi))
 		}
 		if T < k.sol.n.subTMin() {
 			return State{}, k.beyondError(belowFloor)
@@ -502,6 +520,9 @@ func (k *call) duSolid(rho, u float64) (State, error) {
 		}
 		return k.wantedState(k.tripleState(tp, xs, xl, xv))
 	case u < lo:
+		if st, err, done := k.duHighIce(tp, rho, u); done {
+			return st, err
+		}
 		a := n.subTMin()
 		if k.sol.anomalous() {
 			// Ice is modelled below the vapour floor, and is told from
@@ -546,6 +567,32 @@ func (k *call) duSolid(rho, u float64) (State, error) {
 	}
 	k.decide(tp.T)
 	return k.isochoric(rho, qU, u)
+}
+
+// duHighIce is DU below the triple point on a dense isochore of water
+// that is above the end of ice Ih's melting curve (208.566 MPa) at the
+// triple-point temperature: colder, it stays liquid until it meets the
+// melting curve of ice Ih or of a high-pressure ice. Where the isochore's
+// liquid with internal energy u lies above 208.566 MPa, that liquid is
+// the state (u rises with T along the isochore), placed against the
+// high-pressure ices by finish; otherwise done is false and the ice Ih
+// paths decide.
+func (k *call) duHighIce(tp *sublimation.ThreePhase, rho, u float64) (st State, err error, done bool) {
+	n := k.sol.n
+	if !k.sol.anomalous() || rho <= tp.Liquid.Rho {
+		return State{}, nil, false
+	}
+	top, ok := props(k.f, tp.T, rho)
+	if !ok || !(top.P > n.highPLo) {
+		return State{}, nil, false
+	}
+	pr, ok := newton1(k.f, qU, u, tp.T, rho, true, k.f.Limits().TFloor, tp.T)
+	if !ok || !(pr.P > n.highPLo) {
+		return State{}, nil, false
+	}
+	k.decide(0)
+	st, err = k.wanted(k.finish(&pr))
+	return st, err, true
 }
 
 // side returns a copy of k for a side evaluation, which must not change
@@ -680,14 +727,10 @@ func (k *call) pdSolid(p, rho float64) (State, error) {
 		}
 		vapour = true
 	case p > n.solidPMax():
-		Tlo := n.meltEndT()
-		if !n.meltRising {
-			Tlo = k.sol.tt
-		}
-		k.decide(Tlo)
+		k.decide(k.freezeTHi(p))
 		st, err := k.pd(p, rho)
 		if err != nil {
-			return State{}, k.beyondError(k.beyondWhy())
+			return State{}, k.beyondError(k.beyondWhy(p))
 		}
 		return st, nil
 	default:
@@ -798,7 +841,7 @@ func (k *call) solidIsotherm(T, s, plo, phi float64) (State, error) {
 	if !ok {
 		if g := k.sol.s.Derivs(T, phi); -g.GT > s {
 			if phi >= k.sol.n.solidPMax() {
-				return State{}, k.beyondError(k.beyondWhy())
+				return State{}, k.beyondError(k.beyondWhy(phi))
 			}
 		}
 		return State{}, k.fail(fluid.ErrOutOfRange, "no state of "+k.f.Name()+" with this temperature and entropy")

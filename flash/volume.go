@@ -26,8 +26,9 @@ import (
 // Special cases are:
 //
 //	rho or T NaN, ±Inf or ≤ 0: ErrInvalidInput
-//	a state with solid beyond the solid model (water above 208.566 MPa,
-//	  naming the other ices; CO2 above 800 MPa): ErrOutOfRange
+//	a state with solid beyond the solid model (water above 208.566 MPa
+//	  beyond the melting curves of ices III, V, VI and VII, naming the
+//	  ice; CO2 above 800 MPa): ErrOutOfRange
 //	below the triple-point temperature of a fluid without a solid model
 //	  (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
@@ -209,8 +210,9 @@ func (k *call) satT(T float64) (fluid.Saturation, error) {
 //	rho NaN, ±Inf or ≤ 0, u NaN or ±Inf: ErrInvalidInput
 //	u below the states of the isochore at the lowest modelled
 //	  temperature: ErrOutOfRange
-//	a state with solid beyond the solid model (water above 208.566 MPa,
-//	  naming the other ices; CO2 above 800 MPa): ErrOutOfRange
+//	a state with solid beyond the solid model (water above 208.566 MPa
+//	  beyond the melting curves of ices III, V, VI and VII, naming the
+//	  ice; CO2 above 800 MPa): ErrOutOfRange
 //	u below the fluid at the triple point of a fluid without a solid
 //	  model (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
@@ -568,6 +570,10 @@ func (k *call) pd(p, rho float64) (State, error) {
 	}
 	pr, ok := solve1(f, qP, p, min(max(T0, tlo), thi), rho, true, tlo, thi)
 	if !ok {
+		if k.sol.ok && !k.decided && Tf > lim.TFloor {
+			// The solution may lie where the fluid freezes: the solid paths decide.
+			return State{}, errSolid
+		}
 		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 	}
 	if pr.T < k.sol.tt {

@@ -49,6 +49,10 @@ type solidData struct {
 	meltPMax, meltTEnd float64
 	// meltBeyond explains why the melting curve stops at meltPMax.
 	meltBeyond string
+	// high are the melting curves of the other solid phases that bound
+	// the liquid beyond meltPMax (water's high-pressure ices), in order
+	// of temperature; nil where there are none.
+	high []highIce
 
 	endsOnce sync.Once // builds ends, an immutable cache
 	ends     *curveEnds
