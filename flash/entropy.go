@@ -109,32 +109,51 @@ func (k *call) ts(T, s, rhoLo, rhoHi float64) (State, error) {
 // entropy s in J/(kg·K): the end state of an isentropic compression or
 // expansion of known work, or of a nozzle.
 //
-// Along an isentrope dh = dp/ρ, so h(p) rises with p, through every
-// region, the solid ones included: HS solves h(PS(p, s)) = h by Newton's
-// method in ln p with slope p/ρ, bracketed by states, each PS
-// warm-started from the last; where the isentrope crosses a band without
-// a modelled state (water above 208.566 MPa below 273.16 K) a scan finds
-// the states on either side. On the triple line every three-phase
-// mixture has h − Tt·s = g_t, so (h, s) does not fix it: PS at the
-// triple-point pressure gives the state of least solid, flagged
-// Indeterminate (liquid–vapour, or solid–vapour below the liquid's s).
+// Every two-phase mixture at temperature T has h − T s = g(T), the Gibbs
+// energy of its phases, whatever its fractions: (h, s) lies on the tie
+// line of slope T between them. Tables of the saturation, sublimation
+// and melting curves, computed once per fluid, place (h, s) against these
+// tie lines and against the lines of the saturated phases without an
+// evaluation of the equation. A mixture is then solved directly — liquid
+// and vapour by Newton's method in (T, ln ρ′, ln ρ″) on equal pressure,
+// equal Gibbs energy and h − T s = g, a solid and its vapour or liquid in
+// (T, ln ρ) on equal Gibbs energy and h − T s = g — and a single phase
+// by Newton's method on (h, s) with the analytic Jacobian: the solid in
+// (T, p) on its Gibbs function, the fluid in (T, ln ρ) from the nearest
+// of a set of tabulated states. Each result is checked against the
+// curves (a single fluid phase against the vapour pressure at its T and
+// against the solid). Next to the critical point, and where the tables
+// cannot tell, bracketed iterations over the curves decide, and where
+// nothing else places the state a search along the isentrope (h rises
+// with p at fixed s, dh = dp/ρ) with PS at each pressure; every path
+// terminates. Typical costs: 3 to 6 evaluations of the fluid equation in
+// one phase, 6 in the liquid–vapour region, 3 for a solid–fluid mixture,
+// none for the solid (TestHSEvals).
+//
+// On the triple line every three-phase mixture has h − Tt·s = g_t, so
+// (h, s) does not fix it: PS at the triple-point pressure gives the state
+// of least solid, flagged Indeterminate (liquid–vapour, or solid–vapour
+// below the liquid's s). Within the backward-residual floors of a
+// saturated phase (a mixture with about 1e-9 of the other phase) HS may
+// return that phase instead of the mixture: both reproduce h and s.
 //
 // Special cases are:
 //
 //	h or s NaN or ±Inf: ErrInvalidInput
 //	no state with these h and s: ErrOutOfRange or ErrNoConvergence
+//	water beyond the melting curves of ices III, V, VI and VII, or with
+//	  ice Ih above 208.566 MPa: ErrOutOfRange naming the ice
 func HS(f *fluid.Fluid, h, s float64) (State, error) { return HSWith(f, h, s, Options{}) }
 
-// HSWith is HS with options, passed to each PS: a warm start, a
-// requested phase, metastable states.
+// HSWith is HS with options: a warm start from opt.Guess (a single-phase
+// fluid or liquid–vapour state), a requested phase, and metastable states
+// (by the search along the isentrope, whose PS honours the request).
 func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.HS", fluid.Input{Name: "h", Value: h, Unit: "J/kg"},
 		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 0); err != nil {
 		return State{}, err
 	}
-	c := f.Critical()
-	lim := f.Limits()
 	if k.hsTriple(h, s) {
 		// On the triple line: PS at the triple-point pressure returns
 		// its documented choice, flagged Indeterminate.
@@ -143,6 +162,31 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 			return st, nil
 		}
 	}
+	if k.metaFluid() {
+		// A metastable phase on request: the search, whose PS honours it.
+		return k.hsSearch(h, s)
+	}
+	st, err, done, beyond := k.hsDirect(h, s)
+	if done {
+		return st, err
+	}
+	st, err = k.hsSearch(h, s)
+	if err != nil && beyond != nil {
+		return State{}, beyond
+	}
+	return st, err
+}
+
+// hsSearch is HS by a search along the isentrope, where the direct
+// solves (hs.go) cannot place or solve the state: h(PS(p, s)) = h by
+// Newton's method in ln p with slope p/ρ (dh = dp/ρ at fixed s),
+// bracketed by states, each PS warm-started from the last; where the
+// isentrope crosses a band without a modelled state a scan finds the
+// states on either side. It always terminates (a budget of PS calls).
+func (k *call) hsSearch(h, s float64) (State, error) {
+	f := k.f
+	c := f.Critical()
+	lim := f.Limits()
 	p0 := c.P
 	if g := k.opt.Guess; g != nil && g.P > 0 {
 		p0 = g.P

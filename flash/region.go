@@ -50,12 +50,18 @@ const (
 // Between neighbouring points the curves are bounded by the points, since
 // each is monotone (Clausius–Clapeyron with nonzero Δh and Δv).
 type curveNodes struct {
-	tt, pt       float64                // the models' triple point, K and Pa
-	tp           sublimation.ThreePhase // in the fluid's default reference state
-	uIdeal       float64                // u of the ideal gas at tt (ρ → 0), default reference, J/kg
-	subT, subP   []float64              // ascending
-	meltT, meltP []float64              // meltP ascending from pt; meltT rising (CO2) or falling (water)
+	tt, pt       float64                   // the models' triple point, K and Pa
+	tp           sublimation.ThreePhase    // in the fluid's default reference state
+	uIdeal       float64                   // u of the ideal gas at tt (ρ → 0), default reference, J/kg
+	subT, subP   []float64                 // ascending
+	meltT, meltP []float64                 // meltP ascending from pt; meltT rising (CO2) or falling (water)
+	sub, melt    []sublimation.Coexistence // the curves at those points, default reference
 	meltRising   bool
+	// solidSMax is the largest entropy of the solid on its curves, and
+	// meltSMin, meltSMax the range of the entropies of both phases on the
+	// melting curve (HS: a solid state, or a solid–liquid mixture, has
+	// its entropy within them), default reference state.
+	solidSMax, meltSMin, meltSMax float64
 	// highPLo and highPHi are the pressure range of the melting curves
 	// of water's high-pressure ices (sublimation.Solid.HighIceRange),
 	// highTHi the temperature at their upper end; zero for dry ice.
@@ -121,6 +127,22 @@ func (n *curveNodes) build(name string) error {
 	if err != nil {
 		return err
 	}
+	n.sub, n.melt = sub, melt
+	n.solidSMax, n.meltSMin, n.meltSMax = math.Inf(-1), math.Inf(1), math.Inf(-1)
+	for _, cs := range [2][]sublimation.Coexistence{sub, melt} {
+		for _, c := range cs {
+			n.solidSMax = max(n.solidSMax, c.Solid.S)
+		}
+	}
+	for _, c := range melt {
+		n.meltSMin = min(n.meltSMin, c.Solid.S, c.Fluid.S)
+		n.meltSMax = max(n.meltSMax, c.Solid.S, c.Fluid.S)
+	}
+	// Between the nodes the curves may bulge past them a little.
+	sl := 1e-3 * (n.meltSMax - n.meltSMin)
+	n.solidSMax += sl
+	n.meltSMin -= sl
+	n.meltSMax += sl
 	for _, c := range sub {
 		n.subT = append(n.subT, c.T)
 		n.subP = append(n.subP, c.P)
@@ -320,10 +342,12 @@ func (k *call) byGibbs(pr *fluid.Props) verdict {
 // end of ice VII's curve (20.6 GPa) 715 K, where that curve ends (above
 // 715 K no ice bounds the liquid in the model: it is accepted as far as
 // the equation's range goes). ok is false where p is not above the end
-// of ice Ih's melting curve or the fluid has no high-pressure ices.
+// of ice Ih's melting curve (by more than 1e-9, the rounding of states
+// on that curve, which the ice Ih model places) or the fluid has no
+// high-pressure ices.
 func (k *call) highIceT(p float64) (T float64, ice string, ok bool) {
 	b := &k.sol
-	if !b.ok || b.n.highPLo == 0 || !(p > b.n.highPLo) {
+	if !b.ok || b.n.highPLo == 0 || !(p > b.n.highPLo*(1+1e-9)) {
 		return 0, "", false
 	}
 	n := b.n

@@ -44,8 +44,9 @@ var highIceCases = []highIceCase{
 // VII (IAPWS R14-08), and every flash reproduces it; beyond them PT and
 // every flash on the metastable liquid's quantities return ErrOutOfRange
 // naming the ice and saying it is outside the model, and with
-// AllowMetastable PT, PH, PS, DU, DT and TS return the liquid flagged
-// Metastable, as for supercooled water below ice Ih's melting curve.
+// AllowMetastable PT, PH, PS, DU, DT, HS and TS return the liquid
+// flagged Metastable, as for supercooled water below ice Ih's melting
+// curve.
 func TestHighPressureIces(t *testing.T) {
 	t.Parallel()
 	w := mustFluid(t, "water")
@@ -76,9 +77,6 @@ func TestHighPressureIces(t *testing.T) {
 		}
 		for _, fc := range flashCases {
 			a, b := quantityOf(&m, fc.a), quantityOf(&m, fc.b)
-			if fc.name == "HS" {
-				continue
-			}
 			_, err := fc.fn(w, a, b, Options{})
 			if fc.name == "TS" && err == nil {
 				// (T, s) of a liquid colder than 273.16 K is also that of
