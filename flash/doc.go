@@ -146,10 +146,15 @@
 // equal pressure and Gibbs energy at the rounding level of the equation
 // (see fluid.SaturationAtT, also for the last millikelvin below Tc), the
 // sublimation and melting curves equal Gibbs energy within a few
-// 1e-12·RT (package sublimation). PH into the solid–vapour region costs
-// 3 to 5 evaluations of the fluid equation (BenchmarkSolidRegions); HS
-// solves directly, placed by tables of the curves built once per fluid,
-// at medians of 3 to 8 evaluations in every region (TestHSEvals). The
+// 1e-12·RT (package sublimation). In the solid regions the node tables
+// of the curves place a state, and it is solved directly (a solid by
+// Newton's method on its Gibbs function, without evaluating the fluid
+// equation; a mixture in one Newton iteration with the curve, warm-started
+// from the nodes): every flash there costs 0 to 5 evaluations of the
+// fluid equation (TestSolidRegionEvals; PD of water more, as it looks for
+// a fluid state first). HS solves directly everywhere, placed by tables
+// of the saturation and solid curves built once per fluid, at medians of
+// 3 to 8 evaluations in every region (TestHSEvals). The
 // flashes use Newton's method with analytic Jacobians from starting
 // values out of the auxiliary equations, with bracketing fallbacks that
 // always terminate, and a warm start from Options.Guess; the common paths

@@ -41,7 +41,7 @@ func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
 		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	if k.sol.ok && !k.metaFluid() && (k.onTripleT(T) || k.belowTripleT(T)) {
+	if k.sol.ok && !k.metaFluid() && (k.onTripleT(T) || k.belowTripleT(T) || k.belowMeltS(T, s)) {
 		return k.done(k.tsSolid(T, s))
 	}
 	st, err := k.ts(T, s, 0, 0)
@@ -75,6 +75,9 @@ func (k *call) ts(T, s, rhoLo, rhoHi float64) (State, error) {
 			return State{}, k.solidError("below the triple point")
 		}
 	case T < c.T:
+		if st, err, done := k.tsByNodes(T, s, rhoLo, rhoHi); done {
+			return st, err
+		}
 		sat, err := k.satT(T)
 		if err != nil {
 			return State{}, err
@@ -92,17 +95,92 @@ func (k *call) ts(T, s, rhoLo, rhoHi float64) (State, error) {
 			return k.finishSat(&sat, q)
 		}
 	}
+	pr, ok := isotherm(f, T, s, rho0, lo, hi, rhoLo, rhoHi)
+	if !ok {
+		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isotherm did not converge")
+	}
+	return k.wanted(k.finish(&pr))
+}
+
+// isotherm solves s(T, ρ) = s along the isotherm T for ρ in [lo, hi],
+// narrowed to [rhoLo, rhoHi] where those are positive, from rho0
+// (solve1).
+func isotherm(f *fluid.Fluid, T, s, rho0, lo, hi, rhoLo, rhoHi float64) (fluid.Props, bool) {
 	if rhoLo > 0 {
 		lo = max(lo, rhoLo)
 	}
 	if rhoHi > 0 {
 		hi = min(hi, rhoHi)
 	}
-	pr, ok := solve1(f, qS, s, T, min(max(rho0, lo), hi), false, lo, hi)
-	if !ok {
-		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isotherm did not converge")
+	return solve1(f, qS, s, T, min(max(rho0, lo), hi), false, lo, hi)
+}
+
+// tsByNodes is the fluid path of TS below Tc placed by the saturation
+// nodes (satnodes.go) instead of the saturation at T: s beside the
+// interpolated saturated entropies at T by more than ten times their
+// measured error gives the single phase on that side, started next to
+// the interpolated saturated density and checked against the vapour
+// pressure at T (lvStable); between them the saturation at T, started
+// from the interpolated densities, gives the mixture. done is false
+// where the nodes do not decide (next to the saturated entropies, near
+// the critical point, an iteration that fails): the caller's path then
+// runs.
+func (k *call) tsByNodes(T, s, rhoLo, rhoHi float64) (State, error, bool) {
+	f := k.f
+	n := satNodesFor(f)
+	if n == nil || T < n.T[0] || k.fluidGuess() || k.guessIsSat() {
+		return State{}, nil, false
 	}
-	return k.wanted(k.finish(&pr))
+	i := n.bracketT(T)
+	if i+1 >= n.hermiteTop {
+		return State{}, nil, false
+	}
+	_, ds := f.ReferenceOffsets()
+	sd := s - ds
+	sl, _ := n.liquidLine(i, T)
+	sv := n.vapourS(i, T)
+	m := 10*n.sErr[i] + 1e-10*max(math.Abs(sd), f.GasConstant())
+	t := (T - n.T[i]) / (n.T[i+1] - n.T[i])
+	rl := lerp(n.liq[i].Rho, n.liq[i+1].Rho, t)
+	rv := nodeRhoV(n, i, t)
+	lim := f.Limits()
+	lo, hi, rho0 := 1e-12*f.Critical().Rho, lim.RhoCeil, 0.0
+	switch {
+	case sd < sl-m:
+		lo, rho0 = rl*(1-1e-6), rl*(1+1e-6)
+	case sd > sv+m:
+		hi, rho0 = rv*(1+1e-6), rv*(1-1e-6)
+	case sd > sl+m && sd < sv-m:
+		sat, err := f.SaturationAtTFrom(T, rl, rv)
+		if err != nil || !(s >= sat.Liquid.S && s <= sat.Vapor.S) {
+			return State{}, nil, false
+		}
+		st, err := k.finishSat(&sat, (s-sat.Liquid.S)/(sat.Vapor.S-sat.Liquid.S))
+		return st, err, true
+	default:
+		return State{}, nil, false
+	}
+	pr, ok := isotherm(f, T, s, rho0, lo, hi, rhoLo, rhoHi)
+	if !ok {
+		return State{}, nil, false
+	}
+	if stable, known := k.lvStable(n, &pr); !known || !stable {
+		return State{}, nil, false
+	}
+	st, err := k.wanted(k.finish(&pr))
+	return st, err, true
+}
+
+// guessIsSat reports whether the warm start is a liquid–vapour state.
+func (k *call) guessIsSat() bool {
+	_, _, _, ok := k.guessSat()
+	return ok
+}
+
+// nodeRhoV interpolates the saturated vapour's density of the nodes at
+// the fraction t of the interval from node i, in ln ρ.
+func nodeRhoV(n *satNodes, i int, t float64) float64 {
+	return math.Exp(lerp(math.Log(n.vap[i].Rho), math.Log(n.vap[i+1].Rho), t))
 }
 
 // HS returns the state of f at specific enthalpy h in J/kg and specific

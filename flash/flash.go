@@ -539,6 +539,9 @@ func (k *call) isobaricAll(p float64, X quantity, x float64) (State, error) {
 		}
 		return k.isobarSolid(p, X, x)
 	}
+	if st, err, done := k.isobarMelt(p, X, x); done {
+		return st, err
+	}
 	st, err := k.isobaric(p, X, x)
 	if err == errSolid && !k.decided {
 		return k.isobarSolid(p, X, x)

@@ -727,89 +727,9 @@ func (k *call) hsMixture(cs []sublimation.Coexistence, vapour bool, h, s float64
 }
 
 // hsCoexist solves the equilibrium of the solid and the fluid with the
-// mixture condition h − T s = g: Newton's method in (T, ln ρ) of the
-// fluid, with the solid at the fluid's pressure, on
-//
-//	F1 = (g_f(T, ρ) − g_s(T, p_f(T, ρ)))/(RT),  F2 = (h − T s − g_f)/(RT),
-//
-// with ∂g_f/∂T = −s_f + (∂p/∂T)_ρ/ρ, ∂g_f/∂ln ρ = (∂p/∂ρ)_T and
-// ∂g_s = v_s dp. It converges to 1e-13 in F1 (the curves of package
-// sublimation are solved to a few 1e-12) and 1/100 of the floor of h.
-// The mixture's T lies between the nodes' Ta and Tb: an iterate that
-// leaves that interval by its width, or 16 iterations, end the attempt.
+// mixture condition h − T s = g (coexistSolve).
 func (k *call) hsCoexist(h, s, T, rho float64, vapour bool, Ta, Tb float64) (sublimation.Coexistence, bool) {
-	f := k.f
-	sol := k.sol.s
-	R := f.GasConstant()
-	tolH := qH.tol(f, nil, h)
-	slim := sol.Limits()
-	maxStep := 1.0
-	if !vapour {
-		maxStep = 0.05
-	}
-	y := math.Log(rho)
-	var pT, py float64
-	good := false
-	var fp fluid.Props
-	w := watch{best: math.Inf(1)}
-	lastStep := math.Inf(1)
-	converged := false
-	lo, hi := min(Ta, Tb), max(Ta, Tb)
-	wide := hi - lo
-	for it := 0; it < 16; it++ {
-		if T < lo-wide || T > hi+wide {
-			return sublimation.Coexistence{}, false
-		}
-		var ok bool
-		fp, ok = propsIter(f, T, math.Exp(y))
-		if ok && (fp.P <= 0 || T < max(slim.TFloor, 1) || T > slim.TCeil) {
-			ok = false
-		}
-		if !ok {
-			if !good {
-				return sublimation.Coexistence{}, false
-			}
-			T, y = 0.5*(T+pT), 0.5*(y+py)
-			continue
-		}
-		rt := R * T
-		g := sol.Derivs(T, fp.P)
-		F1 := (fp.G - g.G) / rt
-		F2 := (h - T*s - fp.G) / rt
-		res := max(math.Abs(F1)/1e-13, math.Abs(F2)*rt/tolH)
-		if w.check(res, lastStep) {
-			if !(math.Abs(F1) <= 1e-12 && math.Abs(F2)*rt <= 100*tolH) {
-				return sublimation.Coexistence{}, false
-			}
-			converged = true
-			break
-		}
-		dT, dy, ok := solve2((-fp.S+fp.DpDT/fp.Rho-g.GT-g.GP*fp.DpDT)/rt, fp.DpDrho*(1-fp.Rho*g.GP)/rt,
-			(-s+fp.S-fp.DpDT/fp.Rho)/rt, -fp.DpDrho/rt, -F1, -F2)
-		if !ok {
-			return sublimation.Coexistence{}, false
-		}
-		sc := 1.0
-		if x := math.Abs(dT); x > 0.05*T {
-			sc = 0.05 * T / x
-		}
-		if x := math.Abs(dy); x > maxStep {
-			sc = min(sc, maxStep/x)
-		}
-		pT, py, good = T, y, true
-		lastStep = sc * max(math.Abs(dT)/T, math.Abs(dy))
-		T, y = T+sc*dT, y+sc*dy
-	}
-	if !converged {
-		return sublimation.Coexistence{}, false
-	}
-	sp, err := sol.Props(T, fp.P)
-	if err != nil {
-		return sublimation.Coexistence{}, false
-	}
-	sp.Flags |= Saturated
-	fp.Flags |= Saturated
-	return sublimation.Coexistence{T: T, P: fp.P, Solid: sp, Fluid: fp}, true
+	return k.coexistSolve(mixCond{a: h, b: s}, T, rho, vapour, Ta, Tb)
 }
 
 // hsCoexistBracket solves the solid–fluid mixture with h and s where
@@ -888,37 +808,63 @@ func (k *call) hsSolid(h, s, hd, sd float64) (st State, err error, ok bool, beyo
 	// ds = cp/T dT − vα dp.
 	v, al := 1/best.Rho, best.Expansivity
 	dT, dp, _ := solve2(best.Cp, v*(1-best.T*al), best.Cp/best.T, -v*al, hd-best.H, sd-best.S)
-	sp, good := k.solidNewtonHS(h, s, best.T+dT, best.P+dp)
+	sp, good := k.solidNewton(qH, h, qS, s, best.T+dT, best.P+dp)
 	if !good {
 		return State{}, nil, false, nil
 	}
-	switch pl, _, why := k.placePT(sp.T, sp.P); pl {
-	case placeSolid:
+	ok, why := k.solidAt(sp.T, sp.P)
+	switch {
+	case ok:
 		st, err := k.wantedState(solidState(&sp))
 		return st, err, true, nil
-	case placeNear:
-		if pr, err := k.f.PropsTP(sp.T, sp.P, fluid.RootStable, 0); err != nil || k.byGibbs(&pr) == vSolid {
-			st, err := k.wantedState(solidState(&sp))
-			return st, err, true, nil
-		}
-	case placeBeyond:
+	case why != "":
 		return State{}, nil, false, k.beyondError(why)
 	}
 	return State{}, nil, false, nil
 }
 
-// solidNewtonHS solves h(T, p) = h, s(T, p) = s for the solid by Newton's
-// method with the analytic Jacobian from its Gibbs derivatives,
+// solidAt reports whether the solid at (T, p) is a state of the model:
+// placed solid by the node tables (placePT), or between their bounds by
+// the Gibbs energies of the solid and the fluid (on a curve, within
+// gibbsTol, it coexists with the fluid and counts as solid). why explains
+// a (T, p) outside the models (above the solid's pressure limit, where
+// placePT's Solid means other ices, or below the vapour floor).
+func (k *call) solidAt(T, p float64) (ok bool, why string) {
+	if p > k.sol.n.solidPMax()*(1+1e-12) {
+		return false, k.beyondWhy(p)
+	}
+	pl, root, why := k.placePT(T, p)
+	switch pl {
+	case placeSolid:
+		return true, ""
+	case placeNear:
+		pr, err := k.f.PropsTP(T, p, root, 0)
+		return err != nil || k.byGibbs(&pr) != vFluid, ""
+	case placeBeyond:
+		return false, why
+	}
+	return false, ""
+}
+
+// solidNewton solves the solid's quantities a and b (solidQ: h, s, u,
+// or for ρ the specific volume) at the targets xa and xb by Newton's
+// method in (T, p) from (T, p), with the analytic derivatives of its
+// Gibbs function (no evaluation of the fluid equation): for h and s
 //
 //	∂h/∂T = −T g_TT,  ∂h/∂p = g_p − T g_Tp,  ∂s/∂T = −g_TT,  ∂s/∂p = −g_Tp,
 //
-// whose determinant g_TT g_p never vanishes (cp > 0, v > 0). T is kept
-// within the model's range and p positive, up to the model's limit.
-func (k *call) solidNewtonHS(h, s, T, p float64) (sublimation.Props, bool) {
+// whose determinant g_TT g_p never vanishes (cp > 0, v > 0); for v and u
+// ∂v/∂T = g_Tp, ∂v/∂p = g_pp, ∂u/∂T = −T g_TT − p g_Tp,
+// ∂u/∂p = −T g_Tp − p g_pp. T is kept within the model's range and p
+// positive, up to the model's limit; it converges to 1/100 of the
+// backward-residual floors (solidTol), or to the floors where rounding
+// stalls it.
+func (k *call) solidNewton(a quantity, xa float64, b quantity, xb float64, T, p float64) (sublimation.Props, bool) {
 	sol := k.sol.s
 	lim := sol.Limits()
 	tlo := k.solidFloorT()
-	tolH, tolS := qH.tol(k.f, nil, h), qS.tol(k.f, nil, s)
+	ta, tb := solidTarget(a, xa), solidTarget(b, xb)
+	tolA, tolB := solidTol(k.f, a, ta), solidTol(k.f, b, tb)
 	pmin := 1e-12 * k.sol.pt
 	T = min(max(T, tlo), lim.TCeil)
 	p = min(max(p, pmin), lim.PCeil)
@@ -926,16 +872,17 @@ func (k *call) solidNewtonHS(h, s, T, p float64) (sublimation.Props, bool) {
 	lastStep := math.Inf(1)
 	for it := 0; it < 60; it++ {
 		g := sol.Derivs(T, p)
-		rh := g.G - T*g.GT - h
-		rs := -g.GT - s
-		if w.check(max(math.Abs(rh)/tolH, math.Abs(rs)/tolS), lastStep) {
-			if math.Abs(rh) > 100*tolH || math.Abs(rs) > 100*tolS {
+		va, aT, ap := solidQ(a, &g, T, p)
+		vb, bT, bp := solidQ(b, &g, T, p)
+		ra, rb := va-ta, vb-tb
+		if w.check(max(math.Abs(ra)/tolA, math.Abs(rb)/tolB), lastStep) {
+			if math.Abs(ra) > 100*tolA || math.Abs(rb) > 100*tolB {
 				return sublimation.Props{}, false
 			}
 			sp, err := sol.Props(T, p)
 			return sp, err == nil
 		}
-		dT, dp, ok := solve2(-T*g.GTT, g.GP-T*g.GTP, -g.GTT, -g.GTP, -rh, -rs)
+		dT, dp, ok := solve2(aT, ap, bT, bp, -ra, -rb)
 		if !ok {
 			return sublimation.Props{}, false
 		}

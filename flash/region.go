@@ -62,6 +62,10 @@ type curveNodes struct {
 	// melting curve (HS: a solid state, or a solid–liquid mixture, has
 	// its entropy within them), default reference state.
 	solidSMax, meltSMin, meltSMax float64
+	// solidRhoMin is the smallest density of the solid on its curves,
+	// less 1e-3: no solid state of the model is less dense (the solid
+	// expands with T and contracts with p, and its curves bound it).
+	solidRhoMin float64
 	// highPLo and highPHi are the pressure range of the melting curves
 	// of water's high-pressure ices (sublimation.Solid.HighIceRange),
 	// highTHi the temperature at their upper end; zero for dry ice.
@@ -129,11 +133,14 @@ func (n *curveNodes) build(name string) error {
 	}
 	n.sub, n.melt = sub, melt
 	n.solidSMax, n.meltSMin, n.meltSMax = math.Inf(-1), math.Inf(1), math.Inf(-1)
+	n.solidRhoMin = math.Inf(1)
 	for _, cs := range [2][]sublimation.Coexistence{sub, melt} {
 		for _, c := range cs {
 			n.solidSMax = max(n.solidSMax, c.Solid.S)
+			n.solidRhoMin = min(n.solidRhoMin, c.Solid.Rho)
 		}
 	}
+	n.solidRhoMin *= 1 - 1e-3
 	for _, c := range melt {
 		n.meltSMin = min(n.meltSMin, c.Solid.S, c.Fluid.S)
 		n.meltSMax = max(n.meltSMax, c.Solid.S, c.Fluid.S)
@@ -187,14 +194,7 @@ func (n *curveNodes) subTBounds(p float64) (lo, hi float64) {
 
 // meltPBounds bounds the melting pressure at T within the curve's range.
 func (n *curveNodes) meltPBounds(T float64) (lo, hi float64) {
-	var i int
-	if n.meltRising {
-		i = bracketIndex(n.meltT, T)
-	} else {
-		// Descending temperatures: search the reversed order.
-		j := sort.Search(len(n.meltT), func(j int) bool { return n.meltT[j] < T })
-		i = min(max(j-1, 0), len(n.meltT)-2)
-	}
+	i := n.meltIndexT(T)
 	return n.meltP[i] * (1 - nodeSlack), n.meltP[i+1] * (1 + nodeSlack)
 }
 

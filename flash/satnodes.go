@@ -25,8 +25,8 @@ type satNodes struct {
 	liq, vap []fluid.Props
 	g        []float64 // h′ − T s′, J/kg
 	// dsl and dhl are ds′/dT and dh′/dT along the curve at each node
-	// but the last (the critical point, where they diverge).
-	dsl, dhl []float64
+	// but the last (the critical point, where they diverge), dsv ds″/dT.
+	dsl, dhl, dsv []float64
 	// hermiteTop is the first node above 0.995 Tc: below it liquidLine
 	// interpolates the saturated liquid to 1e-7 of |h′| + RT, except in
 	// the first intervals of water (4e-7); nearer the critical point the
@@ -34,8 +34,9 @@ type satNodes struct {
 	hermiteTop int
 	// hErr is, for each interval below hermiteTop, the error of
 	// liquidLine's h′ at the interval's midpoint against the equation's
-	// saturation there: the placement's margin next to the liquid line.
-	hErr []float64
+	// saturation there: the placement's margin next to the liquid line;
+	// sErr the larger error of the interpolated s′ and s″ (TS).
+	hErr, sErr []float64
 	// anchors are single-phase states that start the single-phase
 	// iteration of HS (anchorFor): saturated states away from the
 	// critical point, the fluid on the solid curves, and a grid of
@@ -122,6 +123,7 @@ func (n *satNodes) build(name string) error {
 		a := fluidAlong(l, gamma)
 		n.dsl = append(n.dsl, a.s)
 		n.dhl = append(n.dhl, a.u+l.P*a.v+gamma/l.Rho)
+		n.dsv = append(n.dsv, fluidAlong(&n.vap[i], gamma).s)
 	}
 	for n.hermiteTop = 0; n.hermiteTop < n.last() && n.T[n.hermiteTop] <= 0.995*c.T; n.hermiteTop++ {
 	}
@@ -131,8 +133,10 @@ func (n *satNodes) build(name string) error {
 		if err != nil {
 			return err
 		}
-		_, h := n.liquidLine(i, T)
+		sl, h := n.liquidLine(i, T)
+		sv := n.vapourS(i, T)
 		n.hErr = append(n.hErr, math.Abs(h-s.Liquid.H))
+		n.sErr = append(n.sErr, max(math.Abs(sl-s.Liquid.S), math.Abs(sv-s.Vapor.S)))
 	}
 	n.buildAnchors(f)
 	return nil
@@ -156,6 +160,13 @@ func (n *satNodes) liquidLine(i int, T float64) (s, h float64) {
 	s = hermite(t, n.liq[i].S, n.liq[i+1].S, n.dsl[i]*dT, n.dsl[i+1]*dT)
 	h = hermite(t, n.liq[i].H, n.liq[i+1].H, n.dhl[i]*dT, n.dhl[i+1]*dT)
 	return s, h
+}
+
+// vapourS returns the entropy of the saturated vapour at T in [T[i],
+// T[i+1]], i+1 < last, by cubic Hermite interpolation as liquidLine.
+func (n *satNodes) vapourS(i int, T float64) float64 {
+	dT := n.T[i+1] - n.T[i]
+	return hermite((T-n.T[i])/dT, n.vap[i].S, n.vap[i+1].S, n.dsv[i]*dT, n.dsv[i+1]*dT)
 }
 
 // liquidT returns the temperature in [T[i], T[i+1]] (i+1 < last) at

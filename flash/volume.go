@@ -261,6 +261,13 @@ func duWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 		if below {
 			return k.done(k.duSolid(rho, u))
 		}
+		if k.sol.n.meltRising && rho > tp.Liquid.Rho {
+			// Dense CO2: dry ice or dry ice with liquid, by the nodes of
+			// the melting curve, before the fluid path.
+			if st, ok := k.duDirect(rho, u, false); ok {
+				return k.wantedState(st)
+			}
+		}
 		// Elsewhere the fluid path first: its states are placed against
 		// the solid by finish (dense CO2 against the melting curve).
 	}
@@ -516,7 +523,7 @@ func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
 		fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"}, &opt, 3); err != nil {
 		return State{}, err
 	}
-	if k.sol.ok && !k.metaFluid() && (k.onTripleP(p) || k.belowTripleP(p) && !k.clearVapourP(p, rho)) {
+	if k.sol.ok && !k.metaFluid() && (k.onTripleP(p) || k.belowTripleP(p) && !k.clearVapourP(p, rho) || k.denseMelt(p, rho)) {
 		return k.done(k.pdSolid(p, rho))
 	}
 	st, err := k.pd(p, rho)
