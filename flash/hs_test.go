@@ -230,3 +230,51 @@ func TestHSAllocs(t *testing.T) {
 		}
 	}
 }
+
+// TestHSReferenceState runs HS on states of fluids on another reference
+// state (fluid.Fluid.WithReference): the node tables are in the default
+// one, and the inputs are shifted into it for the placement only.
+func TestHSReferenceState(t *testing.T) {
+	t.Parallel()
+	for _, name := range []string{"CO2", "R134a"} {
+		g, err := mustFluid(t, name).WithReference(fluid.RefIIR)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var sts []State
+		for _, c := range [][2]float64{{1e5, 300}, {5e6, 250}, {30e6, 400}} {
+			if st, err := PT(g, c[0], c[1]); err == nil {
+				sts = append(sts, st)
+			}
+		}
+		for _, q := range []float64{0.2, 0.9} {
+			st, err := TQ(g, 0.5*(g.Triple().T+g.Critical().T), q)
+			if err != nil {
+				t.Fatal(err)
+			}
+			sts = append(sts, st)
+		}
+		if name == "CO2" {
+			for _, c := range []func() (State, error){
+				func() (State, error) { return PT(g, 1e5, 180) },
+				func() (State, error) { return PQ(g, 1e5, 0.3) },
+				func() (State, error) {
+					m, err := mustSolid(t, g).MeltingTemperature(100e6)
+					if err != nil {
+						return State{}, err
+					}
+					return PH(g, 100e6, 0.5*(m.Solid.H+m.Fluid.H))
+				},
+			} {
+				st, err := c()
+				if err != nil {
+					t.Fatal(err)
+				}
+				sts = append(sts, st)
+			}
+		}
+		for i := range sts {
+			hsCheck(t, g, fmt.Sprintf("%v on IIR", sts[i].Phase), &sts[i], false)
+		}
+	}
+}
