@@ -149,14 +149,9 @@ func (s Solid) HighIceRange() (tLo, tHi, pLo, pHi float64) {
 // HighIceMeltingPressure allocates nothing unless it returns an error.
 func (s Solid) HighIceMeltingPressure(T float64) (IceMelting, error) {
 	const op = "sublimation.Solid.HighIceMeltingPressure"
-	in := fluid.Input{Name: "T", Value: T, Unit: "K"}
-	if err := s.highInput(op, in); err != nil {
-		return IceMelting{}, err
-	}
 	tLo, tHi, _, _ := s.HighIceRange()
-	if T < tLo || T > tHi {
-		return IceMelting{}, fluid.NewError(op, fluid.ErrOutOfRange,
-			"valid range "+fmtG(tLo)+" <= T <= "+fmtG(tHi)+" K (the melting curves of ice III, V, VI and VII, IAPWS R14-08)", in)
+	if err := s.highInput(op, fluid.Input{Name: "T", Value: T, Unit: "K"}, tLo, tHi); err != nil {
+		return IceMelting{}, err
 	}
 	for i := range s.d.high {
 		c := &s.d.high[i]
@@ -164,7 +159,7 @@ func (s Solid) HighIceMeltingPressure(T float64) (IceMelting, error) {
 			return IceMelting{T: T, P: c.highPressure(T), Ice: c.name}, nil
 		}
 	}
-	return IceMelting{}, fluid.NewError(op, fluid.ErrOutOfRange, "beyond the melting curves", in)
+	return IceMelting{}, s.highInput(op, fluid.Input{Name: "T", Value: T, Unit: "K"}, 0, 0)
 }
 
 // HighIceMeltingTemperature returns the melting curve of water's
@@ -183,14 +178,9 @@ func (s Solid) HighIceMeltingPressure(T float64) (IceMelting, error) {
 // HighIceMeltingTemperature allocates nothing unless it returns an error.
 func (s Solid) HighIceMeltingTemperature(p float64) (IceMelting, error) {
 	const op = "sublimation.Solid.HighIceMeltingTemperature"
-	in := fluid.Input{Name: "p", Value: p, Unit: "Pa"}
-	if err := s.highInput(op, in); err != nil {
-		return IceMelting{}, err
-	}
 	_, _, pLo, pHi := s.HighIceRange()
-	if p < pLo || p > pHi {
-		return IceMelting{}, fluid.NewError(op, fluid.ErrOutOfRange,
-			"valid range "+fmtG(pLo)+" <= p <= "+fmtG(pHi)+" Pa (the melting curves of ice III, V, VI and VII, IAPWS R14-08)", in)
+	if err := s.highInput(op, fluid.Input{Name: "p", Value: p, Unit: "Pa"}, pLo, pHi); err != nil {
+		return IceMelting{}, err
 	}
 	for i := range s.d.high {
 		c := &s.d.high[i]
@@ -198,17 +188,22 @@ func (s Solid) HighIceMeltingTemperature(p float64) (IceMelting, error) {
 			return IceMelting{T: c.highTemperature(p), P: p, Ice: c.name}, nil
 		}
 	}
-	return IceMelting{}, fluid.NewError(op, fluid.ErrOutOfRange, "beyond the melting curves", in)
+	return IceMelting{}, s.highInput(op, fluid.Input{Name: "p", Value: p, Unit: "Pa"}, 0, 0)
 }
 
-// highInput checks the input of the high-pressure ice curves.
-func (s Solid) highInput(op string, in fluid.Input) error {
+// highInput checks the input of the high-pressure ice curves: finite
+// and positive, a model with such ices, and within [lo, hi].
+func (s Solid) highInput(op string, in fluid.Input, lo, hi float64) error {
 	if !finite(in.Value) || in.Value <= 0 {
 		return fluid.NewError(op, fluid.ErrInvalidInput, in.Name+" must be finite and positive", in)
 	}
 	if len(s.d.high) == 0 {
 		return fluid.NewError(op, fluid.ErrUndefined,
 			"the "+s.d.name+" model has no high-pressure ices: it is the stable solid throughout its range", in)
+	}
+	if !(in.Value >= lo && in.Value <= hi) {
+		return fluid.NewError(op, fluid.ErrOutOfRange, "valid range "+fmtG(lo)+" <= "+in.Name+" <= "+fmtG(hi)+
+			" "+in.Unit+" (the melting curves of ice III, V, VI and VII, IAPWS R14-08)", in)
 	}
 	return nil
 }
