@@ -41,7 +41,7 @@ func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
 		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	if k.sol.ok && !k.metaFluid() && (k.onTripleT(T) || k.belowTripleT(T)) {
+	if k.sol.ok && !k.metaFluid() && (k.onTripleT(T) || k.belowTripleT(T) || k.belowMeltS(T, s)) {
 		return k.done(k.tsSolid(T, s))
 	}
 	st, err := k.ts(T, s, 0, 0)
@@ -75,6 +75,9 @@ func (k *call) ts(T, s, rhoLo, rhoHi float64) (State, error) {
 			return State{}, k.solidError("below the triple point")
 		}
 	case T < c.T:
+		if st, err, done := k.tsByNodes(T, s, rhoLo, rhoHi); done {
+			return st, err
+		}
 		sat, err := k.satT(T)
 		if err != nil {
 			return State{}, err
@@ -92,49 +95,143 @@ func (k *call) ts(T, s, rhoLo, rhoHi float64) (State, error) {
 			return k.finishSat(&sat, q)
 		}
 	}
-	if rhoLo > 0 {
-		lo = max(lo, rhoLo)
-	}
-	if rhoHi > 0 {
-		hi = min(hi, rhoHi)
-	}
-	pr, ok := solve1(f, qS, s, T, min(max(rho0, lo), hi), false, lo, hi)
+	pr, ok := isotherm(f, T, s, rho0, lo, hi, rhoLo, rhoHi)
 	if !ok {
 		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isotherm did not converge")
 	}
 	return k.wanted(k.finish(&pr))
 }
 
+// isotherm solves s(T, ρ) = s along the isotherm T for ρ in [lo, hi],
+// narrowed to [rhoLo, rhoHi] where those are positive, from rho0
+// (solve1).
+func isotherm(f *fluid.Fluid, T, s, rho0, lo, hi, rhoLo, rhoHi float64) (fluid.Props, bool) {
+	if rhoLo > 0 {
+		lo = max(lo, rhoLo)
+	}
+	if rhoHi > 0 {
+		hi = min(hi, rhoHi)
+	}
+	return solve1(f, qS, s, T, min(max(rho0, lo), hi), false, lo, hi)
+}
+
+// tsByNodes is the fluid path of TS below Tc placed by the saturation
+// nodes (satnodes.go) instead of the saturation at T: s beside the
+// interpolated saturated entropies at T by more than ten times their
+// measured error gives the single phase on that side, started next to
+// the interpolated saturated density and checked against the vapour
+// pressure at T (lvStable); between them the saturation at T, started
+// from the interpolated densities, gives the mixture. done is false
+// where the nodes do not decide (next to the saturated entropies, near
+// the critical point, an iteration that fails): the caller's path then
+// runs.
+func (k *call) tsByNodes(T, s, rhoLo, rhoHi float64) (State, error, bool) {
+	f := k.f
+	n := satNodesFor(f)
+	if n == nil || T < n.T[0] || k.fluidGuess() || k.guessIsSat() {
+		return State{}, nil, false
+	}
+	i := n.bracketT(T)
+	if i+1 >= n.hermiteTop {
+		return State{}, nil, false
+	}
+	_, ds := f.ReferenceOffsets()
+	sd := s - ds
+	sl, _ := n.liquidLine(i, T)
+	sv := n.vapourS(i, T)
+	m := 10*n.sErr[i] + 1e-10*max(math.Abs(sd), f.GasConstant())
+	t := (T - n.T[i]) / (n.T[i+1] - n.T[i])
+	rl := lerp(n.liq[i].Rho, n.liq[i+1].Rho, t)
+	rv := nodeRhoV(n, i, t)
+	lim := f.Limits()
+	lo, hi, rho0 := 1e-12*f.Critical().Rho, lim.RhoCeil, 0.0
+	switch {
+	case sd < sl-m:
+		lo, rho0 = rl*(1-1e-6), rl*(1+1e-6)
+	case sd > sv+m:
+		hi, rho0 = rv*(1+1e-6), rv*(1-1e-6)
+	case sd > sl+m && sd < sv-m:
+		sat, err := f.SaturationAtTFrom(T, rl, rv)
+		if err != nil || !(s >= sat.Liquid.S && s <= sat.Vapor.S) {
+			return State{}, nil, false
+		}
+		st, err := k.finishSat(&sat, (s-sat.Liquid.S)/(sat.Vapor.S-sat.Liquid.S))
+		return st, err, true
+	default:
+		return State{}, nil, false
+	}
+	pr, ok := isotherm(f, T, s, rho0, lo, hi, rhoLo, rhoHi)
+	if !ok {
+		return State{}, nil, false
+	}
+	if stable, known := k.lvStable(n, &pr); !known || !stable {
+		return State{}, nil, false
+	}
+	st, err := k.wanted(k.finish(&pr))
+	return st, err, true
+}
+
+// guessIsSat reports whether the warm start is a liquid–vapour state.
+func (k *call) guessIsSat() bool {
+	_, _, _, ok := k.guessSat()
+	return ok
+}
+
+// nodeRhoV interpolates the saturated vapour's density of the nodes at
+// the fraction t of the interval from node i, in ln ρ.
+func nodeRhoV(n *satNodes, i int, t float64) float64 {
+	return math.Exp(lerp(math.Log(n.vap[i].Rho), math.Log(n.vap[i+1].Rho), t))
+}
+
 // HS returns the state of f at specific enthalpy h in J/kg and specific
 // entropy s in J/(kg·K): the end state of an isentropic compression or
 // expansion of known work, or of a nozzle.
 //
-// Along an isentrope dh = dp/ρ, so h(p) rises with p, through every
-// region, the solid ones included: HS solves h(PS(p, s)) = h by Newton's
-// method in ln p with slope p/ρ, bracketed by states, each PS
-// warm-started from the last; where the isentrope crosses a band without
-// a modelled state (water above 208.566 MPa below 273.16 K) a scan finds
-// the states on either side. On the triple line every three-phase
-// mixture has h − Tt·s = g_t, so (h, s) does not fix it: PS at the
-// triple-point pressure gives the state of least solid, flagged
-// Indeterminate (liquid–vapour, or solid–vapour below the liquid's s).
+// Every two-phase mixture at temperature T has h − T s = g(T), the Gibbs
+// energy of its phases, whatever its fractions: (h, s) lies on the tie
+// line of slope T between them. Tables of the saturation, sublimation
+// and melting curves, computed once per fluid, place (h, s) against these
+// tie lines and against the lines of the saturated phases without an
+// evaluation of the equation. A mixture is then solved directly — liquid
+// and vapour by Newton's method in (T, ln ρ′, ln ρ″) on equal pressure,
+// equal Gibbs energy and h − T s = g, a solid and its vapour or liquid in
+// (T, ln ρ) on equal Gibbs energy and h − T s = g — and a single phase
+// by Newton's method on (h, s) with the analytic Jacobian: the solid in
+// (T, p) on its Gibbs function, the fluid in (T, ln ρ) from the nearest
+// of a set of tabulated states. Each result is checked against the
+// curves (a single fluid phase against the vapour pressure at its T and
+// against the solid). Next to the critical point, and where the tables
+// cannot tell, bracketed iterations over the curves decide, and where
+// nothing else places the state a search along the isentrope (h rises
+// with p at fixed s, dh = dp/ρ) with PS at each pressure; every path
+// terminates. Typical costs: 3 to 6 evaluations of the fluid equation in
+// one phase, 6 in the liquid–vapour region, 3 for a solid–fluid mixture,
+// none for the solid (TestHSEvals).
+//
+// On the triple line every three-phase mixture has h − Tt·s = g_t, so
+// (h, s) does not fix it: PS at the triple-point pressure gives the state
+// of least solid, flagged Indeterminate (liquid–vapour, or solid–vapour
+// below the liquid's s). Within the backward-residual floors of a
+// saturated phase (a mixture with about 1e-9 of the other phase) HS may
+// return that phase instead of the mixture: both reproduce h and s.
 //
 // Special cases are:
 //
 //	h or s NaN or ±Inf: ErrInvalidInput
 //	no state with these h and s: ErrOutOfRange or ErrNoConvergence
+//	water beyond the melting curves of ices III, V, VI and VII, or with
+//	  ice Ih above 208.566 MPa: ErrOutOfRange naming the ice
 func HS(f *fluid.Fluid, h, s float64) (State, error) { return HSWith(f, h, s, Options{}) }
 
-// HSWith is HS with options, passed to each PS: a warm start, a
-// requested phase, metastable states.
+// HSWith is HS with options: a warm start from opt.Guess (a single-phase
+// fluid or liquid–vapour state), a requested phase, and metastable states
+// (by the search along the isentrope, whose PS honours the request).
 func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.HS", fluid.Input{Name: "h", Value: h, Unit: "J/kg"},
 		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 0); err != nil {
 		return State{}, err
 	}
-	c := f.Critical()
-	lim := f.Limits()
 	if k.hsTriple(h, s) {
 		// On the triple line: PS at the triple-point pressure returns
 		// its documented choice, flagged Indeterminate.
@@ -143,6 +240,31 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 			return st, nil
 		}
 	}
+	if k.metaFluid() {
+		// A metastable phase on request: the search, whose PS honours it.
+		return k.hsSearch(h, s)
+	}
+	st, err, done, beyond := k.hsDirect(h, s)
+	if done {
+		return st, err
+	}
+	st, err = k.hsSearch(h, s)
+	if err != nil && beyond != nil {
+		return State{}, beyond
+	}
+	return st, err
+}
+
+// hsSearch is HS by a search along the isentrope, where the direct
+// solves (hs.go) cannot place or solve the state: h(PS(p, s)) = h by
+// Newton's method in ln p with slope p/ρ (dh = dp/ρ at fixed s),
+// bracketed by states, each PS warm-started from the last; where the
+// isentrope crosses a band without a modelled state a scan finds the
+// states on either side. It always terminates (a budget of PS calls).
+func (k *call) hsSearch(h, s float64) (State, error) {
+	f := k.f
+	c := f.Critical()
+	lim := f.Limits()
 	p0 := c.P
 	if g := k.opt.Guess; g != nil && g.P > 0 {
 		p0 = g.P

@@ -163,7 +163,10 @@ func (k *call) finish(pr *fluid.Props) (State, error) {
 		return State{}, k.fail(fluid.ErrOutOfRange, "the equation gives p = "+fmtG(pr.P)+
 			" Pa there: no fluid state")
 	}
-	var fl Flags
+	fl, err := k.highIce(pr)
+	if err != nil {
+		return State{}, err
+	}
 	if !k.decided {
 		v, why := k.versus(pr)
 		switch {
@@ -257,8 +260,9 @@ func (k *call) stableAtRho(pr *fluid.Props) (bool, Flags) {
 // Special cases are:
 //
 //	p or T NaN, ±Inf or ≤ 0: ErrInvalidInput
-//	water with ice Ih, or liquid below 273.16 K, above 208.566 MPa:
-//	  ErrOutOfRange naming the other ices
+//	water above 208.566 MPa beyond the melting curves of ices III, V,
+//	  VI and VII: ErrOutOfRange naming the ice (liquid with
+//	  Options{Phase: Liquid, AllowMetastable: true}, flagged Metastable)
 //	CO2 solid above 800 MPa (the dry-ice model's limit): ErrOutOfRange
 //	water below 200 K at a pressure below the sublimation pressure at
 //	  200 K (solid and vapour cannot be told apart): ErrOutOfRange
@@ -492,8 +496,9 @@ func (k *call) finishSat(s *fluid.Saturation, q float64) (State, error) {
 //
 //	p NaN, ±Inf or ≤ 0, h NaN or ±Inf: ErrInvalidInput
 //	h below the solid at its lowest modelled temperature: ErrOutOfRange
-//	a state with solid beyond the solid model (water above 208.566 MPa,
-//	  naming the other ices; CO2 above 800 MPa): ErrOutOfRange
+//	a state with solid beyond the solid model (water above 208.566 MPa
+//	  beyond the melting curves of ices III, V, VI and VII, naming the
+//	  ice; CO2 above 800 MPa): ErrOutOfRange
 //	h below the fluid at the triple point of a fluid without a solid
 //	  model (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
@@ -566,6 +571,9 @@ func (k *call) isobaricAll(p float64, X quantity, x float64) (State, error) {
 			}
 		}
 		return k.isobarSolid(p, X, x)
+	}
+	if st, err, done := k.isobarMelt(p, X, x); done {
+		return st, err
 	}
 	st, err := k.isobaric(p, X, x)
 	if err == errSolid && !k.decided {

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"math"
 	"sort"
+	"strconv"
 	"sync"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
@@ -49,13 +50,27 @@ const (
 // Between neighbouring points the curves are bounded by the points, since
 // each is monotone (Clausius–Clapeyron with nonzero Δh and Δv).
 type curveNodes struct {
-	tt, pt       float64                // the models' triple point, K and Pa
-	tp           sublimation.ThreePhase // in the fluid's default reference state
-	uIdeal       float64                // u of the ideal gas at tt (ρ → 0), default reference, J/kg
-	subT, subP   []float64              // ascending
-	meltT, meltP []float64              // meltP ascending from pt; meltT rising (CO2) or falling (water)
+	tt, pt       float64                   // the models' triple point, K and Pa
+	tp           sublimation.ThreePhase    // in the fluid's default reference state
+	uIdeal       float64                   // u of the ideal gas at tt (ρ → 0), default reference, J/kg
+	subT, subP   []float64                 // ascending
+	meltT, meltP []float64                 // meltP ascending from pt; meltT rising (CO2) or falling (water)
+	sub, melt    []sublimation.Coexistence // the curves at those points, default reference
 	meltRising   bool
-	err          error
+	// solidSMax is the largest entropy of the solid on its curves, and
+	// meltSMin, meltSMax the range of the entropies of both phases on the
+	// melting curve (HS: a solid state, or a solid–liquid mixture, has
+	// its entropy within them), default reference state.
+	solidSMax, meltSMin, meltSMax float64
+	// solidRhoMin is the smallest density of the solid on its curves,
+	// less 1e-3: no solid state of the model is less dense (the solid
+	// expands with T and contracts with p, and its curves bound it).
+	solidRhoMin float64
+	// highPLo and highPHi are the pressure range of the melting curves
+	// of water's high-pressure ices (sublimation.Solid.HighIceRange),
+	// highTHi the temperature at their upper end; zero for dry ice.
+	highPLo, highPHi, highTHi float64
+	err                       error
 }
 
 // subTMin and subPMin are the low end of the sublimation curve: the
@@ -116,6 +131,25 @@ func (n *curveNodes) build(name string) error {
 	if err != nil {
 		return err
 	}
+	n.sub, n.melt = sub, melt
+	n.solidSMax, n.meltSMin, n.meltSMax = math.Inf(-1), math.Inf(1), math.Inf(-1)
+	n.solidRhoMin = math.Inf(1)
+	for _, cs := range [2][]sublimation.Coexistence{sub, melt} {
+		for _, c := range cs {
+			n.solidSMax = max(n.solidSMax, c.Solid.S)
+			n.solidRhoMin = min(n.solidRhoMin, c.Solid.Rho)
+		}
+	}
+	n.solidRhoMin *= 1 - 1e-3
+	for _, c := range melt {
+		n.meltSMin = min(n.meltSMin, c.Solid.S, c.Fluid.S)
+		n.meltSMax = max(n.meltSMax, c.Solid.S, c.Fluid.S)
+	}
+	// Between the nodes the curves may bulge past them a little.
+	sl := 1e-3 * (n.meltSMax - n.meltSMin)
+	n.solidSMax += sl
+	n.meltSMin -= sl
+	n.meltSMax += sl
 	for _, c := range sub {
 		n.subT = append(n.subT, c.T)
 		n.subP = append(n.subP, c.P)
@@ -125,6 +159,7 @@ func (n *curveNodes) build(name string) error {
 		n.meltP = append(n.meltP, c.P)
 	}
 	n.meltRising = n.meltT[len(n.meltT)-1] > n.meltT[0]
+	_, n.highTHi, n.highPLo, n.highPHi = s.HighIceRange()
 	for i := 1; i < len(n.subT); i++ {
 		if !(n.subP[i] > n.subP[i-1] && n.subT[i] > n.subT[i-1]) {
 			return errors.New("flash: sublimation curve of " + name + " not monotone")
@@ -159,14 +194,7 @@ func (n *curveNodes) subTBounds(p float64) (lo, hi float64) {
 
 // meltPBounds bounds the melting pressure at T within the curve's range.
 func (n *curveNodes) meltPBounds(T float64) (lo, hi float64) {
-	var i int
-	if n.meltRising {
-		i = bracketIndex(n.meltT, T)
-	} else {
-		// Descending temperatures: search the reversed order.
-		j := sort.Search(len(n.meltT), func(j int) bool { return n.meltT[j] < T })
-		i = min(max(j-1, 0), len(n.meltT)-2)
-	}
+	i := n.meltIndexT(T)
 	return n.meltP[i] * (1 - nodeSlack), n.meltP[i+1] * (1 + nodeSlack)
 }
 
@@ -275,9 +303,10 @@ func (k *call) versus(pr *fluid.Props) (verdict, string) {
 		return k.byGibbs(pr), ""
 	}
 	// The liquid below the triple-point temperature: ice Ih above its
-	// melting curve only.
+	// melting curve only; above the end of that curve finish places the
+	// liquid against the high-pressure ices (highIce).
 	if !n.meltRising && p > n.solidPMax() {
-		return vBeyond, beyondIce
+		return vFluid, ""
 	}
 	if n.meltRising || T < n.meltEndT() {
 		return vSolid, ""
@@ -304,6 +333,63 @@ func (k *call) byGibbs(pr *fluid.Props) verdict {
 		return vSolid
 	}
 	return vFluid
+}
+
+// highIceT returns, for water at a pressure p above the end of ice Ih's
+// melting curve (208.566 MPa), the lowest temperature of liquid water at
+// p: the melting temperature of ice III, V, VI or VII there (IAPWS R14-08,
+// sublimation.Solid.HighIceMeltingTemperature), and the ice; above the
+// end of ice VII's curve (20.6 GPa) 715 K, where that curve ends (above
+// 715 K no ice bounds the liquid in the model: it is accepted as far as
+// the equation's range goes). ok is false where p is not above the end
+// of ice Ih's melting curve (by more than 1e-9, the rounding of states
+// on that curve, which the ice Ih model places) or the fluid has no
+// high-pressure ices.
+func (k *call) highIceT(p float64) (T float64, ice string, ok bool) {
+	b := &k.sol
+	if !b.ok || b.n.highPLo == 0 || !(p > b.n.highPLo*(1+1e-9)) {
+		return 0, "", false
+	}
+	n := b.n
+	if p >= n.highPHi {
+		return n.highTHi, "ice VII", true
+	}
+	m, err := b.s.HighIceMeltingTemperature(p)
+	if err != nil {
+		return n.highTHi, "ice VII", true
+	}
+	return m.T, m.Ice, true
+}
+
+// highIce places a single-phase fluid state of water above 208.566 MPa
+// against the melting curves of the high-pressure ices (highIceT), which
+// bound the model: a liquid colder than the curve is an error naming the
+// ice, or with a metastable fluid requested the liquid flagged
+// Metastable. No flash has another fluid solution there, as h, s, u and
+// p rise monotonically along the paths that lead across these curves.
+func (k *call) highIce(pr *fluid.Props) (Flags, error) {
+	Tm, _, ok := k.highIceT(pr.P)
+	if !ok || pr.T >= Tm*(1-1e-12) {
+		return 0, nil
+	}
+	if k.metaFluid() {
+		return Metastable, nil
+	}
+	return 0, k.beyondError(k.beyondWhy(pr.P))
+}
+
+// highIceWhy explains a state of water beyond the melting curves of the
+// high-pressure ices at p.
+func (k *call) highIceWhy(p float64) string {
+	Tm, ice, _ := k.highIceT(p)
+	if p >= k.sol.n.highPHi {
+		return "above " + fmtG(k.sol.n.highPHi) + " Pa, the end of the melting curve of ice VII (IAPWS R14-08), " +
+			"liquid water is accepted only above " + fmtG(k.sol.n.highTHi) + " K; colder, ice VII and other ices " +
+			"are stable, which are outside the model"
+	}
+	return "at " + strconv.FormatFloat(p, 'g', 6, 64) + " Pa liquid water freezes to " + ice + " below " + strconv.FormatFloat(Tm, 'f', 3, 64) +
+		" K (its melting curve, IAPWS R14-08); " + ice + " and the other ices that are stable beyond it are " +
+		"outside the model, which has ice Ih only, up to 208.566 MPa"
 }
 
 // Explanations of states outside the solid models.
@@ -368,7 +454,8 @@ func (k *call) freezeT(p float64) (T float64, floor bool) {
 		if n.meltRising {
 			return n.meltEndT(), false
 		}
-		return b.tt, false
+		Tm, _, _ := k.highIceT(p)
+		return Tm, false
 	}
 	lo, _ := n.meltTBounds(p)
 	return max(lo, lim.TFloor), false
@@ -400,7 +487,10 @@ func (k *call) freezeTHi(p float64) float64 {
 	switch {
 	case p > n.solidPMax() && n.meltRising:
 		return n.meltEndT()
-	case p > n.solidPMax() || p < n.pt:
+	case p > n.solidPMax():
+		Tm, _, _ := k.highIceT(p)
+		return Tm
+	case p < n.pt:
 		return b.tt
 	}
 	_, Th := n.meltTBounds(p)

@@ -2,6 +2,7 @@ package flash
 
 import (
 	"math"
+	"sort"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
 	"github.com/tripoint-thermo/tripoint/sublimation"
@@ -205,10 +206,19 @@ func (k *call) triple() (*sublimation.ThreePhase, error) {
 	return &b.tp, nil
 }
 
-// The curves at T or p, as errors of this flash.
+// The curves at T or p, as errors of this flash, started from the node
+// tables (the fluid's density interpolated between the neighbouring
+// nodes, in ln ρ; the temperature linearly in 1/T against ln p, as the
+// Clausius–Clapeyron equation nearly makes it).
 
 func (k *call) subAtT(T float64) (sublimation.Coexistence, error) {
-	c, err := k.sol.s.SublimationPressure(T)
+	n := k.sol.n
+	rho := 0.0
+	if T >= n.subT[0] && T <= n.subT[len(n.subT)-1] {
+		i := bracketIndex(n.subT, T)
+		rho = nodeRho(n.sub, i, (T-n.subT[i])/(n.subT[i+1]-n.subT[i]))
+	}
+	c, err := k.sol.s.SublimationPressureFrom(T, rho)
 	if err != nil {
 		return c, k.rewrap(err)
 	}
@@ -216,7 +226,10 @@ func (k *call) subAtT(T float64) (sublimation.Coexistence, error) {
 }
 
 func (k *call) subAtP(p float64) (sublimation.Coexistence, error) {
-	c, err := k.sol.s.SublimationTemperature(min(p, k.sol.n.pt))
+	n := k.sol.n
+	p = min(p, n.pt)
+	T, rho := n.curveStart(n.sub, n.subP, p)
+	c, err := k.sol.s.SublimationTemperatureFrom(p, T, rho)
 	if err != nil {
 		return c, k.rewrap(err)
 	}
@@ -224,7 +237,13 @@ func (k *call) subAtP(p float64) (sublimation.Coexistence, error) {
 }
 
 func (k *call) meltAtT(T float64) (sublimation.Coexistence, error) {
-	c, err := k.sol.s.MeltingPressure(T)
+	n := k.sol.n
+	rho := 0.0
+	if lo, hi := min(n.meltT[0], n.meltEndT()), max(n.meltT[0], n.meltEndT()); T >= lo && T <= hi {
+		i := n.meltIndexT(T)
+		rho = nodeRho(n.melt, i, (T-n.meltT[i])/(n.meltT[i+1]-n.meltT[i]))
+	}
+	c, err := k.sol.s.MeltingPressureFrom(T, rho)
 	if err != nil {
 		return c, k.rewrap(err)
 	}
@@ -232,13 +251,44 @@ func (k *call) meltAtT(T float64) (sublimation.Coexistence, error) {
 }
 
 func (k *call) meltAtP(p float64) (sublimation.Coexistence, error) {
-	p = max(p, k.sol.n.pt)
-	c, err := k.sol.s.MeltingTemperature(p)
+	n := k.sol.n
+	p = max(p, n.pt)
+	T, rho := n.curveStart(n.melt, n.meltP, p)
+	c, err := k.sol.s.MeltingTemperatureFrom(p, T, rho)
 	if err != nil {
 		return c, k.rewrap(err)
 	}
 	k.polish(&c, p)
 	return c, nil
+}
+
+// nodeRho interpolates the fluid's density of the curve nodes cs at the
+// fraction t of the interval from node i, in ln ρ.
+func nodeRho(cs []sublimation.Coexistence, i int, t float64) float64 {
+	return math.Exp(lerp(math.Log(cs[i].Fluid.Rho), math.Log(cs[i+1].Fluid.Rho), t))
+}
+
+// curveStart interpolates the temperature and the fluid's density of the
+// curve nodes cs at pressure p, ps their ascending pressures; zeros (a
+// cold start) outside them.
+func (n *curveNodes) curveStart(cs []sublimation.Coexistence, ps []float64, p float64) (T, rho float64) {
+	if !(p >= ps[0] && p <= ps[len(ps)-1]) {
+		return 0, 0
+	}
+	i := bracketIndex(ps, p)
+	a, b := &cs[i], &cs[i+1]
+	t := (math.Log(p) - math.Log(ps[i])) / (math.Log(ps[i+1]) - math.Log(ps[i]))
+	return 1 / lerp(1/a.T, 1/b.T, t), nodeRho(cs, i, t)
+}
+
+// meltIndexT returns i with the melting temperature at T between nodes
+// i and i+1 (meltT rising for CO2, falling for water).
+func (n *curveNodes) meltIndexT(T float64) int {
+	if n.meltRising {
+		return bracketIndex(n.meltT, T)
+	}
+	j := sort.Search(len(n.meltT), func(j int) bool { return n.meltT[j] < T })
+	return min(max(j-1, 0), len(n.meltT)-2)
 }
 
 // polish takes one more Newton step on the coexistence c at pressure p,
@@ -282,10 +332,7 @@ func (k *call) solidFloorT() float64 { return max(k.sol.s.Limits().TFloor, 1) }
 // solidProps returns the solid at (T, p) as a result of this flash.
 func (k *call) solidProps(T, p float64) (sublimation.Props, error) {
 	if p > k.sol.n.solidPMax()*(1+1e-12) {
-		if k.sol.anomalous() {
-			return sublimation.Props{}, k.beyondError(beyondIce)
-		}
-		return sublimation.Props{}, k.beyondError(beyondCO2)
+		return sublimation.Props{}, k.beyondError(k.beyondWhy(p))
 	}
 	sp, err := k.sol.s.Props(T, p)
 	if err != nil {

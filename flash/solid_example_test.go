@@ -84,3 +84,23 @@ func ExamplePQ_frost() {
 	// Output:
 	// SolidVapor at 264.78 K: ice 918 kg/m3, vapour 0.00246 kg/m3, heat of sublimation 2836.3 kJ/kg
 }
+
+// Water in a high-pressure cell of our own at 1 GPa: liquid at 310 K;
+// at 290 K ice VI is stable, which is outside the model (it has ice Ih
+// only), and PT says so; the metastable liquid is there on request.
+// Caution: high-pressure equipment needs design to local codes and
+// licensed practice.
+func ExamplePT_highPressureIce() {
+	water, _ := fluid.Lookup("water")
+	st, _ := flash.PT(water, 1e9, 310)
+	fmt.Printf("310 K: %v, %.1f kg/m3\n", st.Phase, st.Rho)
+	if _, err := flash.PT(water, 1e9, 290); err != nil {
+		fmt.Println("290 K:", err)
+	}
+	meta, _ := flash.PTWith(water, 1e9, 290, flash.Options{Phase: flash.Liquid, AllowMetastable: true})
+	fmt.Printf("290 K on request: %v, metastable %v\n", meta.Phase, meta.Flags&flash.Metastable != 0)
+	// Output:
+	// 310 K: Liquid, 1232.4 kg/m3
+	// 290 K: flash.PT: p = 1000000000 Pa, T = 290 K: out of range (outside the models of water: at 1e+09 Pa liquid water freezes to ice VI below 300.243 K (its melting curve, IAPWS R14-08); ice VI and the other ices that are stable beyond it are outside the model, which has ice Ih only, up to 208.566 MPa)
+	// 290 K on request: Liquid, metastable true
+}

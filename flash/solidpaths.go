@@ -75,6 +75,16 @@ func (k *call) placePT(T, p float64) (placement, fluid.Root, string) {
 		return placeFluid, fluid.RootStable, ""
 	}
 	n := b.n
+	if Tm, _, ok := k.highIceT(p); ok {
+		// Water above the end of ice Ih's melting curve: the liquid
+		// above the melting curves of the high-pressure ices; beyond
+		// them ices outside the model (ptSolid says so, or with a
+		// metastable liquid requested PT returns it, flagged).
+		if T >= Tm*(1-1e-12) {
+			return placeFluid, fluid.RootStable, ""
+		}
+		return placeSolid, 0, ""
+	}
 	if !k.belowTripleT(T) {
 		if !n.meltRising || p <= n.pt*(1+tripleTolP) || T > n.meltEndT() {
 			return placeFluid, fluid.RootStable, ""
@@ -99,7 +109,7 @@ func (k *call) placePT(T, p float64) (placement, fluid.Root, string) {
 		case p < n.subPMin():
 			return placeBeyond, 0, belowFloor
 		case p > n.solidPMax():
-			return placeBeyond, 0, k.beyondWhy()
+			return placeBeyond, 0, k.beyondWhy(p)
 		}
 		return placeSolid, 0, ""
 	}
@@ -110,7 +120,7 @@ func (k *call) placePT(T, p float64) (placement, fluid.Root, string) {
 	case p <= hi:
 		return placeNear, fluid.RootVapor, ""
 	case p > n.solidPMax():
-		return placeBeyond, 0, k.beyondWhy()
+		return placeBeyond, 0, k.beyondWhy(p)
 	case n.meltRising || T < n.meltEndT():
 		return placeSolid, 0, ""
 	}
@@ -125,9 +135,14 @@ func (k *call) placePT(T, p float64) (placement, fluid.Root, string) {
 	return placeSolid, 0, ""
 }
 
-// beyondWhy explains a state above the solid model's pressure limit.
-func (k *call) beyondWhy() string {
+// beyondWhy explains a state at pressure p above the solid model's
+// pressure limit: for water the ice whose melting curve bounds the
+// liquid there (highIceWhy).
+func (k *call) beyondWhy(p float64) string {
 	if k.sol.anomalous() {
+		if _, _, ok := k.highIceT(p); ok {
+			return k.highIceWhy(p)
+		}
 		return beyondIce
 	}
 	return beyondCO2
@@ -251,6 +266,10 @@ func (k *call) isobarSolid(p float64, X quantity, x float64) (State, error) {
 			k.decide(lim.TFloor)
 			return k.isobaric(p, X, x)
 		}
+		if Thi, ok := k.clearlySolid(n.sub, n.subP, p, X, x, meta); ok {
+			_, hi := n.subTBounds(p)
+			return k.solidIsobar(p, X, x, min(Thi, hi))
+		}
 		c, err := k.subAtP(p)
 		if err != nil {
 			return State{}, err
@@ -269,18 +288,25 @@ func (k *call) isobarSolid(p float64, X quantity, x float64) (State, error) {
 	}
 	if p > n.solidPMax() {
 		// Above the end of the melting curve: the fluid above the
-		// temperature where it ends (CO2) or above the triple point
-		// (water); colder, solid phases outside the models.
-		Tlo := n.meltEndT()
-		if !n.meltRising {
-			Tlo = k.sol.tt
+		// temperature where it ends (CO2) or above the melting curves
+		// of the high-pressure ices (water); colder, solid phases
+		// outside the models, or on request the metastable liquid.
+		Tlo := k.freezeTHi(p)
+		if meta && k.opt.Phase == Liquid {
+			if pl, err := k.f.PropsTP(Tlo, p, fluid.RootLiquid, 0); err == nil {
+				return k.isobarSingle(p, X, x, &pl, anySide, lim.TFloor, lim.TCeil, true)
+			}
 		}
 		k.decide(Tlo)
 		st, err := k.isobaric(p, X, x)
 		if err == errSolid {
-			return State{}, k.beyondError(k.beyondWhy())
+			return State{}, k.beyondError(k.beyondWhy(p))
 		}
 		return st, err
+	}
+	if Thi, ok := k.clearlySolid(n.melt, n.meltP, p, X, x, meta); ok {
+		_, hi := n.meltTBounds(p)
+		return k.solidIsobar(p, X, x, min(Thi, hi))
 	}
 	m, err := k.meltAtP(p)
 	if err != nil {
@@ -297,6 +323,59 @@ func (k *call) isobarSolid(p float64, X quantity, x float64) (State, error) {
 		return k.solidIsobar(p, X, x, m.T)
 	}
 	return k.wantedState(k.coexistState(&m, false, (x-xs)/(xl-xs)))
+}
+
+// isobarMelt sends PH (X = h) and PS (X = s) at a pressure of the
+// melting curve to the solid paths where x lies below, or near, the
+// liquid on the curve there, by the node tables (between neighbouring
+// nodes the liquid's X is bounded by theirs, widened by one step for
+// where it is not monotone along the curve): along the isobar X rises
+// with T, so such a state has solid or is a liquid next to the curve,
+// which isobarSolid places against the curve itself. done is false
+// elsewhere: the fluid path then runs first.
+func (k *call) isobarMelt(p float64, X quantity, x float64) (st State, err error, done bool) {
+	if !k.sol.ok || k.metaFluid() || k.decided {
+		return State{}, nil, false
+	}
+	n := k.sol.n
+	if !(p > n.pt*(1+tripleTolP) && p <= n.solidPMax()) {
+		return State{}, nil, false
+	}
+	i := bracketIndex(n.meltP, p)
+	a, b := X.of(&n.melt[i].Fluid), X.of(&n.melt[i+1].Fluid)
+	dh, ds := k.f.ReferenceOffsets()
+	off := dh
+	if X == qS {
+		off = ds
+	}
+	if x-off > max(a, b)+math.Abs(b-a)+1e-9*math.Abs(x) {
+		return State{}, nil, false
+	}
+	st, err = k.isobarSolid(p, X, x)
+	return st, err, true
+}
+
+// clearlySolid reports whether X = x at pressure p lies below the solid
+// on a curve there by the node tables cs (pressures ps): below both
+// neighbouring nodes' solid less one step (for where it is not monotone),
+// so that the state is solid, colder than where the curve crosses the
+// isobar (Thi: the larger of the nodes' temperatures), without solving
+// for the curve. It is false with a metastable fluid requested.
+func (k *call) clearlySolid(cs []sublimation.Coexistence, ps []float64, p float64, X quantity, x float64, meta bool) (Thi float64, ok bool) {
+	if meta || !(p >= ps[0] && p <= ps[len(ps)-1]) {
+		return 0, false
+	}
+	i := bracketIndex(ps, p)
+	a, b := solidOf(X, &cs[i].Solid), solidOf(X, &cs[i+1].Solid)
+	dh, ds := k.f.ReferenceOffsets()
+	off := dh
+	if X == qS {
+		off = ds
+	}
+	if x-off < min(a, b)-math.Abs(b-a)-1e-9*math.Abs(x) {
+		return max(cs[i].T, cs[i+1].T), true
+	}
+	return 0, false
 }
 
 // solidIsobar returns the solid at pressure p with X = x, below the
@@ -437,7 +516,7 @@ func (k *call) solidAtTRho(rho, T, plo, phi float64) (State, error) {
 	if !ok {
 		g := k.sol.s.Derivs(T, phi)
 		if rho*g.GP > 1 && phi >= k.sol.n.solidPMax() {
-			return State{}, k.beyondError(k.beyondWhy())
+			return State{}, k.beyondError(k.beyondWhy(phi))
 		}
 		if T < k.sol.n.subTMin() {
 			return State{}, k.beyondError(belowFloor)
@@ -502,6 +581,12 @@ func (k *call) duSolid(rho, u float64) (State, error) {
 		}
 		return k.wantedState(k.tripleState(tp, xs, xl, xv))
 	case u < lo:
+		if st, err, done := k.duHighIce(tp, rho, u); done {
+			return st, err
+		}
+		if st, ok := k.duDirect(rho, u, true); ok {
+			return k.wantedState(st)
+		}
 		a := n.subTMin()
 		if k.sol.anomalous() {
 			// Ice is modelled below the vapour floor, and is told from
@@ -531,6 +616,9 @@ func (k *call) duSolid(rho, u float64) (State, error) {
 	// Above the triple point: the fluid, and for dense CO2 first the
 	// melting curve.
 	if n.meltRising && 1/rho < 1/tp.Liquid.Rho {
+		if st, ok := k.duDirect(rho, u, false); ok {
+			return k.wantedState(st)
+		}
 		top := n.meltEndT()
 		c := k.side()
 		st, err := c.atTRho(rho, top, false)
@@ -546,6 +634,57 @@ func (k *call) duSolid(rho, u float64) (State, error) {
 	}
 	k.decide(tp.T)
 	return k.isochoric(rho, qU, u)
+}
+
+// duHighIce is DU below the triple point on a dense isochore of water
+// that is above the end of ice Ih's melting curve (208.566 MPa) at the
+// triple-point temperature: colder, it stays liquid until it meets the
+// melting curve of ice Ih or of a high-pressure ice. Where the isochore's
+// liquid with internal energy u lies above 208.566 MPa, that liquid is
+// the state (u rises with T along the isochore), placed against the
+// high-pressure ices by finish; otherwise done is false and the ice Ih
+// paths decide.
+func (k *call) duHighIce(tp *sublimation.ThreePhase, rho, u float64) (st State, err error, done bool) {
+	n := k.sol.n
+	if !k.sol.anomalous() || rho <= tp.Liquid.Rho {
+		return State{}, nil, false
+	}
+	top, ok := props(k.f, tp.T, rho)
+	if !ok || !(top.P > n.highPLo) {
+		return State{}, nil, false
+	}
+	pr, ok := newton1(k.f, qU, u, tp.T, rho, true, k.f.Limits().TFloor, tp.T)
+	if !ok || !(pr.P > n.highPLo) {
+		return State{}, nil, false
+	}
+	k.decide(0)
+	st, err = k.wanted(k.finish(&pr))
+	return st, err, true
+}
+
+// duDirect is DU by the direct solves of coexist.go, before the iteration
+// along the isochore: the solid (where ρ is dense enough for one), and
+// the mixtures of the sublimation curve (below the triple point) and of
+// the melting curve (CO2 above it, water below it). ok is false where
+// none is found.
+func (k *call) duDirect(rho, u float64, below bool) (State, bool) {
+	n := k.sol.n
+	if rho >= n.solidRhoMin {
+		if st, ok := k.duSolidPhase(rho, u); ok {
+			return st, true
+		}
+	}
+	if below {
+		if st, ok := k.duMixture(n.sub, true, rho, u); ok {
+			return st, true
+		}
+	}
+	if below == k.sol.anomalous() {
+		if st, ok := k.duMixture(n.melt, false, rho, u); ok {
+			return st, true
+		}
+	}
+	return State{}, false
 }
 
 // side returns a copy of k for a side evaluation, which must not change
@@ -648,6 +787,37 @@ func (k *call) isochoreRoot(rho, u, a, b float64, below bool) (State, error) {
 // ---------------------------------------------------------------------
 // PD
 
+// belowMeltS reports whether (T, s) of CO2 at a temperature of its
+// melting curve lies at or below the entropy of the liquid on the curve
+// there, by the node tables (below both neighbouring nodes' liquid, less
+// a step, for where it is not monotone), so that it has dry ice or is a
+// liquid next to the curve: tsSolid places it against the curve itself.
+func (k *call) belowMeltS(T, s float64) bool {
+	n := k.sol.n
+	if !k.mayMelt(T) {
+		return false
+	}
+	i := n.meltIndexT(T)
+	a, b := n.melt[i].Fluid.S, n.melt[i+1].Fluid.S
+	_, ds := k.f.ReferenceOffsets()
+	return s-ds <= max(a, b)+math.Abs(b-a)
+}
+
+// denseMelt reports whether (p, ρ) of CO2 at a pressure of its melting
+// curve is at least as dense as the liquid on the curve there, by the
+// node tables (the liquid's density rises along the curve), so that it
+// has dry ice: the solid paths place it against the curve (pdSolid). It
+// is false for water, whose ice is lighter than its liquid, and where
+// the fluid has no solid model.
+func (k *call) denseMelt(p, rho float64) bool {
+	n := k.sol.n
+	if !n.meltRising || !(p > n.pt*(1+tripleTolP) && p <= n.solidPMax()) {
+		return false
+	}
+	i := bracketIndex(n.meltP, p)
+	return rho >= n.melt[i].Fluid.Rho*(1-1e-9)
+}
+
 // pdSolid is PD where the state may have solid.
 func (k *call) pdSolid(p, rho float64) (State, error) {
 	if !k.sol.ok {
@@ -680,14 +850,10 @@ func (k *call) pdSolid(p, rho float64) (State, error) {
 		}
 		vapour = true
 	case p > n.solidPMax():
-		Tlo := n.meltEndT()
-		if !n.meltRising {
-			Tlo = k.sol.tt
-		}
-		k.decide(Tlo)
+		k.decide(k.freezeTHi(p))
 		st, err := k.pd(p, rho)
 		if err != nil {
-			return State{}, k.beyondError(k.beyondWhy())
+			return State{}, k.beyondError(k.beyondWhy(p))
 		}
 		return st, nil
 	default:
@@ -798,7 +964,7 @@ func (k *call) solidIsotherm(T, s, plo, phi float64) (State, error) {
 	if !ok {
 		if g := k.sol.s.Derivs(T, phi); -g.GT > s {
 			if phi >= k.sol.n.solidPMax() {
-				return State{}, k.beyondError(k.beyondWhy())
+				return State{}, k.beyondError(k.beyondWhy(phi))
 			}
 		}
 		return State{}, k.fail(fluid.ErrOutOfRange, "no state of "+k.f.Name()+" with this temperature and entropy")

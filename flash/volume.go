@@ -26,8 +26,9 @@ import (
 // Special cases are:
 //
 //	rho or T NaN, ±Inf or ≤ 0: ErrInvalidInput
-//	a state with solid beyond the solid model (water above 208.566 MPa,
-//	  naming the other ices; CO2 above 800 MPa): ErrOutOfRange
+//	a state with solid beyond the solid model (water above 208.566 MPa
+//	  beyond the melting curves of ices III, V, VI and VII, naming the
+//	  ice; CO2 above 800 MPa): ErrOutOfRange
 //	below the triple-point temperature of a fluid without a solid model
 //	  (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
@@ -222,8 +223,9 @@ func (k *call) satT(T float64) (fluid.Saturation, error) {
 //	rho NaN, ±Inf or ≤ 0, u NaN or ±Inf: ErrInvalidInput
 //	u below the states of the isochore at the lowest modelled
 //	  temperature: ErrOutOfRange
-//	a state with solid beyond the solid model (water above 208.566 MPa,
-//	  naming the other ices; CO2 above 800 MPa): ErrOutOfRange
+//	a state with solid beyond the solid model (water above 208.566 MPa
+//	  beyond the melting curves of ices III, V, VI and VII, naming the
+//	  ice; CO2 above 800 MPa): ErrOutOfRange
 //	u below the fluid at the triple point of a fluid without a solid
 //	  model (R-134a): ErrUndefined
 //	outside the equation's accepted range: ErrOutOfRange
@@ -271,6 +273,13 @@ func duWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 		}
 		if below {
 			return k.done(k.duSolid(rho, u))
+		}
+		if k.sol.n.meltRising && rho > tp.Liquid.Rho {
+			// Dense CO2: dry ice or dry ice with liquid, by the nodes of
+			// the melting curve, before the fluid path.
+			if st, ok := k.duDirect(rho, u, false); ok {
+				return k.wantedState(st)
+			}
 		}
 		// Elsewhere the fluid path first: its states are placed against
 		// the solid by finish (dense CO2 against the melting curve).
@@ -532,7 +541,7 @@ func PDWith(f *fluid.Fluid, p, rho float64, opt Options) (State, error) {
 		fluid.Input{Name: "rho", Value: rho, Unit: "kg/m3"}, &opt, 3); err != nil {
 		return State{}, err
 	}
-	if k.sol.ok && !k.metaFluid() && (k.onTripleP(p) || k.belowTripleP(p) && !k.clearVapourP(p, rho)) {
+	if k.sol.ok && !k.metaFluid() && (k.onTripleP(p) || k.belowTripleP(p) && !k.clearVapourP(p, rho) || k.denseMelt(p, rho)) {
 		return k.done(k.pdSolid(p, rho))
 	}
 	st, err := k.pd(p, rho)
@@ -601,6 +610,10 @@ func (k *call) pd(p, rho float64) (State, error) {
 	}
 	pr, ok := solve1(f, qP, p, min(max(T0, tlo), thi), rho, true, tlo, thi)
 	if !ok {
+		if k.sol.ok && !k.decided && Tf > lim.TFloor {
+			// The solution may lie where the fluid freezes: the solid paths decide.
+			return State{}, errSolid
+		}
 		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 	}
 	if pr.T < k.sol.tt {

@@ -36,6 +36,13 @@
 // 251.165 K: beyond it other ices are stable, which are outside the model,
 // and an error says so.
 //
+// Above 208.566 MPa the liquid is bounded by the melting curves of ices
+// III, V, VI and VII, given by the published equations of IAPWS R14-08
+// (HighIceMeltingPressure, HighIceMeltingTemperature, HighIceRange) from
+// 251.165 K to 715 K and 20.6 GPa. They serve as the boundary of the
+// model, not as Gibbs-energy equalities: no model of those ices exists
+// here.
+//
 // # Dry ice
 //
 // No published Gibbs-energy equation for solid CO2 whose check values we

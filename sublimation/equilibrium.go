@@ -84,6 +84,14 @@ func (s Solid) ends() *curveEnds {
 //	T NaN, ±Inf or ≤ 0: error wrapping fluid.ErrInvalidInput
 //	T below the vapour floor or above the triple point: fluid.ErrOutOfRange
 func (s Solid) SublimationPressure(T float64) (Coexistence, error) {
+	return s.SublimationPressureFrom(T, 0)
+}
+
+// SublimationPressureFrom is SublimationPressure started from the vapour
+// density rhoV in kg/m³ of a nearby point of the curve (a warm start; a
+// value that is not finite and positive starts cold). The result does not
+// depend on the start beyond the solver's tolerance.
+func (s Solid) SublimationPressureFrom(T, rhoV float64) (Coexistence, error) {
 	const op = "sublimation.Solid.SublimationPressure"
 	in, e, err := s.curveInput(op, "T", T, "K")
 	if err != nil {
@@ -93,7 +101,16 @@ func (s Solid) SublimationPressure(T float64) (Coexistence, error) {
 		return Coexistence{}, fluid.NewError(op, fluid.ErrOutOfRange,
 			"valid range "+fmtG(s.d.curveTMin)+" <= T <= "+fmtG(e.triple[0])+" K (vapour floor to triple point) for "+s.d.name, in)
 	}
-	return s.sublimationAtT(op, T, 0)
+	return s.sublimationAtT(op, T, warm(rhoV))
+}
+
+// warm returns x where it can start an iteration (finite and positive),
+// else 0 (a cold start).
+func warm(x float64) float64 {
+	if finite(x) && x > 0 {
+		return x
+	}
+	return 0
 }
 
 // SublimationTemperature returns the sublimation curve at pressure p in
@@ -106,6 +123,14 @@ func (s Solid) SublimationPressure(T float64) (Coexistence, error) {
 //	p NaN, ±Inf or ≤ 0: error wrapping fluid.ErrInvalidInput
 //	p outside the curve's range: fluid.ErrOutOfRange
 func (s Solid) SublimationTemperature(p float64) (Coexistence, error) {
+	return s.SublimationTemperatureFrom(p, 0, 0)
+}
+
+// SublimationTemperatureFrom is SublimationTemperature started from the
+// temperature T0 in K and vapour density rhoV in kg/m³ of a nearby point
+// of the curve (a warm start; values that are not finite and positive
+// start cold).
+func (s Solid) SublimationTemperatureFrom(p, T0, rhoV float64) (Coexistence, error) {
 	const op = "sublimation.Solid.SublimationTemperature"
 	in, e, err := s.curveInput(op, "p", p, "Pa")
 	if err != nil {
@@ -116,7 +141,10 @@ func (s Solid) SublimationTemperature(p float64) (Coexistence, error) {
 			"valid range "+fmtG(e.subPMin)+" <= p <= "+fmtG(e.triple[1])+" Pa (vapour floor "+
 				fmtG(s.d.curveTMin)+" K to triple point) for "+s.d.name, in)
 	}
-	return s.sublimationAtP(op, p, 0, 0)
+	if warm(T0) == 0 {
+		rhoV = 0
+	}
+	return s.sublimationAtP(op, p, warm(T0), warm(rhoV))
 }
 
 // MeltingPressure returns the melting curve at temperature T in K: the
@@ -131,6 +159,13 @@ func (s Solid) SublimationTemperature(p float64) (Coexistence, error) {
 //	T outside the curve's range: fluid.ErrOutOfRange (for water naming
 //	  the other ices)
 func (s Solid) MeltingPressure(T float64) (Coexistence, error) {
+	return s.MeltingPressureFrom(T, 0)
+}
+
+// MeltingPressureFrom is MeltingPressure started from the liquid density
+// rhoL in kg/m³ of a nearby point of the curve (a warm start; a value that
+// is not finite and positive starts cold).
+func (s Solid) MeltingPressureFrom(T, rhoL float64) (Coexistence, error) {
 	const op = "sublimation.Solid.MeltingPressure"
 	in, e, err := s.curveInput(op, "T", T, "K")
 	if err != nil {
@@ -144,7 +179,7 @@ func (s Solid) MeltingPressure(T float64) (Coexistence, error) {
 		return Coexistence{}, fluid.NewError(op, fluid.ErrOutOfRange,
 			"valid range "+fmtG(lo)+" <= T <= "+fmtG(hi)+" K for the melting of "+s.d.name+"; "+s.d.meltBeyond, in)
 	}
-	return s.meltingAtT(op, T, 0)
+	return s.meltingAtT(op, T, warm(rhoL))
 }
 
 // MeltingTemperature returns the melting curve at pressure p in Pa, from
@@ -157,16 +192,27 @@ func (s Solid) MeltingPressure(T float64) (Coexistence, error) {
 //	p outside the curve's range: fluid.ErrOutOfRange (for water naming
 //	  the other ices)
 func (s Solid) MeltingTemperature(p float64) (Coexistence, error) {
+	return s.MeltingTemperatureFrom(p, 0, 0)
+}
+
+// MeltingTemperatureFrom is MeltingTemperature started from the
+// temperature T0 in K and liquid density rhoL in kg/m³ of a nearby point
+// of the curve (a warm start; values that are not finite and positive
+// start cold).
+func (s Solid) MeltingTemperatureFrom(p, T0, rhoL float64) (Coexistence, error) {
 	const op = "sublimation.Solid.MeltingTemperature"
 	in, e, err := s.curveInput(op, "p", p, "Pa")
 	if err != nil {
 		return Coexistence{}, err
 	}
-	if p < e.triple[1]*(1-edgeSlack) || p > s.d.meltPMax {
+	if p < e.triple[1]*(1-edgeSlack) || p > s.d.meltPMax*(1+1e-12) { // the end to rounding
 		return Coexistence{}, fluid.NewError(op, fluid.ErrOutOfRange,
 			"valid range "+fmtG(e.triple[1])+" <= p <= "+fmtG(s.d.meltPMax)+" Pa for the melting of "+s.d.name+"; "+s.d.meltBeyond, in)
 	}
-	return s.meltingAtP(op, p, 0, 0)
+	if warm(T0) == 0 {
+		rhoL = 0
+	}
+	return s.meltingAtP(op, p, warm(T0), warm(rhoL))
 }
 
 // curveInput is the common start of the curve functions: the input x

@@ -45,3 +45,24 @@ func ExampleFor() {
 	// dry ice
 	// dry ice melts at 236.08 K under 100 MPa
 }
+
+// Liquid water under high pressure freezes to ices other than ice Ih. The
+// model has ice Ih only; the published melting curves of ices III, V, VI
+// and VII bound its liquid above 208.566 MPa.
+func ExampleSolid_HighIceMeltingTemperature() {
+	water, _ := fluid.Lookup("water")
+	ice, _ := sublimation.For(water)
+	for _, p := range []float64{300e6, 500e6, 1e9, 5e9} {
+		m, err := ice.HighIceMeltingTemperature(p)
+		if err != nil {
+			fmt.Println(err)
+			return
+		}
+		fmt.Printf("%.0f MPa: liquid water freezes to %s below %.2f K\n", p/1e6, m.Ice, m.T)
+	}
+	// Output:
+	// 300 MPa: liquid water freezes to ice III below 254.96 K
+	// 500 MPa: liquid water freezes to ice V below 266.22 K
+	// 1000 MPa: liquid water freezes to ice VI below 300.24 K
+	// 5000 MPa: liquid water freezes to ice VII below 511.30 K
+}

@@ -108,4 +108,5 @@ var iceData = &solidData{
 	meltTEnd:  251.165,
 	meltBeyond: "the ice Ih melting curve ends at the ice Ih-ice III-liquid triple point, 251.165 K and 208.566 MPa (IAPWS R14-08); " +
 		"beyond it liquid water coexists with ice III, ice V, ice VI and ice VII, which are outside the model",
+	high: waterHighIces,
 }

@@ -49,6 +49,10 @@ type solidData struct {
 	meltPMax, meltTEnd float64
 	// meltBeyond explains why the melting curve stops at meltPMax.
 	meltBeyond string
+	// high are the melting curves of the other solid phases that bound
+	// the liquid beyond meltPMax (water's high-pressure ices), in order
+	// of temperature; nil where there are none.
+	high []highIce
 
 	endsOnce sync.Once // builds ends, an immutable cache
 	ends     *curveEnds
@@ -170,7 +174,7 @@ func (s Solid) check(op string, T, p float64) error {
 			"valid range "+fmtG(l.TFloor)+" <= T <= "+fmtG(l.TCeil)+" K for "+s.d.name,
 			fluid.Input{Name: "T", Value: T, Unit: "K"}, fluid.Input{Name: "p", Value: p, Unit: "Pa"})
 	}
-	if p > l.PCeil {
+	if p > l.PCeil*(1+1e-12) { // to rounding: a curve solved at the limit
 		return fluid.NewError(op, fluid.ErrOutOfRange,
 			"p must not exceed "+fmtG(l.PCeil)+" Pa for "+s.d.name+": "+s.d.beyond,
 			fluid.Input{Name: "T", Value: T, Unit: "K"}, fluid.Input{Name: "p", Value: p, Unit: "Pa"})

@@ -274,9 +274,9 @@ type fluidCase struct {
 	name string
 	fn   func(f *fluid.Fluid) (flash.State, error)
 	// omit are the flashes whose inputs do not fix this state: (T, s)
-	// and (h, s) of liquid water below Tt, which the solid–vapour
-	// mixture at the same T (or h) and s shares (TS returns the state of
-	// lowest pressure, the mixture; HS does not converge there).
+	// of liquid water below Tt, which the solid–vapour mixture at the
+	// same T and s shares (TS returns the state of lowest pressure, the
+	// mixture).
 	omit [][2]Quantity
 }
 
@@ -294,7 +294,7 @@ var fluidCases = map[string][]fluidCase{
 	"water": {
 		{name: "liquid", fn: pt(20e6, 300)},
 		{name: "compressed liquid", fn: pt(50e6, 500)},
-		{name: "liquid below Tt", fn: pt(150e6, 265), omit: [][2]Quantity{{T, S}, {H, S}}},
+		{name: "liquid below Tt", fn: pt(150e6, 265), omit: [][2]Quantity{{T, S}}},
 		{name: "vapour", fn: pt(1e5, 500)},
 		{name: "supercritical", fn: pt(30e6, 700)},
 		{name: "near-critical", fn: pt(25e6, 660)},
@@ -341,22 +341,17 @@ var solidCases = map[string][]solidCase{
 		{"ice cold", flash.Solid, 220, 5e6, [][2]Quantity{{P, Rho}}},
 		{"ice-vapour", flash.SolidVapor, 250, 0.5, nil},
 		// (T, s) of ice and liquid is also that of ice and vapour, (p, ρ)
-		// that of hot liquid water; flash.DU fails there (an error that
-		// names the end of ice Ih at 208.566 MPa, at 92 MPa), a defect of
-		// the flash reported to its developer: the model-built state is
-		// checked with (ρ, u).
-		{"ice-liquid", flash.SolidLiquid, 265, 0.4, [][2]Quantity{{T, S}, {P, Rho}, {Rho, U}}},
+		// that of hot liquid water.
+		{"ice-liquid", flash.SolidLiquid, 265, 0.4, [][2]Quantity{{T, S}, {P, Rho}}},
 	},
 	"CO2": {
 		{"dry ice", flash.Solid, 200, 10e6, nil},
 		{"dry ice compressed", flash.Solid, 280, 500e6, nil},
 		{"dry ice-vapour", flash.SolidVapor, 190, 0.5, nil},
 		{"dry ice-liquid", flash.SolidLiquid, 250, 0.4, nil},
-		// flash.HS does not converge in this solid–dense-fluid state (a
-		// defect of the flash, reported in the closing note of the
-		// session that merged the solid regions): left out here until it
-		// is fixed; the other flashes check the state.
-		{"dry ice-dense fluid", flash.SolidLiquid, 310, 0.6, [][2]Quantity{{H, S}}},
+		// Solid with the dense fluid above Tc (flash.HS once did not
+		// converge here; flash.TestHSRegressions keeps the case).
+		{"dry ice-dense fluid", flash.SolidLiquid, 310, 0.6, nil},
 	},
 }
 
