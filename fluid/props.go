@@ -5,6 +5,7 @@ import (
 	"strconv"
 
 	"github.com/tripoint-thermo/tripoint/helmholtz"
+	"github.com/tripoint-thermo/tripoint/internal/evalcount"
 )
 
 // Props are the properties of a fluid at one (T, ρ), from its equation of
@@ -135,7 +136,8 @@ func (f *Fluid) Reducing() (Tc, rhoc float64) { return f.tc, f.rhoc }
 func (f *Fluid) props(T, rho float64) Props {
 	delta, tau := rho/f.rhoc, f.tc/T
 	i := f.ideal.Eval(delta, tau)
-	r := f.residual(delta, tau)
+	evalcount.Add()
+	r := f.resid.EvalSecond(delta, tau)
 	return f.fromDerivs(T, rho, delta, tau, &i, &r)
 }
 
@@ -177,8 +179,10 @@ func (f *Fluid) fromDerivs(T, rho, delta, tau float64, i, r *helmholtz.Derivs) P
 	p.W = math.Sqrt(math.Max(w2, 0))
 	p.KappaT = 1 / (rho * p.DpDrho)
 	p.Expansivity = p.KappaT * p.DpDT
-	// μ_JT = (T(∂v/∂T)_p − v)/cp
-	p.JouleThomson = (T*p.Expansivity - 1) / (rho * p.Cp)
+	// μ_JT = (T(∂v/∂T)_p − v)/cp = (Tβ − 1)/(ρ cp), in the form that
+	// stays finite where (∂p/∂ρ)_T = 0 (y = 0, on a spinodal), tending
+	// to 1/(∂p/∂T)_ρ there: Tβ = x/y and cp = (cv y + R x²)/y.
+	p.JouleThomson = (x - y) / (rho * (p.Cv*y + R*x*x))
 	return p
 }
 
