@@ -37,16 +37,22 @@ type Isotherm struct {
 }
 
 // Isotherm returns r on the isotherm τ > 0.
-func (r *Residual) Isotherm(tau float64) Isotherm {
-	it := Isotherm{r: r, tau: tau}
+func (r *Residual) Isotherm(tau float64) (it Isotherm) {
+	it.Set(r, tau)
+	return it
+}
+
+// Set makes it r on the isotherm τ > 0, in place (an Isotherm is large
+// enough for the copy to count).
+func (it *Isotherm) Set(r *Residual, tau float64) {
+	it.r, it.tau = r, tau
 	var tv [maxSlots]float64
 	r.tp.eval(&tv, tau)
-	for gi, g := range r.dgroups {
-		var ta float64
-		for _, p := range r.terms[g.lo:g.hi] {
-			ta += p.n * tv[p.k&(maxSlots-1)]
-		}
-		it.ta[gi&(maxDGroups-1)] = ta
+	// The terms come group by group: Σ n τ^t of each (d, c) group.
+	clear(it.ta[:len(r.dgroups)])
+	for i := range r.terms {
+		p := &r.terms[i]
+		it.ta[p.g&(maxDGroups-1)] += p.n * tv[p.k&(maxSlots-1)]
 	}
 	for i := range r.gauss {
 		g := &r.gauss[i]
@@ -57,7 +63,6 @@ func (r *Residual) Isotherm(tau float64) Isotherm {
 	for i := range r.na {
 		it.psiT[i&(maxNonAnalytic-1)] = elem.Exp(-r.na[i].D * y * y)
 	}
-	return it
 }
 
 // Tau returns the isotherm's τ.
@@ -79,14 +84,7 @@ func (it *Isotherm) Eval(delta float64) DeltaDerivs {
 	var a, d1, d2 float64
 	for ci := range r.cgroups {
 		cg := &r.cgroups[ci]
-		var s0, s1, s2 float64
-		for gi := cg.lo; gi < cg.hi; gi++ {
-			g := &r.dgroups[gi]
-			u := it.ta[gi&(maxDGroups-1)] * dv[g.k&(maxSlots-1)]
-			s0 += u
-			s1 += u * g.fd
-			s2 += u * g.w2
-		}
+		s0, s1, s2 := isoSums(it.ta[cg.lo:cg.hi], r.dgroups[cg.lo:cg.hi], &dv)
 		if cg.c == 0 {
 			a += s0
 			d1 += s1
@@ -121,6 +119,22 @@ func (it *Isotherm) Eval(delta float64) DeltaDerivs {
 		out.DD += ndd
 	}
 	return out
+}
+
+// isoSums returns the sums over the (d, c) groups gs with the
+// coefficients ta = Σ n τ^t of v = ta δ^d, v d and v d(d−1), with the
+// powers of δ from the slots dv. (A function of its own, so that its loop
+// keeps the sums in registers.)
+func isoSums(ta []float64, gs []dGroup, dv *[maxSlots]float64) (s0, s1, s2 float64) {
+	gs = gs[:len(ta)]
+	for i, a := range ta {
+		g := &gs[i]
+		u := a * dv[g.k&(maxSlots-1)]
+		s0 += u
+		s1 += u * g.fd
+		s2 += u * g.w2
+	}
+	return s0, s1, s2
 }
 
 // nonAnalytic returns the nonanalytic terms and their first two

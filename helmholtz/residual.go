@@ -104,14 +104,14 @@ type fullTerm struct {
 type dGroup struct {
 	fd, w2 float64 // d, d(d−1)
 	k      uint8   // slot of δ^d
-	lo, hi int32   // terms[lo:hi]
 }
 
-// polyTerm is the τ-dependent part of one Power or Exponential term:
-// n τ^t with the constants its τ-derivatives need.
+// polyTerm is the τ-dependent part n τ^t of one Power or Exponential
+// term, for an Isotherm.
 type polyTerm struct {
-	n, nt, ntt float64 // n, n·t, n·t(t−1)
-	k          uint8   // slot of τ^t
+	n float64
+	k uint8 // slot of τ^t
+	g uint8 // index of its (d, c) group
 }
 
 // gaussTerm is one Gaussian term with its slots and sharing.
@@ -224,13 +224,10 @@ func NewResidual(t ResidualTerms) (*Residual, error) {
 			t: p.t, tt1: p.t * (p.t - 1), td: p.t * fd, kt: uint8(tslot[i]), kd: uint8(dslot[2*i])})
 		cg.fhi++
 		if cg.hi == cg.lo || r.dgroups[cg.hi-1].fd != fd {
-			nt := int32(len(r.terms))
-			r.dgroups = append(r.dgroups, dGroup{fd: fd, w2: fd * (fd - 1),
-				k: uint8(dslot[2*i]), lo: nt, hi: nt})
+			r.dgroups = append(r.dgroups, dGroup{fd: fd, w2: fd * (fd - 1), k: uint8(dslot[2*i])})
 			cg.hi++
 		}
-		r.terms = append(r.terms, polyTerm{n: p.n, nt: p.n * p.t, ntt: p.n * p.t * (p.t - 1), k: uint8(tslot[i])})
-		r.dgroups[len(r.dgroups)-1].hi++
+		r.terms = append(r.terms, polyTerm{n: p.n, k: uint8(tslot[i]), g: uint8(len(r.dgroups) - 1)})
 	}
 	if len(r.dgroups) > maxDGroups {
 		return nil, fmt.Errorf("helmholtz: %d groups of terms of one (d, c), at most %d", len(r.dgroups), maxDGroups)
