@@ -52,12 +52,13 @@ const auxBand = 0.05
 // as converged: the residual of p is then at the level of its rounding.
 const rhoStepTol = 1e-14
 
-// residual evaluates αʳ and its derivatives. Every solver of package fluid
-// evaluates the equation through it, props or an isotherm, so that the
-// test-only evaluation counter sees each call.
+// residual evaluates αʳ and its derivatives but the third δ-derivative,
+// which only Derivs and the critical point of an equation need. Every
+// solver of package fluid evaluates the equation through it, props or an
+// isotherm, so that the test-only evaluation counter sees each call.
 func (f *Fluid) residual(delta, tau float64) helmholtz.Derivs {
 	evalcount.Add()
-	return f.resid.Eval(delta, tau)
+	return f.resid.EvalSecond(delta, tau)
 }
 
 // isotherm is αʳ of a fluid on one isotherm, for the solvers that

@@ -125,7 +125,8 @@ func (f *Fluid) checkProps(op string, p *Props) error {
 // offsets are not included.
 func (f *Fluid) Derivs(T, rho float64) (ideal, resid helmholtz.Derivs) {
 	delta, tau := rho/f.rhoc, f.tc/T
-	return f.ideal.Eval(delta, tau), f.residual(delta, tau)
+	evalcount.Add()
+	return f.ideal.Eval(delta, tau), f.resid.Eval(delta, tau)
 }
 
 // Reducing returns the reducing temperature Tc in K and density ρc in
@@ -136,8 +137,7 @@ func (f *Fluid) Reducing() (Tc, rhoc float64) { return f.tc, f.rhoc }
 func (f *Fluid) props(T, rho float64) Props {
 	delta, tau := rho/f.rhoc, f.tc/T
 	i := f.ideal.Eval(delta, tau)
-	evalcount.Add()
-	r := f.resid.EvalSecond(delta, tau)
+	r := f.residual(delta, tau)
 	return f.fromDerivs(T, rho, delta, tau, &i, &r)
 }
 
