@@ -39,8 +39,12 @@
 // of δ and τ come from short chains of multiplications (the non-integer
 // powers of τ from square roots), Gaussian and nonanalytic terms share
 // what they have in common, and the exponentials and logarithms are the
-// table-driven kernels of internal/elem. Accuracy: within 8 ulp of a plain
-// term-by-term evaluation, relative to the magnitude of the terms
+// table-driven kernels of internal/elem. For a fixed set of terms,
+// WriteKernel generates EvalSecond as Go source with every coefficient a
+// constant and every loop unrolled (a Kernel), which a Residual uses once
+// attached with WithKernel: package fluid does so for its equations.
+// Accuracy: within 8 ulp of a plain term-by-term evaluation, relative to
+// the magnitude of the terms weighted by their condition
 // (TestResidualReference; internal/termwise).
 //
 // References:

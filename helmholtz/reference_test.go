@@ -89,3 +89,29 @@ func TestIdealReference(t *testing.T) {
 	worst := termwise.CheckIdeal(t, "ideal", terms, id, termwise.Grid(1e-6, 10, 40, 0.1, 4, 80, false), refTol)
 	t.Logf("largest deviation %.3g of the terms' magnitude", worst)
 }
+
+// TestWithKernel: a kernel is used only with the terms it was generated
+// from (the fingerprint), and then EvalSecond is the kernel.
+func TestWithKernel(t *testing.T) {
+	t.Parallel()
+	r := helmholtz.MustNewResidual(refFamilies["power"])
+	other := helmholtz.MustNewResidual(refFamilies["exponential"])
+	marker := helmholtz.Derivs{A: 42}
+	k := func(delta, tau float64) helmholtz.Derivs { return marker }
+	if _, err := r.WithKernel(k, other.KernelFingerprint()); err == nil {
+		t.Error("WithKernel accepted a kernel of other terms")
+	}
+	rk, err := r.WithKernel(k, r.KernelFingerprint())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := rk.EvalSecond(0.5, 1.2); got != marker {
+		t.Errorf("EvalSecond with a kernel = %+v, want the kernel's %+v", got, marker)
+	}
+	if got, want := rk.Eval(0.5, 1.2), r.Eval(0.5, 1.2); got != want {
+		t.Errorf("Eval with a kernel = %+v, want the tables' %+v", got, want)
+	}
+	if r.EvalSecond(0.5, 1.2) == marker {
+		t.Error("WithKernel changed the Residual it was called on")
+	}
+}

@@ -128,24 +128,27 @@ type gaussTerm struct {
 // Residual is a compiled residual Helmholtz energy αʳ(δ, τ). It is
 // immutable and safe for concurrent use. The zero value is αʳ ≡ 0.
 //
-// Evaluation groups the polynomial and exponential terms by c and, within
-// that, by d, so that each exp(−δ^c) is computed once and the τ-sums of
-// one (d, c) are multiplied by δ^d once; takes the powers of δ and τ by
+// Evaluation groups the polynomial and exponential terms by c (and, on an
+// Isotherm, by d), so that each exp(−δ^c) is computed once; takes the
+// powers of δ and τ by
 // multiplication from short chains (the non-integer powers of τ from
 // square roots of τ, where the exponents share a power-of-two
 // denominator); shares the exponential of consecutive Gaussian terms with
 // the same parameters; and shares |δ−1|^(1/β), the distance function Δ and
 // its logarithm between nonanalytic terms of the same shape. The
-// exponentials and logarithms are those of internal/elem.
+// exponentials and logarithms are those of internal/elem. With a Kernel
+// (WithKernel), EvalSecond is the kernel.
 type Residual struct {
-	cgroups []cGroup
-	full    []fullTerm // by c, for Eval
-	dgroups []dGroup   // by c and d, for Isotherm
-	terms   []polyTerm
-	tp, dp  powPlan // powers of τ and of δ
-	gauss   []gaussTerm
-	na      []naTerm
-	// terms as given, for DeltaLimits.
+	cgroups  []cGroup
+	full     []fullTerm // by c, for Eval
+	dgroups  []dGroup   // by c and d, for Isotherm
+	terms    []polyTerm
+	tp, dp   powPlan // powers of τ and of δ of the power and exponential terms
+	gtp, gdp powPlan // powers of τ and of δ of the Gaussian terms
+	gauss    []gaussTerm
+	na       []naTerm
+	kernel   Kernel // nil: polyEval
+	// terms as given, for DeltaLimits and the kernel's fingerprint.
 	src ResidualTerms
 }
 
@@ -154,34 +157,23 @@ type Residual struct {
 // parameter, or if there are more terms than an Isotherm holds (64 groups
 // of one (d, c), 16 Gaussian and 8 nonanalytic terms).
 func NewResidual(t ResidualTerms) (*Residual, error) {
-	type raw struct {
-		n, t float64
-		d, c int
+	all, err := rawTerms(t)
+	if err != nil {
+		return nil, err
 	}
-	var all []raw
-	for _, p := range t.Power {
-		all = append(all, raw{p.N, p.T, p.D, 0})
-	}
-	for _, e := range t.Exponential {
-		if e.C < 1 {
-			return nil, fmt.Errorf("helmholtz: exponential term with c=%d < 1", e.C)
-		}
-		all = append(all, raw{e.N, e.T, e.D, e.C})
-	}
-	var texps, dexps []float64
+	texps, dexps := polyExponents(all)
 	for _, p := range all {
 		if !finite(p.n, p.t) || p.d < 1 || p.d > maxDeltaPow || p.c < 0 || p.c >= maxExpC {
 			return nil, fmt.Errorf("helmholtz: term n=%g d=%d t=%g c=%d out of range", p.n, p.d, p.t, p.c)
 		}
-		texps = append(texps, p.t)
-		dexps = append(dexps, float64(p.d), float64(p.c))
 	}
+	var gtexps, gdexps []float64
 	for _, g := range t.Gaussian {
 		if !finite(g.N, g.T, g.Alpha, g.Beta, g.Gamma, g.Epsilon) || g.D < 1 || g.D > maxDeltaPow {
 			return nil, fmt.Errorf("helmholtz: Gaussian term %+v out of range", g)
 		}
-		texps = append(texps, g.T)
-		dexps = append(dexps, float64(g.D))
+		gtexps = append(gtexps, g.T)
+		gdexps = append(gdexps, float64(g.D))
 	}
 	for _, q := range t.NonAnalytic {
 		if !finite(q.N, q.SmallA, q.SmallB, q.A, q.B, q.C, q.D, q.Beta) ||
@@ -194,23 +186,16 @@ func NewResidual(t ResidualTerms) (*Residual, error) {
 			len(t.Gaussian), len(t.NonAnalytic), maxGauss, maxNonAnalytic)
 	}
 	r := &Residual{}
-	var tslot, dslot []int
-	var ok1, ok2 bool
+	var tslot, dslot, gtslot, gdslot []int
+	var ok1, ok2, ok3, ok4 bool
 	r.tp, tslot, ok1 = newPowPlan(texps, 0)
 	r.dp, dslot, ok2 = newPowPlan(dexps, r.tp.next)
-	if !ok1 || !ok2 {
+	r.gtp, gtslot, ok3 = newPowPlan(gtexps, r.dp.next)
+	r.gdp, gdslot, ok4 = newPowPlan(gdexps, r.gtp.next)
+	if !ok1 || !ok2 || !ok3 || !ok4 {
 		return nil, errors.New("helmholtz: too many distinct powers of tau or delta")
 	}
-	// Group by c, then by d, keeping the published order within a group.
-	order := make([]int, len(all))
-	for i := range order {
-		order[i] = i
-	}
-	sort.SliceStable(order, func(a, b int) bool {
-		pa, pb := all[order[a]], all[order[b]]
-		return pa.c < pb.c || pa.c == pb.c && pa.d < pb.d
-	})
-	for _, i := range order {
+	for _, i := range termOrder(all) {
 		p := all[i]
 		if n := len(r.cgroups); n == 0 || r.cgroups[n-1].c != p.c {
 			nd := int32(len(r.dgroups))
@@ -233,8 +218,7 @@ func NewResidual(t ResidualTerms) (*Residual, error) {
 		return nil, fmt.Errorf("helmholtz: %d groups of terms of one (d, c), at most %d", len(r.dgroups), maxDGroups)
 	}
 	for i, g := range t.Gaussian {
-		gt := gaussTerm{Gaussian: g, fd: float64(g.D),
-			kd: uint8(dslot[2*len(all)+i]), kt: uint8(tslot[len(all)+i])}
+		gt := gaussTerm{Gaussian: g, fd: float64(g.D), kd: uint8(gdslot[i]), kt: uint8(gtslot[i])}
 		if i > 0 {
 			p := t.Gaussian[i-1]
 			gt.sameDelta = g.Alpha == p.Alpha && g.Epsilon == p.Epsilon
@@ -250,6 +234,52 @@ func NewResidual(t ResidualTerms) (*Residual, error) {
 		NonAnalytic: slices.Clone(t.NonAnalytic),
 	}
 	return r, nil
+}
+
+// rawTerm is a power (c = 0) or exponential term.
+type rawTerm struct {
+	n, t float64
+	d, c int
+}
+
+// rawTerms returns the power and exponential terms of t in the order
+// given.
+func rawTerms(t ResidualTerms) ([]rawTerm, error) {
+	var all []rawTerm
+	for _, p := range t.Power {
+		all = append(all, rawTerm{p.N, p.T, p.D, 0})
+	}
+	for _, e := range t.Exponential {
+		if e.C < 1 {
+			return nil, fmt.Errorf("helmholtz: exponential term with c=%d < 1", e.C)
+		}
+		all = append(all, rawTerm{e.N, e.T, e.D, e.C})
+	}
+	return all, nil
+}
+
+// polyExponents returns the exponents of τ of the terms, and of δ: d and
+// c of each term in turn.
+func polyExponents(all []rawTerm) (texps, dexps []float64) {
+	for _, p := range all {
+		texps = append(texps, p.t)
+		dexps = append(dexps, float64(p.d), float64(p.c))
+	}
+	return texps, dexps
+}
+
+// termOrder returns the indices of the terms grouped by c, then by d,
+// keeping the published order within a group.
+func termOrder(all []rawTerm) []int {
+	order := make([]int, len(all))
+	for i := range order {
+		order[i] = i
+	}
+	sort.SliceStable(order, func(a, b int) bool {
+		pa, pb := all[order[a]], all[order[b]]
+		return pa.c < pb.c || pa.c == pb.c && pa.d < pb.d
+	})
+	return order
 }
 
 // MustNewResidual is like NewResidual but panics on error. It is meant for
@@ -268,10 +298,9 @@ func (r *Residual) HasNonAnalytic() bool { return len(r.na) > 0 }
 
 // Eval returns αʳ and its derivatives at (δ, τ), for δ > 0 and τ > 0.
 //
-// Accuracy: each term is evaluated to a few ulp of its magnitude (the
-// sums of terms of both signs lose what cancellation loses); Eval agrees
-// with a plain term-by-term evaluation with math.Pow and math.Exp to
-// within 1e-13 of the sum of the terms' magnitudes (TestResidualReference).
+// Accuracy: within 8 ulp of a plain term-by-term evaluation with
+// math.Pow and math.Exp, relative to the magnitude of the terms weighted
+// by their condition (TestResidualReference).
 //
 // Special cases are:
 //
@@ -283,27 +312,47 @@ func (r *Residual) HasNonAnalytic() bool { return len(r.na) > 0 }
 func (r *Residual) Eval(delta, tau float64) Derivs { return r.eval(delta, tau, true) }
 
 // EvalSecond is Eval without the third δ-derivative (DDD is zero), which
-// the properties at (T, ρ) do not need: every other field is the same as
-// Eval's, bit for bit.
-func (r *Residual) EvalSecond(delta, tau float64) Derivs { return r.eval(delta, tau, false) }
+// the properties at (T, ρ) do not need; with a kernel (WithKernel) it is
+// the kernel. Its accuracy is Eval's.
+func (r *Residual) EvalSecond(delta, tau float64) Derivs {
+	if r.kernel != nil {
+		return r.kernel(delta, tau)
+	}
+	return r.eval(delta, tau, false)
+}
 
+// eval sums the families of terms from the tables.
 func (r *Residual) eval(delta, tau float64, third bool) Derivs {
+	out := r.polyEval(delta, tau, third)
+	if len(r.gauss) > 0 {
+		out = out.Add(r.gaussEval(delta, tau, third))
+	}
+	if len(r.na) > 0 {
+		out = out.Add(r.evalNonAnalytic(delta, tau, third))
+	}
+	return out
+}
+
+// polyEval returns the power and exponential terms and their derivatives
+// (DDD when third is set).
+//
+// A term v = n δ^d τ^t exp(−δ^c) has, with e = c δ^c and y = d − e,
+//
+//	δ v_δ/v = y,  δ² v_δδ/v = y(y−1) − ce,
+//	δ³ v_δδδ/v = y(y−1)(y−2) − 3ce(y−1) − c²e,
+//
+// which expand in powers of e with the falling factorials d, d(d−1) and
+// d(d−1)(d−2) (expGroup and below): a group of one c needs only the sums
+// of v times these, v t, v t(t−1) and v t d (polySums). The falling
+// factorials vanish for the terms that do not contribute (d = 1 to the
+// second, d ≤ 2 to the third derivative), so that at small δ the sums do
+// not cancel.
+func (r *Residual) polyEval(delta, tau float64, third bool) Derivs {
 	// One array of slots holds the powers of τ and of δ.
 	var pv [maxSlots]float64
 	r.tp.eval(&pv, tau)
 	r.dp.eval(&pv, delta)
-
 	// Scaled sums: a, δα_δ, δ²α_δδ, δ³α_δδδ, τα_τ, τ²α_ττ, δτα_δτ.
-	//
-	// A term v = n δ^d τ^t exp(−δ^c) has, with e = c δ^c and y = d − e,
-	//	δ v_δ/v = y,  δ² v_δδ/v = y(y−1) − ce,
-	//	δ³ v_δδδ/v = y(y−1)(y−2) − 3ce(y−1) − c²e,
-	// which expand in powers of e with the falling factorials d, d(d−1)
-	// and d(d−1)(d−2) (expGroup and below): a group of one c needs only the sums of
-	// v times these, v t, v t(t−1) and v t d. The falling factorials
-	// vanish for the terms that do not contribute (d = 1 to the second,
-	// d ≤ 2 to the third derivative), so that at small δ the sums do not
-	// cancel.
 	var a, d1, d2, d3, t1, t2, dt float64
 	for ci := range r.cgroups {
 		cg := &r.cgroups[ci]
@@ -337,7 +386,27 @@ func (r *Residual) eval(delta, tau float64, third bool) Derivs {
 		t2 += r2
 		dt += q - e*r1
 	}
-	var eg float64
+	if !third {
+		d3 = 0
+	}
+	return scaled(delta, tau, a, d1, d2, d3, t1, t2, dt)
+}
+
+// scaled returns the derivatives from the scaled sums a, δα_δ, δ²α_δδ,
+// δ³α_δδδ, τα_τ, τ²α_ττ and δτα_δτ.
+func scaled(delta, tau, a, d1, d2, d3, t1, t2, dt float64) Derivs {
+	id, it := 1/delta, 1/tau
+	return Derivs{A: a, D: d1 * id, DD: d2 * id * id, DDD: d3 * id * id * id,
+		T: t1 * it, TT: t2 * it * it, DT: dt * id * it}
+}
+
+// gaussEval returns the Gaussian terms and their derivatives (DDD when
+// third is set).
+func (r *Residual) gaussEval(delta, tau float64, third bool) Derivs {
+	var pv [maxSlots]float64
+	r.gtp.eval(&pv, tau)
+	r.gdp.eval(&pv, delta)
+	var a, d1, d2, d3, t1, t2, dt, eg float64
 	for i := range r.gauss {
 		g := &r.gauss[i]
 		dd := delta - g.Epsilon
@@ -362,22 +431,7 @@ func (r *Residual) eval(delta, tau float64, third bool) Derivs {
 		t2 += v * k2
 		dt += v * q1 * k1
 	}
-	id, it := 1/delta, 1/tau
-	out := Derivs{
-		A:  a,
-		D:  d1 * id,
-		DD: d2 * id * id,
-		T:  t1 * it,
-		TT: t2 * it * it,
-		DT: dt * id * it,
-	}
-	if third {
-		out.DDD = d3 * id * id * id
-	}
-	if len(r.na) > 0 {
-		out = out.Add(r.evalNonAnalytic(delta, tau, third))
-	}
-	return out
+	return scaled(delta, tau, a, d1, d2, d3, t1, t2, dt)
 }
 
 // polySums returns the sums over the terms v = n δ^d τ^t of ts of v,

@@ -41,6 +41,9 @@ const (
 //	Exp(x) = +Inf for x > 709.78...
 func Exp(x float64) float64 {
 	if !(x <= expMax && x >= -expMax) { // also NaN
+		if x < -750 {
+			return 0 // far below the subnormal range (math.Exp alike)
+		}
 		return math.Exp(x)
 	}
 	z := expInvLn2N * x
