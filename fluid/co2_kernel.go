@@ -9,12 +9,12 @@ import (
 	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
-// co2KernelFingerprint is the fingerprint of the terms co2Kernel was generated from.
-const co2KernelFingerprint = "981864620959defe"
-
 // co2Kernel is the helmholtz.Kernel of 34 power and exponential, 5 Gaussian and 3
-// nonanalytic terms: their sum and its derivatives but the third in δ.
-func co2Kernel(delta, tau float64) helmholtz.Derivs {
+// nonanalytic terms.
+var co2Kernel = helmholtz.Kernel{Fingerprint: "981864620959defe", Second: co2KernelSecond, Delta: co2KernelDelta}
+
+// co2KernelSecond returns their sum and its derivatives but the third in δ.
+func co2KernelSecond(delta, tau float64) helmholtz.Derivs {
 	// Powers of τ.
 	p0 := 1.0
 	p1 := tau
@@ -338,90 +338,95 @@ func co2Kernel(delta, tau float64) helmholtz.Derivs {
 	}
 	var eg float64
 	{ // Gaussian n = -213.6548868832
-		dd, tt := delta-1, tau-1.16
+		dd := delta - 1
+		tt := tau - 1.16
 		eg = elem.Exp(-25*dd*dd - 325*tt*tt)
 		v := -213.6548868832 * p22 * p1 * eg
 		ad2 := 50 * delta * delta
 		w := -50 * delta * dd
 		q1 := 2 + w
 		q2 := 2 + 4*w + w*w - ad2
-		wt := -650 * tau * tt
-		k1 := 1 + wt
-		k2 := 0 + 2*wt + wt*wt - 650*tau*tau
 		a += v
 		d1 += v * q1
 		d2 += v * q2
+		wt := -650 * tau * tt
+		k1 := 1 + wt
+		k2 := 0 + 2*wt + wt*wt - 650*tau*tau
 		t1 += v * k1
 		t2 += v * k2
 		dt += v * q1 * k1
 	}
 	{ // Gaussian n = 26641.569149272
-		dd, tt := delta-1, tau-1.19
+		dd := delta - 1
+		tt := tau - 1.19
 		eg = elem.Exp(-25*dd*dd - 300*tt*tt)
 		v := 26641.569149272 * p22 * p0 * eg
 		ad2 := 50 * delta * delta
 		w := -50 * delta * dd
 		q1 := 2 + w
 		q2 := 2 + 4*w + w*w - ad2
-		wt := -600 * tau * tt
-		k1 := 0 + wt
-		k2 := -0 + 0*wt + wt*wt - 600*tau*tau
 		a += v
 		d1 += v * q1
 		d2 += v * q2
+		wt := -600 * tau * tt
+		k1 := 0 + wt
+		k2 := -0 + 0*wt + wt*wt - 600*tau*tau
 		t1 += v * k1
 		t2 += v * k2
 		dt += v * q1 * k1
 	}
 	{ // Gaussian n = -24027.212204557
-		dd, tt := delta-1, tau-1.19
+		dd := delta - 1
+		tt := tau - 1.19
 		v := -24027.212204557 * p22 * p1 * eg
 		ad2 := 50 * delta * delta
 		w := -50 * delta * dd
 		q1 := 2 + w
 		q2 := 2 + 4*w + w*w - ad2
-		wt := -600 * tau * tt
-		k1 := 1 + wt
-		k2 := 0 + 2*wt + wt*wt - 600*tau*tau
 		a += v
 		d1 += v * q1
 		d2 += v * q2
+		wt := -600 * tau * tt
+		k1 := 1 + wt
+		k2 := 0 + 2*wt + wt*wt - 600*tau*tau
 		t1 += v * k1
 		t2 += v * k2
 		dt += v * q1 * k1
 	}
 	{ // Gaussian n = -283.41603423999
-		dd, tt := delta-1, tau-1.25
+		dd := delta - 1
+		tt := tau - 1.25
 		eg = elem.Exp(-15*dd*dd - 275*tt*tt)
 		v := -283.41603423999 * p23 * p9 * eg
 		ad2 := 30 * delta * delta
 		w := -30 * delta * dd
 		q1 := 3 + w
 		q2 := 6 + 6*w + w*w - ad2
-		wt := -550 * tau * tt
-		k1 := 3 + wt
-		k2 := 6 + 6*wt + wt*wt - 550*tau*tau
 		a += v
 		d1 += v * q1
 		d2 += v * q2
+		wt := -550 * tau * tt
+		k1 := 3 + wt
+		k2 := 6 + 6*wt + wt*wt - 550*tau*tau
 		t1 += v * k1
 		t2 += v * k2
 		dt += v * q1 * k1
 	}
 	{ // Gaussian n = 212.47284400179
-		dd, tt := delta-1, tau-1.22
+		dd := delta - 1
+		tt := tau - 1.22
 		eg = elem.Exp(-20*dd*dd - 275*tt*tt)
 		v := 212.47284400179 * p23 * p9 * eg
 		ad2 := 40 * delta * delta
 		w := -40 * delta * dd
 		q1 := 3 + w
 		q2 := 6 + 6*w + w*w - ad2
-		wt := -550 * tau * tt
-		k1 := 3 + wt
-		k2 := 6 + 6*wt + wt*wt - 550*tau*tau
 		a += v
 		d1 += v * q1
 		d2 += v * q2
+		wt := -550 * tau * tt
+		k1 := 3 + wt
+		k2 := 6 + 6*wt + wt*wt - 550*tau*tau
 		t1 += v * k1
 		t2 += v * k2
 		dt += v * q1 * k1
@@ -573,6 +578,396 @@ func co2Kernel(delta, tau float64) helmholtz.Derivs {
 	}
 	if singular {
 		out.TT = math.Inf(-1)
+	}
+	return out
+}
+
+// co2KernelDelta returns their sum and its first two δ-derivatives.
+func co2KernelDelta(delta, tau float64) helmholtz.DeltaDerivs {
+	// Powers of τ.
+	p0 := 1.0
+	p1 := tau
+	p3 := math.Sqrt(tau)
+	p4 := math.Sqrt(p3)
+	p5 := p4 * p3
+	p6 := p3 * p1
+	p7 := p1 * p1
+	p8 := p3 * p7
+	p9 := p1 * p7
+	p10 := p9 * p9
+	p11 := p1 * p10
+	p12 := p7 * p10
+	p13 := p10 * p10
+	p14 := p7 * p13
+	p15 := p12 * p12
+	p16 := p10 * p15
+	p17 := p13 * p13
+	p18 := p13 * p15
+	// Powers of δ.
+	p20 := delta
+	p22 := p20 * p20
+	p23 := p20 * p22
+	p24 := p22 * p22
+	p25 := p20 * p24
+	p26 := p22 * p24
+	p27 := p23 * p24
+	p28 := p24 * p24
+	p29 := p22 * p28
+	// Scaled sums: a, δα_δ, δ²α_δδ.
+	var a, d1, d2 float64
+	{ // c = 0
+		var s0, s1, s2 float64
+		{ // d = 1
+			v := (0.38856823203161 + 2.938547594274*p5 + -5.5867188534934*p1 + -0.76753199592477*p7) * p20
+			s0 += v
+			s1 += v
+		}
+		{ // d = 2
+			v := (0.31729005580416*p5 + 0.54803315897767*p7) * p22
+			s0 += v
+			s1 += 2 * v
+			s2 += 2 * v
+		}
+		{ // d = 3
+			v := (0.12279411220335 * p5) * p23
+			s0 += v
+			s1 += 3 * v
+			s2 += 6 * v
+		}
+		a += s0
+		d1 += s1
+		d2 += s2
+	}
+	{ // c = 1
+		var s0, s1, s2 float64
+		{ // d = 1
+			v := (2.165896154322 * p6) * p20
+			s0 += v
+			s1 += v
+		}
+		{ // d = 2
+			v := (1.5841735109724 * p6) * p22
+			s0 += v
+			s1 += 2 * v
+			s2 += 2 * v
+		}
+		{ // d = 4
+			v := (-0.23132705405503 * p8) * p24
+			s0 += v
+			s1 += 4 * v
+			s2 += 12 * v
+		}
+		{ // d = 5
+			v := (0.058116916431436 + -0.55369137205382*p6 + 0.48946615909422*p7) * p25
+			s0 += v
+			s1 += 5 * v
+			s2 += 20 * v
+		}
+		{ // d = 6
+			v := (-0.024275739843501 + 0.062494790501678*p1 + -0.12175860225246*p7) * p26
+			s0 += v
+			s1 += 6 * v
+			s2 += 30 * v
+		}
+		u := p20
+		ex := elem.Exp(-u)
+		e := 1 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(0+e)*s0) * ex
+	}
+	{ // c = 2
+		var s0, s1, s2 float64
+		{ // d = 1
+			v := (-0.37055685270086*p9 + -0.016775879700426*p10) * p20
+			s0 += v
+			s1 += v
+		}
+		{ // d = 4
+			v := (-0.11960736637987*p9 + -0.045619362508778*p10 + 0.035612789270346*p12) * p24
+			s0 += v
+			s1 += 4 * v
+			s2 += 12 * v
+		}
+		{ // d = 7
+			v := (-0.0074427727132052 * p10) * p27
+			s0 += v
+			s1 += 7 * v
+			s2 += 42 * v
+		}
+		{ // d = 8
+			v := (-0.0017395704902432) * p28
+			s0 += v
+			s1 += 8 * v
+			s2 += 56 * v
+		}
+		u := p22
+		ex := elem.Exp(-u)
+		e := 2 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(-1+e)*s0) * ex
+	}
+	{ // c = 3
+		var s0, s1, s2 float64
+		{ // d = 2
+			v := (-0.021810121289527 * p11) * p22
+			s0 += v
+			s1 += 2 * v
+			s2 += 2 * v
+		}
+		{ // d = 3
+			v := (0.024332166559236*p13 + -0.037440133423463*p15) * p23
+			s0 += v
+			s1 += 3 * v
+			s2 += 6 * v
+		}
+		u := p23
+		ex := elem.Exp(-u)
+		e := 3 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(-2+e)*s0) * ex
+	}
+	{ // c = 4
+		var s0, s1, s2 float64
+		{ // d = 5
+			v := (0.14338715756878*p16 + -0.13491969083286*p17) * p25
+			s0 += v
+			s1 += 5 * v
+			s2 += 20 * v
+		}
+		{ // d = 6
+			v := (-0.02315122505348 * p15) * p26
+			s0 += v
+			s1 += 6 * v
+			s2 += 30 * v
+		}
+		{ // d = 7
+			v := (0.012363125492901 * p17) * p27
+			s0 += v
+			s1 += 7 * v
+			s2 += 42 * v
+		}
+		{ // d = 8
+			v := (0.002105832197294 * p12) * p28
+			s0 += v
+			s1 += 8 * v
+			s2 += 56 * v
+		}
+		{ // d = 10
+			v := (-0.00033958519026368 * p7) * p29
+			s0 += v
+			s1 += 10 * v
+			s2 += 90 * v
+		}
+		u := p24
+		ex := elem.Exp(-u)
+		e := 4 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(-3+e)*s0) * ex
+	}
+	{ // c = 5
+		var s0, s1, s2 float64
+		{ // d = 4
+			v := (0.0055993651771592 * p18) * p24
+			s0 += v
+			s1 += 4 * v
+			s2 += 12 * v
+		}
+		u := p25
+		ex := elem.Exp(-u)
+		e := 5 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(-4+e)*s0) * ex
+	}
+	{ // c = 6
+		var s0, s1, s2 float64
+		{ // d = 8
+			v := (-0.00030335118055646 * p14) * p28
+			s0 += v
+			s1 += 8 * v
+			s2 += 56 * v
+		}
+		u := p26
+		ex := elem.Exp(-u)
+		e := 6 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(-5+e)*s0) * ex
+	}
+	var eg float64
+	{ // Gaussian n = -213.6548868832
+		dd := delta - 1
+		tt := tau - 1.16
+		eg = elem.Exp(-25*dd*dd - 325*tt*tt)
+		v := -213.6548868832 * p22 * p1 * eg
+		ad2 := 50 * delta * delta
+		w := -50 * delta * dd
+		q1 := 2 + w
+		q2 := 2 + 4*w + w*w - ad2
+		a += v
+		d1 += v * q1
+		d2 += v * q2
+	}
+	{ // Gaussian n = 26641.569149272
+		dd := delta - 1
+		tt := tau - 1.19
+		eg = elem.Exp(-25*dd*dd - 300*tt*tt)
+		v := 26641.569149272 * p22 * p0 * eg
+		ad2 := 50 * delta * delta
+		w := -50 * delta * dd
+		q1 := 2 + w
+		q2 := 2 + 4*w + w*w - ad2
+		a += v
+		d1 += v * q1
+		d2 += v * q2
+	}
+	{ // Gaussian n = -24027.212204557
+		dd := delta - 1
+		v := -24027.212204557 * p22 * p1 * eg
+		ad2 := 50 * delta * delta
+		w := -50 * delta * dd
+		q1 := 2 + w
+		q2 := 2 + 4*w + w*w - ad2
+		a += v
+		d1 += v * q1
+		d2 += v * q2
+	}
+	{ // Gaussian n = -283.41603423999
+		dd := delta - 1
+		tt := tau - 1.25
+		eg = elem.Exp(-15*dd*dd - 275*tt*tt)
+		v := -283.41603423999 * p23 * p9 * eg
+		ad2 := 30 * delta * delta
+		w := -30 * delta * dd
+		q1 := 3 + w
+		q2 := 6 + 6*w + w*w - ad2
+		a += v
+		d1 += v * q1
+		d2 += v * q2
+	}
+	{ // Gaussian n = 212.47284400179
+		dd := delta - 1
+		tt := tau - 1.22
+		eg = elem.Exp(-20*dd*dd - 275*tt*tt)
+		v := 212.47284400179 * p23 * p9 * eg
+		ad2 := 40 * delta * delta
+		w := -40 * delta * dd
+		q1 := 3 + w
+		q2 := 6 + 6*w + w*w - ad2
+		a += v
+		d1 += v * q1
+		d2 += v * q2
+	}
+	id := 1 / delta
+	out := helmholtz.DeltaDerivs{A: a, D: d1 * id, DD: d2 * id * id}
+	// Nonanalytic terms.
+	x := delta - 1
+	ax := math.Abs(x)
+	iax := 1 / ax
+	sx := 1.0
+	if x < 0 {
+		sx = -1
+	}
+	y := tau - 1
+	var pb00, pb10, pb20 float64
+	if ax != 0 {
+		pb00 = ax * ax * ax * math.Cbrt(ax)
+		pb10 = pb00 * iax
+		pb20 = pb10 * iax
+	}
+	var pa00, pa10, pa20 float64
+	if ax != 0 {
+		pa00 = ax * (ax * ax) * ((ax * ax) * (ax * ax))
+		pa10 = pa00 * iax
+		pa20 = pa10 * iax
+	}
+	th0 := -y + 0.7*pb00
+	thx0 := 2.3333333333333335 * pb10 * sx
+	thxx0 := 5.4444444444444455 * pb20
+	dl0 := th0*th0 + 0.3*pa00
+	dlx0 := 2*th0*thx0 + 2.1*pa10*sx
+	dlxx0 := 2*(thx0*thx0+th0*thxx0) + 12.600000000000001*pa20
+	var lnDl0, idl0 float64
+	if dl0 > 0 {
+		lnDl0 = elem.Log(dl0)
+		idl0 = 1 / dl0
+	}
+	psi0 := elem.Exp(-10*x*x - 275*y*y)
+	{ // n = -0.66642276540751, b = 0.875
+		var f, fx, fxx float64
+		if dl0 > 0 {
+			f = elem.Exp(0.875 * lnDl0)
+			r1 := dlx0 * idl0
+			rxx := dlxx0 * idl0
+			fx = f * 0.875 * r1
+			fxx = f * (-0.109375*r1*r1 + 0.875*rxx)
+		}
+		psix := -20 * x * psi0
+		psixx := (400*x*x - 20) * psi0
+		gg := delta * psi0
+		gx := psi0 + delta*psix
+		gxx := 2*psix + delta*psixx
+		out.A += -0.66642276540751 * f * gg
+		out.D += -0.66642276540751 * (fx*gg + f*gx)
+		out.DD += -0.66642276540751 * (fxx*gg + 2*fx*gx + f*gxx)
+	}
+	{ // n = 0.72608632349897, b = 0.925
+		var f, fx, fxx float64
+		if dl0 > 0 {
+			f = elem.Exp(0.925 * lnDl0)
+			r1 := dlx0 * idl0
+			rxx := dlxx0 * idl0
+			fx = f * 0.925 * r1
+			fxx = f * (-0.06937499999999996*r1*r1 + 0.925*rxx)
+		}
+		psix := -20 * x * psi0
+		psixx := (400*x*x - 20) * psi0
+		gg := delta * psi0
+		gx := psi0 + delta*psix
+		gxx := 2*psix + delta*psixx
+		out.A += 0.72608632349897 * f * gg
+		out.D += 0.72608632349897 * (fx*gg + f*gx)
+		out.DD += 0.72608632349897 * (fxx*gg + 2*fx*gx + f*gxx)
+	}
+	var pa02, pa12, pa22 float64
+	if ax != 0 {
+		pa02 = (ax * ax) * ((ax * ax) * (ax * ax))
+		pa12 = pa02 * iax
+		pa22 = pa12 * iax
+	}
+	th2 := -y + 0.7*pb00
+	thx2 := 2.3333333333333335 * pb10 * sx
+	thxx2 := 5.4444444444444455 * pb20
+	dl2 := th2*th2 + 1*pa02
+	dlx2 := 2*th2*thx2 + 6*pa12*sx
+	dlxx2 := 2*(thx2*thx2+th2*thxx2) + 30*pa22
+	var lnDl2, idl2 float64
+	if dl2 > 0 {
+		lnDl2 = elem.Log(dl2)
+		idl2 = 1 / dl2
+	}
+	psi2 := elem.Exp(-12.5*x*x - 275*y*y)
+	{ // n = 0.055068668612842, b = 0.875
+		var f, fx, fxx float64
+		if dl2 > 0 {
+			f = elem.Exp(0.875 * lnDl2)
+			r1 := dlx2 * idl2
+			rxx := dlxx2 * idl2
+			fx = f * 0.875 * r1
+			fxx = f * (-0.109375*r1*r1 + 0.875*rxx)
+		}
+		psix := -25 * x * psi2
+		psixx := (625*x*x - 25) * psi2
+		gg := delta * psi2
+		gx := psi2 + delta*psix
+		gxx := 2*psix + delta*psixx
+		out.A += 0.055068668612842 * f * gg
+		out.D += 0.055068668612842 * (fx*gg + f*gx)
+		out.DD += 0.055068668612842 * (fxx*gg + 2*fx*gx + f*gxx)
 	}
 	return out
 }

@@ -9,12 +9,12 @@ import (
 	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
-// r134aKernelFingerprint is the fingerprint of the terms r134aKernel was generated from.
-const r134aKernelFingerprint = "c5fd4a5862a9dc4d"
-
 // r134aKernel is the helmholtz.Kernel of 21 power and exponential, 0 Gaussian and 0
-// nonanalytic terms: their sum and its derivatives but the third in δ.
-func r134aKernel(delta, tau float64) helmholtz.Derivs {
+// nonanalytic terms.
+var r134aKernel = helmholtz.Kernel{Fingerprint: "c5fd4a5862a9dc4d", Second: r134aKernelSecond, Delta: r134aKernelDelta}
+
+// r134aKernelSecond returns their sum and its derivatives but the third in δ.
+func r134aKernelSecond(delta, tau float64) helmholtz.Derivs {
 	// Powers of τ.
 	p1 := tau
 	p2 := 1 / tau
@@ -226,5 +226,155 @@ func r134aKernel(delta, tau float64) helmholtz.Derivs {
 	}
 	id, it := 1/delta, 1/tau
 	out := helmholtz.Derivs{A: a, D: d1 * id, DD: d2 * id * id, T: t1 * it, TT: t2 * it * it, DT: dt * id * it}
+	return out
+}
+
+// r134aKernelDelta returns their sum and its first two δ-derivatives.
+func r134aKernelDelta(delta, tau float64) helmholtz.DeltaDerivs {
+	// Powers of τ.
+	p1 := tau
+	p2 := 1 / tau
+	p3 := math.Sqrt(tau)
+	p4 := p2 * p3
+	p5 := p3 * p1
+	p6 := p1 * p1
+	p7 := p1 * p6
+	p8 := p6 * p7
+	p9 := p7 * p7
+	p10 := p8 * p8
+	p11 := p9 * p10
+	p12 := p11 * p6
+	p13 := p9 * p11
+	p14 := p11 * p11
+	p15 := p14 * p12
+	// Powers of δ.
+	p17 := delta
+	p19 := p17 * p17
+	p20 := p17 * p19
+	p21 := p19 * p19
+	p22 := p17 * p21
+	p23 := p19 * p21
+	p24 := p21 * p23
+	// Scaled sums: a, δα_δ, δ²α_δδ.
+	var a, d1, d2 float64
+	{ // c = 0
+		var s0, s1, s2 float64
+		{ // d = 1
+			v := (0.498223 + -1.800808*p5 + 0.2671641*p6) * p17
+			s0 += v
+			s1 += v
+		}
+		{ // d = 2
+			v := (0.05586817*p4 + -0.04781652*p6) * p19
+			s0 += v
+			s1 += 2 * v
+			s2 += 2 * v
+		}
+		{ // d = 3
+			v := (0.02458698) * p20
+			s0 += v
+			s1 += 3 * v
+			s2 += 6 * v
+		}
+		{ // d = 6
+			v := (0.0008570145 + 0.0004788584*p5) * p23
+			s0 += v
+			s1 += 6 * v
+			s2 += 30 * v
+		}
+		a += s0
+		d1 += s1
+		d2 += s2
+	}
+	{ // c = 1
+		var s0, s1, s2 float64
+		{ // d = 2
+			v := (0.3324062*p7 + -0.007485907*p8) * p19
+			s0 += v
+			s1 += 2 * v
+			s2 += 2 * v
+		}
+		{ // d = 5
+			v := (0.01423987 * p1) * p22
+			s0 += v
+			s1 += 5 * v
+			s2 += 20 * v
+		}
+		u := p17
+		ex := elem.Exp(-u)
+		e := 1 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(0+e)*s0) * ex
+	}
+	{ // c = 2
+		var s0, s1, s2 float64
+		{ // d = 1
+			v := (-0.5184567*p8 + 0.2057144*p9) * p17
+			s0 += v
+			s1 += v
+		}
+		{ // d = 2
+			v := (-0.005000457 * p10) * p19
+			s0 += v
+			s1 += 2 * v
+			s2 += 2 * v
+		}
+		{ // d = 4
+			v := (0.0001017263*p1 + -0.08692288*p8 + 0.0004603262*p10) * p21
+			s0 += v
+			s1 += 4 * v
+			s2 += 12 * v
+		}
+		u := p19
+		ex := elem.Exp(-u)
+		e := 2 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(-1+e)*s0) * ex
+	}
+	{ // c = 3
+		var s0, s1, s2 float64
+		{ // d = 1
+			v := (-0.003497836 * p10) * p17
+			s0 += v
+			s1 += v
+		}
+		{ // d = 3
+			v := (-0.01452184 * p13) * p20
+			s0 += v
+			s1 += 3 * v
+			s2 += 6 * v
+		}
+		{ // d = 5
+			v := (0.006995038 * p12) * p22
+			s0 += v
+			s1 += 5 * v
+			s2 += 20 * v
+		}
+		u := p20
+		ex := elem.Exp(-u)
+		e := 3 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(-2+e)*s0) * ex
+	}
+	{ // c = 4
+		var s0, s1, s2 float64
+		{ // d = 10
+			v := (-0.0001285458 * p15) * p24
+			s0 += v
+			s1 += 10 * v
+			s2 += 90 * v
+		}
+		u := p21
+		ex := elem.Exp(-u)
+		e := 4 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(-3+e)*s0) * ex
+	}
+	id := 1 / delta
+	out := helmholtz.DeltaDerivs{A: a, D: d1 * id, DD: d2 * id * id}
 	return out
 }

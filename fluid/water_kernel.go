@@ -9,12 +9,12 @@ import (
 	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
-// waterKernelFingerprint is the fingerprint of the terms waterKernel was generated from.
-const waterKernelFingerprint = "8b9715018af4fcae"
-
 // waterKernel is the helmholtz.Kernel of 51 power and exponential, 3 Gaussian and 2
-// nonanalytic terms: their sum and its derivatives but the third in δ.
-func waterKernel(delta, tau float64) helmholtz.Derivs {
+// nonanalytic terms.
+var waterKernel = helmholtz.Kernel{Fingerprint: "8b9715018af4fcae", Second: waterKernelSecond, Delta: waterKernelDelta}
+
+// waterKernelSecond returns their sum and its derivatives but the third in δ.
+func waterKernelSecond(delta, tau float64) helmholtz.Derivs {
 	// Powers of τ.
 	p0 := 1.0
 	p1 := tau
@@ -442,54 +442,57 @@ func waterKernel(delta, tau float64) helmholtz.Derivs {
 	}
 	var eg float64
 	{ // Gaussian n = -31.306260323435
-		dd, tt := delta-1, tau-1.21
+		dd := delta - 1
+		tt := tau - 1.21
 		eg = elem.Exp(-20*dd*dd - 150*tt*tt)
 		v := -31.306260323435 * p32 * p0 * eg
 		ad2 := 40 * delta * delta
 		w := -40 * delta * dd
 		q1 := 3 + w
 		q2 := 6 + 6*w + w*w - ad2
-		wt := -300 * tau * tt
-		k1 := 0 + wt
-		k2 := -0 + 0*wt + wt*wt - 300*tau*tau
 		a += v
 		d1 += v * q1
 		d2 += v * q2
+		wt := -300 * tau * tt
+		k1 := 0 + wt
+		k2 := -0 + 0*wt + wt*wt - 300*tau*tau
 		t1 += v * k1
 		t2 += v * k2
 		dt += v * q1 * k1
 	}
 	{ // Gaussian n = 31.546140237781
-		dd, tt := delta-1, tau-1.21
+		dd := delta - 1
+		tt := tau - 1.21
 		v := 31.546140237781 * p32 * p1 * eg
 		ad2 := 40 * delta * delta
 		w := -40 * delta * dd
 		q1 := 3 + w
 		q2 := 6 + 6*w + w*w - ad2
-		wt := -300 * tau * tt
-		k1 := 1 + wt
-		k2 := 0 + 2*wt + wt*wt - 300*tau*tau
 		a += v
 		d1 += v * q1
 		d2 += v * q2
+		wt := -300 * tau * tt
+		k1 := 1 + wt
+		k2 := 0 + 2*wt + wt*wt - 300*tau*tau
 		t1 += v * k1
 		t2 += v * k2
 		dt += v * q1 * k1
 	}
 	{ // Gaussian n = -2521.3154341695
-		dd, tt := delta-1, tau-1.25
+		dd := delta - 1
+		tt := tau - 1.25
 		eg = elem.Exp(-20*dd*dd - 250*tt*tt)
 		v := -2521.3154341695 * p32 * p12 * eg
 		ad2 := 40 * delta * delta
 		w := -40 * delta * dd
 		q1 := 3 + w
 		q2 := 6 + 6*w + w*w - ad2
-		wt := -500 * tau * tt
-		k1 := 4 + wt
-		k2 := 12 + 8*wt + wt*wt - 500*tau*tau
 		a += v
 		d1 += v * q1
 		d2 += v * q2
+		wt := -500 * tau * tt
+		k1 := 4 + wt
+		k2 := 12 + 8*wt + wt*wt - 500*tau*tau
 		t1 += v * k1
 		t2 += v * k2
 		dt += v * q1 * k1
@@ -595,6 +598,401 @@ func waterKernel(delta, tau float64) helmholtz.Derivs {
 	}
 	if singular {
 		out.TT = math.Inf(-1)
+	}
+	return out
+}
+
+// waterKernelDelta returns their sum and its first two δ-derivatives.
+func waterKernelDelta(delta, tau float64) helmholtz.DeltaDerivs {
+	// Powers of τ.
+	p0 := 1.0
+	p1 := tau
+	p2 := 1 / tau
+	p3 := math.Sqrt(tau)
+	p4 := math.Sqrt(p3)
+	p5 := math.Sqrt(p4)
+	p6 := p5 * p4
+	p7 := p2 * p3
+	p8 := p4 * p3
+	p9 := p5 * p8
+	p10 := p1 * p1
+	p11 := p1 * p10
+	p12 := p10 * p10
+	p13 := p1 * p12
+	p14 := p10 * p12
+	p15 := p11 * p12
+	p16 := p12 * p12
+	p17 := p1 * p16
+	p18 := p10 * p16
+	p19 := p11 * p16
+	p20 := p12 * p16
+	p21 := p13 * p16
+	p22 := p16 * p16
+	p23 := p14 * p22
+	p24 := p15 * p22
+	p25 := p23 * p23
+	p26 := p24 * p24
+	p27 := p12 * p26
+	// Powers of δ.
+	p29 := delta
+	p31 := p29 * p29
+	p32 := p29 * p31
+	p33 := p31 * p31
+	p34 := p29 * p33
+	p35 := p31 * p33
+	p36 := p32 * p33
+	p37 := p31 * p36
+	p38 := p32 * p36
+	p39 := p33 * p36
+	p40 := p34 * p36
+	p41 := p35 * p36
+	p42 := p36 * p36
+	p43 := p29 * p42
+	// Scaled sums: a, δα_δ, δ²α_δδ.
+	var a, d1, d2 float64
+	{ // c = 0
+		var s0, s1, s2 float64
+		{ // d = 1
+			v := (0.012533547935523*p7 + 7.8957634722828*p9 + -8.7803203303561*p1) * p29
+			s0 += v
+			s1 += v
+		}
+		{ // d = 2
+			v := (0.31802509345418*p3 + -0.26145533859358*p8) * p31
+			s0 += v
+			s1 += 2 * v
+			s2 += 2 * v
+		}
+		{ // d = 3
+			v := (-0.0078199751687981 * p6) * p32
+			s0 += v
+			s1 += 3 * v
+			s2 += 6 * v
+		}
+		{ // d = 4
+			v := (0.0088089493102134 * p1) * p33
+			s0 += v
+			s1 += 4 * v
+			s2 += 12 * v
+		}
+		a += s0
+		d1 += s1
+		d2 += s2
+	}
+	{ // c = 1
+		var s0, s1, s2 float64
+		{ // d = 1
+			v := (-0.66856572307965*p12 + 0.20433810950965*p14 + -6.6212605039687e-05*p20) * p29
+			s0 += v
+			s1 += v
+		}
+		{ // d = 2
+			v := (-0.19232721156002*p1 + -0.25709043003438*p13) * p31
+			s0 += v
+			s1 += 2 * v
+			s2 += 2 * v
+		}
+		{ // d = 3
+			v := (0.16074868486251 * p12) * p32
+			s0 += v
+			s1 += 3 * v
+			s2 += 6 * v
+		}
+		{ // d = 4
+			v := (-0.040092828925807*p10 + 3.9343422603254e-07*p21) * p33
+			s0 += v
+			s1 += 4 * v
+			s2 += 12 * v
+		}
+		{ // d = 5
+			v := (-7.5941377088144e-06 * p17) * p34
+			s0 += v
+			s1 += 5 * v
+			s2 += 20 * v
+		}
+		{ // d = 7
+			v := (0.00056250979351888 * p11) * p36
+			s0 += v
+			s1 += 7 * v
+			s2 += 42 * v
+		}
+		{ // d = 9
+			v := (-1.5608652257135e-05 * p12) * p37
+			s0 += v
+			s1 += 9 * v
+			s2 += 72 * v
+		}
+		{ // d = 10
+			v := (1.1537996422951e-09 * p19) * p38
+			s0 += v
+			s1 += 10 * v
+			s2 += 90 * v
+		}
+		{ // d = 11
+			v := (3.6582165144204e-07 * p12) * p39
+			s0 += v
+			s1 += 11 * v
+			s2 += 110 * v
+		}
+		{ // d = 13
+			v := (-1.3251180074668e-12 * p21) * p41
+			s0 += v
+			s1 += 13 * v
+			s2 += 156 * v
+		}
+		{ // d = 15
+			v := (-6.2639586912454e-10 * p1) * p43
+			s0 += v
+			s1 += 15 * v
+			s2 += 210 * v
+		}
+		u := p29
+		ex := elem.Exp(-u)
+		e := 1 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(0+e)*s0) * ex
+	}
+	{ // c = 2
+		var s0, s1, s2 float64
+		{ // d = 1
+			v := (-0.10793600908932 * p15) * p29
+			s0 += v
+			s1 += v
+		}
+		{ // d = 2
+			v := (0.017611491008752*p1 + 0.22132295167546*p17 + -0.40247669763528*p18) * p31
+			s0 += v
+			s1 += 2 * v
+			s2 += 2 * v
+		}
+		{ // d = 3
+			v := (0.58083399985759 * p18) * p32
+			s0 += v
+			s1 += 3 * v
+			s2 += 6 * v
+		}
+		{ // d = 4
+			v := (0.0049969146990806*p11 + -0.031358700712549*p15 + -0.74315929710341*p18) * p33
+			s0 += v
+			s1 += 4 * v
+			s2 += 12 * v
+		}
+		{ // d = 5
+			v := (0.4780732991548 * p18) * p34
+			s0 += v
+			s1 += 5 * v
+			s2 += 20 * v
+		}
+		{ // d = 6
+			v := (0.020527940895948*p14 + -0.13636435110343*p18) * p35
+			s0 += v
+			s1 += 6 * v
+			s2 += 30 * v
+		}
+		{ // d = 7
+			v := (0.014180634400617 * p18) * p36
+			s0 += v
+			s1 += 7 * v
+			s2 += 42 * v
+		}
+		{ // d = 9
+			v := (0.0083326504880713*p1 + -0.029052336009585*p10 + 0.038615085574206*p11 + -0.020393486513704*p12 + -0.0016554050063734*p16) * p37
+			s0 += v
+			s1 += 9 * v
+			s2 += 72 * v
+		}
+		{ // d = 10
+			v := (0.0019955571979541*p14 + 0.00015870308324157*p17) * p38
+			s0 += v
+			s1 += 10 * v
+			s2 += 90 * v
+		}
+		{ // d = 12
+			v := (-1.638856834253e-05 * p16) * p40
+			s0 += v
+			s1 += 12 * v
+			s2 += 132 * v
+		}
+		u := p31
+		ex := elem.Exp(-u)
+		e := 2 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(-1+e)*s0) * ex
+	}
+	{ // c = 3
+		var s0, s1, s2 float64
+		{ // d = 3
+			v := (0.043613615723811 * p22) * p32
+			s0 += v
+			s1 += 3 * v
+			s2 += 6 * v
+		}
+		{ // d = 4
+			v := (0.034994005463765*p23 + -0.076788197844621*p24) * p33
+			s0 += v
+			s1 += 4 * v
+			s2 += 12 * v
+		}
+		{ // d = 5
+			v := (0.022446277332006 * p24) * p34
+			s0 += v
+			s1 += 5 * v
+			s2 += 20 * v
+		}
+		u := p32
+		ex := elem.Exp(-u)
+		e := 3 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(-2+e)*s0) * ex
+	}
+	{ // c = 4
+		var s0, s1, s2 float64
+		{ // d = 14
+			v := (-6.2689710414685e-05 * p18) * p42
+			s0 += v
+			s1 += 14 * v
+			s2 += 182 * v
+		}
+		u := p33
+		ex := elem.Exp(-u)
+		e := 4 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(-3+e)*s0) * ex
+	}
+	{ // c = 6
+		var s0, s1, s2 float64
+		{ // d = 3
+			v := (-5.5711118565645e-10 * p27) * p32
+			s0 += v
+			s1 += 3 * v
+			s2 += 6 * v
+		}
+		{ // d = 6
+			v := (-0.19905718354408*p25 + 0.31777497330738*p26 + -0.11841182425981*p27) * p35
+			s0 += v
+			s1 += 6 * v
+			s2 += 30 * v
+		}
+		u := p35
+		ex := elem.Exp(-u)
+		e := 6 * u
+		a += s0 * ex
+		d1 += (s1 - e*s0) * ex
+		d2 += (s2 - 2*e*s1 + e*(-5+e)*s0) * ex
+	}
+	var eg float64
+	{ // Gaussian n = -31.306260323435
+		dd := delta - 1
+		tt := tau - 1.21
+		eg = elem.Exp(-20*dd*dd - 150*tt*tt)
+		v := -31.306260323435 * p32 * p0 * eg
+		ad2 := 40 * delta * delta
+		w := -40 * delta * dd
+		q1 := 3 + w
+		q2 := 6 + 6*w + w*w - ad2
+		a += v
+		d1 += v * q1
+		d2 += v * q2
+	}
+	{ // Gaussian n = 31.546140237781
+		dd := delta - 1
+		v := 31.546140237781 * p32 * p1 * eg
+		ad2 := 40 * delta * delta
+		w := -40 * delta * dd
+		q1 := 3 + w
+		q2 := 6 + 6*w + w*w - ad2
+		a += v
+		d1 += v * q1
+		d2 += v * q2
+	}
+	{ // Gaussian n = -2521.3154341695
+		dd := delta - 1
+		tt := tau - 1.25
+		eg = elem.Exp(-20*dd*dd - 250*tt*tt)
+		v := -2521.3154341695 * p32 * p12 * eg
+		ad2 := 40 * delta * delta
+		w := -40 * delta * dd
+		q1 := 3 + w
+		q2 := 6 + 6*w + w*w - ad2
+		a += v
+		d1 += v * q1
+		d2 += v * q2
+	}
+	id := 1 / delta
+	out := helmholtz.DeltaDerivs{A: a, D: d1 * id, DD: d2 * id * id}
+	// Nonanalytic terms.
+	x := delta - 1
+	ax := math.Abs(x)
+	iax := 1 / ax
+	sx := 1.0
+	if x < 0 {
+		sx = -1
+	}
+	y := tau - 1
+	var pb00, pb10, pb20 float64
+	if ax != 0 {
+		pb00 = ax * ax * ax * math.Cbrt(ax)
+		pb10 = pb00 * iax
+		pb20 = pb10 * iax
+	}
+	var pa00, pa10, pa20 float64
+	if ax != 0 {
+		pa00 = ax * (ax * ax) * ((ax * ax) * (ax * ax))
+		pa10 = pa00 * iax
+		pa20 = pa10 * iax
+	}
+	th0 := -y + 0.32*pb00
+	thx0 := 1.0666666666666667 * pb10 * sx
+	thxx0 := 2.488888888888889 * pb20
+	dl0 := th0*th0 + 0.2*pa00
+	dlx0 := 2*th0*thx0 + 1.4000000000000001*pa10*sx
+	dlxx0 := 2*(thx0*thx0+th0*thxx0) + 8.4*pa20
+	var lnDl0, idl0 float64
+	if dl0 > 0 {
+		lnDl0 = elem.Log(dl0)
+		idl0 = 1 / dl0
+	}
+	psi0 := elem.Exp(-28*x*x - 700*y*y)
+	{ // n = -0.14874640856724, b = 0.85
+		var f, fx, fxx float64
+		if dl0 > 0 {
+			f = elem.Exp(0.85 * lnDl0)
+			r1 := dlx0 * idl0
+			rxx := dlxx0 * idl0
+			fx = f * 0.85 * r1
+			fxx = f * (-0.1275*r1*r1 + 0.85*rxx)
+		}
+		psix := -56 * x * psi0
+		psixx := (3136*x*x - 56) * psi0
+		gg := delta * psi0
+		gx := psi0 + delta*psix
+		gxx := 2*psix + delta*psixx
+		out.A += -0.14874640856724 * f * gg
+		out.D += -0.14874640856724 * (fx*gg + f*gx)
+		out.DD += -0.14874640856724 * (fxx*gg + 2*fx*gx + f*gxx)
+	}
+	psi1 := elem.Exp(-32*x*x - 800*y*y)
+	{ // n = 0.31806110878444, b = 0.95
+		var f, fx, fxx float64
+		if dl0 > 0 {
+			f = elem.Exp(0.95 * lnDl0)
+			r1 := dlx0 * idl0
+			rxx := dlxx0 * idl0
+			fx = f * 0.95 * r1
+			fxx = f * (-0.04750000000000004*r1*r1 + 0.95*rxx)
+		}
+		psix := -64 * x * psi1
+		psixx := (4096*x*x - 64) * psi1
+		gg := delta * psi1
+		gx := psi1 + delta*psix
+		gxx := 2*psix + delta*psixx
+		out.A += 0.31806110878444 * f * gg
+		out.D += 0.31806110878444 * (fx*gg + f*gx)
+		out.DD += 0.31806110878444 * (fxx*gg + 2*fx*gx + f*gxx)
 	}
 	return out
 }

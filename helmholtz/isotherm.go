@@ -46,6 +46,9 @@ func (r *Residual) Isotherm(tau float64) (it Isotherm) {
 // enough for the copy to count).
 func (it *Isotherm) Set(r *Residual, tau float64) {
 	it.r, it.tau = r, tau
+	if r.kernel.Delta != nil {
+		return // the kernel evaluates at (δ, τ)
+	}
 	var tv [maxSlots]float64
 	r.tp.eval(&tv, tau)
 	if len(r.gauss) > 0 {
@@ -83,6 +86,9 @@ func (it *Isotherm) Tau() float64 { return it.tau }
 // nonanalytic contributions are their limits, 0.
 func (it *Isotherm) Eval(delta float64) DeltaDerivs {
 	r := it.r
+	if r.kernel.Delta != nil {
+		return r.kernel.Delta(delta, it.tau)
+	}
 	var dv [maxSlots]float64 // slots of δ only
 	r.dp.eval(&dv, delta)
 	if len(r.gauss) > 0 {

@@ -96,17 +96,23 @@ func TestWithKernel(t *testing.T) {
 	t.Parallel()
 	r := helmholtz.MustNewResidual(refFamilies["power"])
 	other := helmholtz.MustNewResidual(refFamilies["exponential"])
-	marker := helmholtz.Derivs{A: 42}
-	k := func(delta, tau float64) helmholtz.Derivs { return marker }
-	if _, err := r.WithKernel(k, other.KernelFingerprint()); err == nil {
+	marker, dmarker := helmholtz.Derivs{A: 42}, helmholtz.DeltaDerivs{A: 43}
+	k := helmholtz.Kernel{Fingerprint: other.KernelFingerprint(),
+		Second: func(delta, tau float64) helmholtz.Derivs { return marker },
+		Delta:  func(delta, tau float64) helmholtz.DeltaDerivs { return dmarker }}
+	if _, err := r.WithKernel(k); err == nil {
 		t.Error("WithKernel accepted a kernel of other terms")
 	}
-	rk, err := r.WithKernel(k, r.KernelFingerprint())
+	k.Fingerprint = r.KernelFingerprint()
+	rk, err := r.WithKernel(k)
 	if err != nil {
 		t.Fatal(err)
 	}
 	if got := rk.EvalSecond(0.5, 1.2); got != marker {
 		t.Errorf("EvalSecond with a kernel = %+v, want the kernel's %+v", got, marker)
+	}
+	if it := rk.Isotherm(1.2); it.Eval(0.5) != dmarker {
+		t.Errorf("Isotherm.Eval with a kernel = %+v, want the kernel's %+v", it.Eval(0.5), dmarker)
 	}
 	if got, want := rk.Eval(0.5, 1.2), r.Eval(0.5, 1.2); got != want {
 		t.Errorf("Eval with a kernel = %+v, want the tables' %+v", got, want)

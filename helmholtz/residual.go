@@ -147,7 +147,7 @@ type Residual struct {
 	gtp, gdp powPlan // powers of τ and of δ of the Gaussian terms
 	gauss    []gaussTerm
 	na       []naTerm
-	kernel   Kernel // nil: polyEval
+	kernel   Kernel // zero: the tables
 	// terms as given, for DeltaLimits and the kernel's fingerprint.
 	src ResidualTerms
 }
@@ -315,8 +315,8 @@ func (r *Residual) Eval(delta, tau float64) Derivs { return r.eval(delta, tau, t
 // the properties at (T, ρ) do not need; with a kernel (WithKernel) it is
 // the kernel. Its accuracy is Eval's.
 func (r *Residual) EvalSecond(delta, tau float64) Derivs {
-	if r.kernel != nil {
-		return r.kernel(delta, tau)
+	if r.kernel.Second != nil {
+		return r.kernel.Second(delta, tau)
 	}
 	return r.eval(delta, tau, false)
 }
