@@ -139,9 +139,11 @@ func (id *Ideal) EvalTau(tau float64) (a, t1, t2 float64) {
 			om = -math.Expm1(-x)
 		}
 		a += p.N * elem.Log(om)
-		r := e / om
-		t1 += p.N * p.Theta * r
-		t2 -= p.N * p.Theta * p.Theta * r / om
+		iom := 1 / om
+		r := e * iom
+		nt := p.N * p.Theta
+		t1 += nt * r
+		t2 -= nt * p.Theta * r * iom
 	}
 	return a, t1, t2
 }

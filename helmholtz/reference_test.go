@@ -86,8 +86,7 @@ func TestIdealReference(t *testing.T) {
 		PlanckEinstein: []helmholtz.PlanckEinstein{{N: 0.97, Theta: 3.5}, {N: 0.012, Theta: 1.3}, {N: 0.25, Theta: 27.5}},
 	}
 	id := helmholtz.MustNewIdeal(terms)
-	worst := termwise.CheckIdeal(t, "ideal", terms, id, termwise.Grid(1e-6, 10, 40, 0.1, 4, 80, false), refTol)
-	t.Logf("largest deviation %.3g of the terms' magnitude", worst)
+	termwise.CheckIdeal(t, "ideal", terms, id, termwise.Grid(1e-6, 10, 40, 0.1, 4, 80, false), refTol)
 }
 
 // TestWithKernel: a kernel is used only with the terms it was generated

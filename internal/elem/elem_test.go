@@ -195,56 +195,57 @@ func TestLogAgainstMath(t *testing.T) {
 // (the analysis in their doc comments).
 const maxKernelUlp = 0.53
 
-// TestExpAccuracy: Exp against e^x from math/big on a sample of the fast
-// path's range.
-func TestExpAccuracy(t *testing.T) {
-	t.Parallel()
-	rng := rand.New(rand.NewPCG(3, 4))
-	n := 20000
+// accuracy returns the largest error of f in ulp against the exact
+// values, over n arguments from gen (fewer under -short), with its
+// argument.
+func accuracy(n int, seed uint64, gen func(i int, r *rand.Rand) float64, f func(float64) float64,
+	exact func(float64) *big.Float) (worst, at float64) {
 	if testing.Short() {
-		n = 2000
+		n /= 10
 	}
-	worst, at := 0.0, 0.0
+	rng := rand.New(rand.NewPCG(seed, seed+1))
 	for i := range n {
-		x := 2*expMax*rng.Float64() - expMax
-		if i%2 == 0 {
-			x = 4*rng.Float64() - 2
-		}
-		if e := math.Abs(ulpErr(Exp(x), bigExp(x))); e > worst {
+		x := gen(i, rng)
+		if e := math.Abs(ulpErr(f(x), exact(x))); e > worst {
 			worst, at = e, x
 		}
 	}
-	if worst > maxKernelUlp {
-		t.Errorf("Exp: %v ulp from the exact value at x = %v, want at most %v", worst, at, maxKernelUlp)
-	}
-	t.Logf("Exp: at most %.4f ulp from the exact value (x = %v)", worst, at)
+	return worst, at
 }
 
-// TestLogAccuracy: Log against ln x from math/big on a sample.
-func TestLogAccuracy(t *testing.T) {
+// TestKernelAccuracy: Exp against e^x and Log against ln x from math/big,
+// on samples of the fast paths' ranges (and near 1 for Log).
+func TestKernelAccuracy(t *testing.T) {
 	t.Parallel()
-	rng := rand.New(rand.NewPCG(5, 6))
-	n := 20000
-	if testing.Short() {
-		n = 2000
-	}
-	worst, at := 0.0, 0.0
-	for i := range n {
-		x := math.Float64frombits(rng.Uint64()>>2 + 0x2000000000000000)
-		switch i % 3 {
-		case 1:
-			x = 0.5 + 1.5*rng.Float64()
-		case 2:
-			x = 1 + 0.02*(rng.Float64()-0.5)
+	for _, c := range []struct {
+		name  string
+		seed  uint64
+		gen   func(i int, r *rand.Rand) float64
+		f     func(float64) float64
+		exact func(float64) *big.Float
+	}{
+		{"Exp", 3, func(i int, r *rand.Rand) float64 {
+			if i%2 == 0 {
+				return 4*r.Float64() - 2
+			}
+			return 2*expMax*r.Float64() - expMax
+		}, Exp, bigExp},
+		{"Log", 5, func(i int, r *rand.Rand) float64 {
+			switch i % 3 {
+			case 1:
+				return 0.5 + 1.5*r.Float64()
+			case 2:
+				return 1 + 0.02*(r.Float64()-0.5)
+			}
+			return math.Float64frombits(r.Uint64()>>2 + 0x2000000000000000)
+		}, Log, func(x float64) *big.Float { return bigLog(newBig(x)) }},
+	} {
+		worst, at := accuracy(20000, c.seed, c.gen, c.f, c.exact)
+		if worst > maxKernelUlp {
+			t.Errorf("%s: %v ulp from the exact value at x = %v, want at most %v", c.name, worst, at, maxKernelUlp)
 		}
-		if e := math.Abs(ulpErr(Log(x), bigLog(newBig(x)))); e > worst {
-			worst, at = e, x
-		}
+		t.Logf("%s: at most %.4f ulp from the exact value (x = %v)", c.name, worst, at)
 	}
-	if worst > maxKernelUlp {
-		t.Errorf("Log: %v ulp from the exact value at x = %v, want at most %v", worst, at, maxKernelUlp)
-	}
-	t.Logf("Log: at most %.4f ulp from the exact value (x = %v)", worst, at)
 }
 
 // FuzzKernels: for any argument, Exp and Log are within 1 ulp of math.Exp

@@ -52,74 +52,84 @@ func Grid(dlo, dhi float64, n int, tlo, thi float64, m int, near bool) []Point {
 	return pts
 }
 
+// checker compares evaluations with the term-by-term one and reports.
+type checker struct {
+	tb        testing.TB
+	name      string
+	tol, tiny float64
+	fails     int
+	worst     float64
+	worstAt   string
+}
+
+// report checks one value against the term-by-term one.
+func (c *checker) report(what string, p Point, got, want, mag float64) {
+	dev := math.Abs(got - want)
+	if mag*c.tol > c.tiny && dev/mag > c.worst {
+		c.worst = dev / mag
+		c.worstAt = fmt.Sprintf("%s at δ=%v τ=%v", what, p.Delta, p.Tau)
+	}
+	if !(dev <= c.tol*mag+c.tiny) {
+		c.fails++
+		if c.fails <= 10 {
+			c.tb.Errorf("%s at δ=%v τ=%v: %s = %.17g, term by term %.17g (magnitude %.3g; deviation %.3g of it)",
+				c.name, p.Delta, p.Tau, what, got, want, mag, dev/mag)
+		}
+	}
+}
+
+// derivs checks every field of got but DDD, and DDD where third is set
+// (else it must be zero).
+func (c *checker) derivs(prefix string, p Point, got, want, mag helmholtz.Derivs, third bool) {
+	c.report(prefix+"A", p, got.A, want.A, mag.A)
+	c.report(prefix+"D", p, got.D, want.D, mag.D)
+	c.report(prefix+"DD", p, got.DD, want.DD, mag.DD)
+	c.report(prefix+"T", p, got.T, want.T, mag.T)
+	c.report(prefix+"TT", p, got.TT, want.TT, mag.TT)
+	c.report(prefix+"DT", p, got.DT, want.DT, mag.DT)
+	if third {
+		c.report(prefix+"DDD", p, got.DDD, want.DDD, mag.DDD)
+	} else if got.DDD != 0 {
+		c.fails++
+		c.tb.Errorf("%s at δ=%v τ=%v: %sDDD = %v, want 0", c.name, p.Delta, p.Tau, prefix, got.DDD)
+	}
+}
+
+// done reports the totals and returns the largest deviation.
+func (c *checker) done(n int) float64 {
+	if c.fails > 10 {
+		c.tb.Errorf("%s: %d deviations in all", c.name, c.fails)
+	}
+	c.tb.Logf("%s: largest deviation %.3g of the terms' magnitude (%s) over %d points", c.name, c.worst, c.worstAt, n)
+	return c.worst
+}
+
 // CheckResidual compares r, compiled from terms, with the term-by-term
 // evaluation at every point: Eval and EvalSecond (with DDD zero) in every
 // derivative and an Isotherm in αʳ and its δ-derivatives (and the
-// Isotherm with Eval), each within tol of the
-// magnitude of the terms (Residual's) plus tiny, an absolute floor for
-// derivatives whose terms all vanish. It returns the largest deviation
-// found, in units of the magnitude.
+// Isotherm with Eval), each within tol of the magnitude of the terms
+// (Residual's) plus tiny, an absolute floor for derivatives whose terms
+// all vanish. It returns the largest deviation found, in units of the
+// magnitude.
 func CheckResidual(tb testing.TB, name string, terms helmholtz.ResidualTerms, r *helmholtz.Residual,
 	pts []Point, tol, tiny float64) (worst float64) {
 	tb.Helper()
-	fails := 0
-	var worstAt string
-	report := func(what string, p Point, got, want, mag float64) {
-		dev := math.Abs(got - want)
-		if mag*tol > tiny && dev/mag > worst {
-			worst = dev / mag
-			worstAt = fmt.Sprintf("%s at δ=%v τ=%v", what, p.Delta, p.Tau)
-		}
-		if !(dev <= tol*mag+tiny) {
-			fails++
-			if fails <= 10 {
-				tb.Errorf("%s at δ=%v τ=%v: %s = %.17g, term by term %.17g (magnitude %.3g; deviation %.3g of it)",
-					name, p.Delta, p.Tau, what, got, want, mag, dev/mag)
-			}
-		}
-	}
+	c := checker{tb: tb, name: name, tol: tol, tiny: tiny}
 	for _, p := range pts {
 		want, mag := Residual(terms, p.Delta, p.Tau)
 		got := r.Eval(p.Delta, p.Tau)
-		for _, c := range []struct {
-			what           string
-			got, want, mag float64
-		}{
-			{"A", got.A, want.A, mag.A}, {"D", got.D, want.D, mag.D}, {"DD", got.DD, want.DD, mag.DD},
-			{"DDD", got.DDD, want.DDD, mag.DDD}, {"T", got.T, want.T, mag.T}, {"TT", got.TT, want.TT, mag.TT},
-			{"DT", got.DT, want.DT, mag.DT},
-		} {
-			report(c.what, p, c.got, c.want, c.mag)
-		}
-		sec := r.EvalSecond(p.Delta, p.Tau)
-		for _, c := range []struct {
-			what           string
-			got, want, mag float64
-		}{
-			{"EvalSecond A", sec.A, want.A, mag.A}, {"EvalSecond D", sec.D, want.D, mag.D},
-			{"EvalSecond DD", sec.DD, want.DD, mag.DD}, {"EvalSecond T", sec.T, want.T, mag.T},
-			{"EvalSecond TT", sec.TT, want.TT, mag.TT}, {"EvalSecond DT", sec.DT, want.DT, mag.DT},
-		} {
-			report(c.what, p, c.got, c.want, c.mag)
-		}
-		if sec.DDD != 0 {
-			fails++
-			tb.Errorf("%s at δ=%v τ=%v: EvalSecond DDD = %v, want 0", name, p.Delta, p.Tau, sec.DDD)
-		}
+		c.derivs("", p, got, want, mag, true)
+		c.derivs("EvalSecond ", p, r.EvalSecond(p.Delta, p.Tau), want, mag, false)
 		it := r.Isotherm(p.Tau)
 		iso := it.Eval(p.Delta)
-		report("isotherm A", p, iso.A, want.A, mag.A)
-		report("isotherm D", p, iso.D, want.D, mag.D)
-		report("isotherm DD", p, iso.DD, want.DD, mag.DD)
-		report("isotherm A against Eval", p, iso.A, got.A, mag.A)
-		report("isotherm D against Eval", p, iso.D, got.D, mag.D)
-		report("isotherm DD against Eval", p, iso.DD, got.DD, mag.DD)
+		c.report("isotherm A", p, iso.A, want.A, mag.A)
+		c.report("isotherm D", p, iso.D, want.D, mag.D)
+		c.report("isotherm DD", p, iso.DD, want.DD, mag.DD)
+		c.report("isotherm A against Eval", p, iso.A, got.A, mag.A)
+		c.report("isotherm D against Eval", p, iso.D, got.D, mag.D)
+		c.report("isotherm DD against Eval", p, iso.DD, got.DD, mag.DD)
 	}
-	if fails > 10 {
-		tb.Errorf("%s: %d deviations in all", name, fails)
-	}
-	tb.Logf("%s: largest deviation %.3g of the terms' magnitude (%s) over %d points", name, worst, worstAt, len(pts))
-	return worst
+	return c.done(len(pts))
 }
 
 // CheckIdeal compares id, compiled from terms, with the term-by-term
@@ -128,30 +138,10 @@ func CheckResidual(tb testing.TB, name string, terms helmholtz.ResidualTerms, r 
 // magnitude.
 func CheckIdeal(tb testing.TB, name string, terms helmholtz.IdealTerms, id *helmholtz.Ideal, pts []Point, tol float64) (worst float64) {
 	tb.Helper()
-	fails := 0
+	c := checker{tb: tb, name: name, tol: tol}
 	for _, p := range pts {
 		want, mag := Ideal(terms, p.Delta, p.Tau)
-		got := id.Eval(p.Delta, p.Tau)
-		for _, c := range []struct {
-			what           string
-			got, want, mag float64
-		}{
-			{"A", got.A, want.A, mag.A}, {"D", got.D, want.D, mag.D}, {"DD", got.DD, want.DD, mag.DD},
-			{"DDD", got.DDD, want.DDD, mag.DDD}, {"T", got.T, want.T, mag.T}, {"TT", got.TT, want.TT, mag.TT},
-			{"DT", got.DT, want.DT, mag.DT},
-		} {
-			dev := math.Abs(c.got - c.want)
-			if c.mag > 0 {
-				worst = max(worst, dev/c.mag)
-			}
-			if !(dev <= tol*c.mag) {
-				fails++
-				if fails <= 10 {
-					tb.Errorf("%s at δ=%v τ=%v: %s = %.17g, term by term %.17g (magnitude %.3g)",
-						name, p.Delta, p.Tau, c.what, c.got, c.want, c.mag)
-				}
-			}
-		}
+		c.derivs("", p, id.Eval(p.Delta, p.Tau), want, mag, true)
 	}
-	return worst
+	return c.done(len(pts))
 }
