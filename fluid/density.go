@@ -87,6 +87,8 @@ func (it *isotherm) eval(delta float64) helmholtz.DeltaDerivs {
 // rhoGuess, and kept inside a bracket on the requested branch that shrinks
 // by bisection whenever a Newton step leaves it, so that it always
 // terminates. The root is converged when the Newton step is below 1e-14·ρ.
+// Every evaluation is on the isotherm T (helmholtz.Isotherm: αʳ and its
+// first two δ-derivatives, about 0.7 of a full evaluation of αʳ).
 //
 // For T ≥ Tc, p(ρ) rises monotonically and all three roots are the same.
 // For T < Tc the liquid root is sought on ρ > ρc and the vapour root on
@@ -115,8 +117,10 @@ func (f *Fluid) Density(T, p float64, root Root) (float64, error) {
 // from rhoGuess in kg/m³ when it is positive (a warm start from a nearby
 // state; 0 means none). A state on a root that is not the stable phase at
 // (T, p) carries the Metastable flag; at exactly the vapour pressure (to
-// rounding) RootStable takes the liquid and flags it Indeterminate.
-// Special cases are those of Density and Props.
+// rounding) RootStable takes the liquid and flags it Indeterminate. The
+// properties come from one full evaluation at the density found, as
+// Props(T, ρ) would give them. Special cases are those of Density and
+// Props.
 func (f *Fluid) PropsTP(T, p float64, root Root, rhoGuess float64) (Props, error) {
 	rho, fl, err := f.densityTP("fluid.PropsTP", T, p, root, rhoGuess, true)
 	if err != nil {

@@ -101,7 +101,9 @@ func satTolG(tau float64) float64 {
 //	p(T, ρ′) = p(T, ρ″),   g(T, ρ′) = g(T, ρ″),
 //
 // by Newton's method in the reduced densities (δ′, δ″) with the analytic
-// Jacobian, started from the auxiliary saturated-density equations. If
+// Jacobian, every evaluation on the isotherm T (helmholtz.Isotherm),
+// started from the auxiliary saturated-density equations; the phases'
+// properties come from one full evaluation each. If
 // Newton's method fails, it falls back on a bracketed
 // Newton iteration in p on g′(p) − g″(p) = 0, whose derivative is
 // 1/ρ′ − 1/ρ″, with both densities from Density, and polishes the result
