@@ -99,7 +99,7 @@ func newCO2() *Fluid {
 				{N: 0.08327678, Theta: 27.08792},
 			},
 		}),
-		resid: helmholtz.MustNewResidual(co2Residual),
+		resid: helmholtz.MustNewResidual(co2Residual).MustWithKernel(co2Kernel),
 	}
 	f.aux = auxiliary{
 		psat: func(T float64) float64 {

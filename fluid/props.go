@@ -5,6 +5,7 @@ import (
 	"strconv"
 
 	"github.com/tripoint-thermo/tripoint/helmholtz"
+	"github.com/tripoint-thermo/tripoint/internal/evalcount"
 )
 
 // Props are the properties of a fluid at one (T, ρ), from its equation of
@@ -124,7 +125,8 @@ func (f *Fluid) checkProps(op string, p *Props) error {
 // offsets are not included.
 func (f *Fluid) Derivs(T, rho float64) (ideal, resid helmholtz.Derivs) {
 	delta, tau := rho/f.rhoc, f.tc/T
-	return f.ideal.Eval(delta, tau), f.residual(delta, tau)
+	evalcount.Add()
+	return f.ideal.Eval(delta, tau), f.resid.Eval(delta, tau)
 }
 
 // Reducing returns the reducing temperature Tc in K and density ρc in
@@ -177,8 +179,10 @@ func (f *Fluid) fromDerivs(T, rho, delta, tau float64, i, r *helmholtz.Derivs) P
 	p.W = math.Sqrt(math.Max(w2, 0))
 	p.KappaT = 1 / (rho * p.DpDrho)
 	p.Expansivity = p.KappaT * p.DpDT
-	// μ_JT = (T(∂v/∂T)_p − v)/cp
-	p.JouleThomson = (T*p.Expansivity - 1) / (rho * p.Cp)
+	// μ_JT = (T(∂v/∂T)_p − v)/cp = (Tβ − 1)/(ρ cp), in the form that
+	// stays finite where (∂p/∂ρ)_T = 0 (y = 0, on a spinodal), tending
+	// to 1/(∂p/∂T)_ρ there: Tβ = x/y and cp = (cv y + R x²)/y.
+	p.JouleThomson = (x - y) / (rho * (p.Cv*y + R*x*x))
 	return p
 }
 

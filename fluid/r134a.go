@@ -119,7 +119,7 @@ func newR134a() *Fluid {
 				{N: -3.927170, T: -0.75},
 			},
 		}),
-		resid: helmholtz.MustNewResidual(r134aResidual),
+		resid: helmholtz.MustNewResidual(r134aResidual).MustWithKernel(r134aKernel),
 	}
 	f.aux = auxiliary{
 		psat: func(T float64) float64 {

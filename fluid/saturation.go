@@ -18,15 +18,26 @@ type Saturation struct {
 }
 
 // satPair is a solution of the phase-equilibrium conditions in reduced
-// variables, with the residual derivatives of both phases.
+// variables, with αʳ and its δ-derivatives of both phases (what the
+// conditions need) and, once full is set, all their derivatives.
 type satPair struct {
 	tau, dl, dv float64
-	rl, rv      helmholtz.Derivs
+	il, iv      helmholtz.DeltaDerivs
+	rl, rv      helmholtz.Derivs // where full
+	full        bool
 	strict      bool // Newton's method met its residual bounds (not only the rounding floor)
 }
 
 // pi returns the reduced pressure p/(ρc R T) of the vapour side.
-func (s *satPair) pi() float64 { return s.dv * (1 + s.dv*s.rv.D) }
+func (s *satPair) pi() float64 { return s.dv * (1 + s.dv*s.iv.D) }
+
+// complete evaluates all the derivatives of both phases of s, unless they
+// are there: one full evaluation each.
+func (f *Fluid) complete(s *satPair) {
+	if !s.full {
+		s.rl, s.rv, s.full = f.residual(s.dl, s.tau), f.residual(s.dv, s.tau), true
+	}
+}
 
 // Tolerances of the saturation Newton iterations. An iterate is converged
 // when the residuals of the reduced conditions are at the rounding level
@@ -90,7 +101,9 @@ func satTolG(tau float64) float64 {
 //	p(T, ρ′) = p(T, ρ″),   g(T, ρ′) = g(T, ρ″),
 //
 // by Newton's method in the reduced densities (δ′, δ″) with the analytic
-// Jacobian, started from the auxiliary saturated-density equations. If
+// Jacobian, every evaluation on the isotherm T (helmholtz.Isotherm),
+// started from the auxiliary saturated-density equations; the phases'
+// properties come from one full evaluation each. If
 // Newton's method fails, it falls back on a bracketed
 // Newton iteration in p on g′(p) − g″(p) = 0, whose derivative is
 // 1/ρ′ − 1/ρ″, with both densities from Density, and polishes the result
@@ -107,7 +120,13 @@ func satTolG(tau float64) float64 {
 // equation's own solutions at Tc − 1 mK, 0.1 mK, 10 µK and 1 µK (where
 // they converge) and at the critical point (see nearCrit), and the
 // model's values are returned where Newton's method cannot resolve the
-// densities. In that band P is the model's pressure, rising to pc; p, ρ′
+// densities: wherever its result strays from the model, and everywhere
+// below the last anchor at which it converges (1 µK below Tc for
+// Span–Wagner and Tillner-Roth–Baehr, 10 µK for IAPWS-95), where its
+// results would scatter from one temperature to the next by more than
+// the properties change (ρ′ by 3e-5 relative between temperatures 0.2 nK
+// apart), so that p, ρ′ and ρ″ are smooth functions of T there. In that
+// band P is the model's pressure, rising to pc; p, ρ′
 // and −ρ″ rise monotonically toward the critical point; ρ″ < ρc < ρ′;
 // the residuals |Δp|/p, |Δg|/(RT) and the difference between P and the
 // vapour's own pressure stay within 1e-12; P never exceeds pc; and the
@@ -338,6 +357,7 @@ func (f *Fluid) seedPsat(T float64) float64 {
 
 // saturation builds the exported result; p > 0 overrides the pressure.
 func (f *Fluid) saturation(s *satPair, T, p float64) Saturation {
+	f.complete(s)
 	l := f.propsFromResidual(T, s.dl*f.rhoc, &s.rl)
 	v := f.propsFromResidual(T, s.dv*f.rhoc, &s.rv)
 	l.Flags |= Saturated
@@ -395,16 +415,19 @@ func (f *Fluid) satTSolve(tau float64) (satPair, bool) {
 //
 // P = δ(1 + δαʳ_δ) = p/(ρc R T), G = ln δ + αʳ + δαʳ_δ (g/(RT) less its
 // τ-only part). With P_δ = 1 + 2δαʳ_δ + δ²αʳ_δδ, G_δ = P_δ/δ, so the
-// Jacobian is [[P′_δ, −P″_δ], [P′_δ/δ′, −P″_δ/δ″]].
+// Jacobian is [[P′_δ, −P″_δ], [P′_δ/δ′, −P″_δ/δ″]]. Every evaluation is
+// on the isotherm τ.
 func (f *Fluid) satNewtonT(tau, dl, dv float64) (satPair, bool) {
 	var s satPair
 	s.tau = tau
 	dc, _ := f.critReduced()
 	w := newtonWatch{best: math.Inf(1)}
 	bestRes := math.Inf(1)
+	var iso isotherm
+	iso.set(f, tau)
 	for it := 0; it < 40; it++ {
-		rl := f.residual(dl, tau)
-		rv := f.residual(dv, tau)
+		rl := iso.eval(dl)
+		rv := iso.eval(dv)
 		Pl, Pv := dl*(1+dl*rl.D), dv*(1+dv*rv.D)
 		dPl := 1 + 2*dl*rl.D + dl*dl*rl.DD
 		dPv := 1 + 2*dv*rv.D + dv*dv*rv.DD
@@ -421,7 +444,7 @@ func (f *Fluid) satNewtonT(tau, dl, dv float64) (satPair, bool) {
 		conv, ok := w.check(res)
 		if good && res < bestRes {
 			bestRes = res
-			s.dl, s.dv, s.rl, s.rv, s.strict = dl, dv, rl, rv, res <= 1
+			s.dl, s.dv, s.il, s.iv, s.strict = dl, dv, rl, rv, res <= 1
 		}
 		if conv {
 			return s, ok && bestRes <= 5
@@ -469,6 +492,8 @@ func (f *Fluid) satByPressure(tau float64) (satPair, bool) {
 		pi = f.crit.P / (f.rhoc * f.r * T) * 0.5
 	}
 	var gl, gv float64 // density guesses
+	var iso isotherm
+	iso.set(f, tau)
 	for it := 0; it < 100; it++ {
 		if !(pi > lo && pi < hi) {
 			switch {
@@ -480,13 +505,13 @@ func (f *Fluid) satByPressure(tau float64) (satPair, bool) {
 				pi = 0.5 * (lo + hi)
 			}
 		}
-		dv, rv, stv := f.solveDelta(tau, pi, branchVapor, gv)
+		dv, rv, stv := f.solveDelta(&iso, pi, branchVapor, gv)
 		if stv != rootFound {
 			hi = pi
 			pi = math.NaN()
 			continue
 		}
-		dl, rl, stl := f.solveDelta(tau, pi, branchLiquid, gl)
+		dl, rl, stl := f.solveDelta(&iso, pi, branchLiquid, gl)
 		if stl != rootFound {
 			lo = pi
 			pi = math.NaN()
@@ -504,7 +529,7 @@ func (f *Fluid) satByPressure(tau float64) (satPair, bool) {
 			if p, ok := f.satNewtonT(tau, dl, dv); ok {
 				return p, true
 			}
-			s.tau, s.dl, s.dv, s.rl, s.rv = tau, dl, dv, rl, rv
+			s.tau, s.dl, s.dv, s.il, s.iv = tau, dl, dv, rl, rv
 			return s, dl > dc && dv < dc && math.Abs(D) <= 5*satTolG(tau)
 		}
 		pi += step
@@ -597,7 +622,8 @@ func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 		k := 1 / (tau * pc)
 		E1 := Pl*k - 1
 		E2 := Pv*k - 1
-		E3 := gibbsReduced(dl, &rl) - gibbsReduced(dv, &rv)
+		il, iv := rl.Delta(), rv.Delta()
+		E3 := gibbsReduced(dl, &il) - gibbsReduced(dv, &iv)
 		a11, a13 := dPl*k, (dl*dl*rl.DT-Pl/tau)*k
 		a22, a23 := dPv*k, (dv*dv*rv.DT-Pv/tau)*k
 		a31, a32 := dPl/dl, -dPv/dv
@@ -618,6 +644,7 @@ func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 		if good && res < bestRes {
 			bestRes = res
 			s.tau, s.dl, s.dv, s.rl, s.rv, s.strict = tau, dl, dv, rl, rv, res <= 1
+			s.il, s.iv, s.full = il, iv, true
 		}
 		if conv {
 			return s, ok && bestRes <= 5
@@ -708,7 +735,7 @@ func (f *Fluid) nearCritModel(x float64) (nearCrit, bool) {
 	m.p1 = s1.pi() * f.rhoc * f.r * T1
 	m.pc = f.crit.P
 	m.dc, _ = f.critReduced()
-	slope := f.clapeyron(&s1)
+	slope := f.clapeyron(&m.s1)
 	y1 := -critBand
 	m.B = (slope*y1 - (m.p1 - m.pc)) / (y1 * y1)
 	m.A = slope - 2*m.B*y1
@@ -819,6 +846,11 @@ func (f *Fluid) nearCritAt(m *nearCrit, y, p float64) satPair {
 	h := 0.5 * (dl - dv)
 	var s satPair
 	var ok bool
+	if x < m.x[m.n-1] {
+		// Below the last anchor, where Newton's method no longer
+		// converged: the model.
+		return f.modelPair(tau, dl, dv)
+	}
 	if p > 0 {
 		s, ok = f.satNewtonP(p, tau, dl, dv)
 	} else {
@@ -835,17 +867,23 @@ func (f *Fluid) nearCritAt(m *nearCrit, y, p float64) satPair {
 		math.Abs(s.tau-tau) <= 0.01*critBand*tau/T {
 		return s
 	}
-	s = satPair{tau: tau, dl: dl, dv: dv}
-	s.rl = f.residual(dl, tau)
-	s.rv = f.residual(dv, tau)
+	return f.modelPair(tau, dl, dv)
+}
+
+// modelPair returns the model's densities at τ as a satPair.
+func (f *Fluid) modelPair(tau, dl, dv float64) satPair {
+	s := satPair{tau: tau, dl: dl, dv: dv}
+	f.complete(&s)
+	s.il, s.iv = s.rl.Delta(), s.rv.Delta()
 	return s
 }
 
 // clapeyron returns the slope dp/dT of the vapour-pressure curve at the
 // solution s, in Pa/K, from the Clausius–Clapeyron equation
 // dp/dT = (s″ − s′)/(1/ρ″ − 1/ρ′). s = R(τα_τ − α): the ideal-gas τ terms
-// are equal in both phases and cancel, leaving ln δ.
+// are equal in both phases and cancel, leaving ln δ. It completes s.
 func (f *Fluid) clapeyron(s *satPair) float64 {
+	f.complete(s)
 	sl := s.tau*s.rl.T - s.rl.A - math.Log(s.dl)
 	sv := s.tau*s.rv.T - s.rv.A - math.Log(s.dv)
 	return f.r * (sv - sl) / (1/(s.dv*f.rhoc) - 1/(s.dl*f.rhoc))

@@ -64,7 +64,7 @@ func newWater() *Fluid {
 				{N: 0.24873, Theta: 27.5075105},
 			},
 		}),
-		resid: helmholtz.MustNewResidual(waterResidual),
+		resid: helmholtz.MustNewResidual(waterResidual).MustWithKernel(waterKernel),
 	}
 	f.aux = auxiliary{
 		psat: func(T float64) float64 {

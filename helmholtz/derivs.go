@@ -19,3 +19,7 @@ func (d Derivs) Add(e Derivs) Derivs {
 		DD: d.DD + e.DD, DT: d.DT + e.DT, TT: d.TT + e.TT, DDD: d.DDD + e.DDD,
 	}
 }
+
+// Delta returns the part of d that a DeltaDerivs holds: α, ∂α/∂δ and
+// ∂²α/∂δ².
+func (d Derivs) Delta() DeltaDerivs { return DeltaDerivs{A: d.A, D: d.D, DD: d.DD} }

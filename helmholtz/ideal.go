@@ -3,6 +3,8 @@ package helmholtz
 import (
 	"fmt"
 	"math"
+
+	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
 // IdealPower is the ideal-gas term n τ^t.
@@ -30,8 +32,14 @@ type IdealTerms struct {
 
 // Ideal is a compiled ideal-gas Helmholtz energy. It is immutable and safe
 // for concurrent use.
+//
+// Evaluation takes the powers of τ by multiplication and square roots (as
+// Residual does) and the exponentials and logarithms of the
+// Planck–Einstein terms from internal/elem.
 type Ideal struct {
-	t IdealTerms
+	t     IdealTerms
+	tp    powPlan
+	pslot []uint8 // slot of τ^t of each power term
 }
 
 // NewIdeal compiles the terms t. It returns an error for a non-finite
@@ -53,7 +61,20 @@ func NewIdeal(t IdealTerms) (*Ideal, error) {
 	c := t
 	c.Power = append([]IdealPower(nil), t.Power...)
 	c.PlanckEinstein = append([]PlanckEinstein(nil), t.PlanckEinstein...)
-	return &Ideal{t: c}, nil
+	id := &Ideal{t: c}
+	var exps []float64
+	for _, p := range t.Power {
+		exps = append(exps, p.T)
+	}
+	tp, slots, ok := newPowPlan(exps, 0)
+	if !ok {
+		return nil, fmt.Errorf("helmholtz: too many distinct ideal-gas powers")
+	}
+	id.tp = tp
+	for _, s := range slots {
+		id.pslot = append(id.pslot, uint8(s))
+	}
+	return id, nil
 }
 
 // MustNewIdeal is like NewIdeal but panics on error, for package-level
@@ -78,7 +99,7 @@ func (id *Ideal) Terms() IdealTerms {
 // derivative is zero, and the δ-derivatives are those of ln δ.
 func (id *Ideal) Eval(delta, tau float64) Derivs {
 	d := Derivs{
-		A:   math.Log(delta) + id.t.A1 + id.t.A2*tau,
+		A:   elem.Log(delta) + id.t.A1 + id.t.A2*tau,
 		D:   1 / delta,
 		DD:  -1 / (delta * delta),
 		DDD: 2 / (delta * delta * delta),
@@ -94,28 +115,35 @@ func (id *Ideal) Eval(delta, tau float64) Derivs {
 // the first and second τ-derivatives of α° (the linear term included in the
 // first).
 func (id *Ideal) EvalTau(tau float64) (a, t1, t2 float64) {
+	it := 1 / tau
 	if id.t.LogTau != 0 {
-		a = id.t.LogTau * math.Log(tau)
-		t1 = id.t.LogTau / tau
-		t2 = -id.t.LogTau / (tau * tau)
+		a = id.t.LogTau * elem.Log(tau)
+		t1 = id.t.LogTau * it
+		t2 = -id.t.LogTau * it * it
 	}
-	for _, p := range id.t.Power {
-		v := p.N * math.Pow(tau, p.T)
-		a += v
-		t1 += v * p.T / tau
-		t2 += v * p.T * (p.T - 1) / (tau * tau)
+	if len(id.t.Power) > 0 {
+		var tv [maxSlots]float64
+		id.tp.eval(&tv, tau)
+		for i, p := range id.t.Power {
+			v := p.N * tv[id.pslot[i]&(maxSlots-1)]
+			a += v
+			t1 += v * p.T * it
+			t2 += v * p.T * (p.T - 1) * it * it
+		}
 	}
 	for _, p := range id.t.PlanckEinstein {
 		x := p.Theta * tau
-		e := math.Exp(-x)
+		e := elem.Exp(-x)
 		om := 1 - e // 1 − e^(−x), to rounding for x ≥ ln 2
 		if x < math.Ln2 {
 			om = -math.Expm1(-x)
 		}
-		a += p.N * math.Log(om)
-		r := e / om
-		t1 += p.N * p.Theta * r
-		t2 -= p.N * p.Theta * p.Theta * r / om
+		a += p.N * elem.Log(om)
+		iom := 1 / om
+		r := e * iom
+		nt := p.N * p.Theta
+		t1 += nt * r
+		t2 -= nt * p.Theta * r * iom
 	}
 	return a, t1, t2
 }

@@ -4,7 +4,10 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"sort"
+
+	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
 // Power is the residual term n δ^d τ^t.
@@ -64,81 +67,113 @@ type ResidualTerms struct {
 	NonAnalytic []NonAnalytic
 }
 
-// Limits of the tables a Residual evaluates by multiplication.
+// Limits of the structures a Residual evaluates with.
 const (
 	maxDeltaPow = 23 // largest δ exponent d or c
 	maxExpC     = 8  // c of exp(−δ^c) is at most maxExpC−1
+	// maxDGroups bounds the groups of polynomial and exponential terms of
+	// one (d, c), maxGauss the Gaussian and maxNonAnalytic the
+	// nonanalytic terms: an Isotherm holds their τ-dependent factors in
+	// arrays of these sizes.
+	maxDGroups     = 64
+	maxGauss       = 16
+	maxNonAnalytic = 8
 )
 
-// polyGroup is the set of Power (c = 0) or Exponential terms that share
-// c, and so the factor exp(−δ^c).
-type polyGroup struct {
-	c      int
-	lo, hi int // terms[lo:hi]
+// cGroup is the set of terms of one c, which share the factor exp(−δ^c)
+// (none for c = 0, the Power terms).
+type cGroup struct {
+	c        int
+	fc       float64
+	k        uint8 // slot of δ^c
+	lo, hi   int32 // dgroups[lo:hi]
+	flo, fhi int32 // full[flo:fhi]
 }
 
-// polyTerm is one Power or Exponential term with the constants its
+// fullTerm is one Power or Exponential term with the constants its
 // derivative sums need.
-type polyTerm struct {
+type fullTerm struct {
 	n          float64
-	fd, d2, d3 float64 // d, d², d³
+	fd, w2, w3 float64 // d, d(d−1), d(d−1)(d−2)
 	t, tt1, td float64 // t, t(t−1), t·d
-	d, k       int32   // δ exponent; index of τ^t among the distinct exponents
+	kt, kd     uint8   // slots of τ^t and δ^d
+}
+
+// dGroup is the set of terms of one (d, c), which share δ^d exp(−δ^c):
+// their sum is Σ n τ^t times that factor.
+type dGroup struct {
+	fd, w2 float64 // d, d(d−1)
+	k      uint8   // slot of δ^d
+}
+
+// polyTerm is the τ-dependent part n τ^t of one Power or Exponential
+// term, for an Isotherm.
+type polyTerm struct {
+	n float64
+	k uint8 // slot of τ^t
+	g uint8 // index of its (d, c) group
+}
+
+// gaussTerm is one Gaussian term with its slots and sharing.
+type gaussTerm struct {
+	Gaussian
+	fd     float64
+	kd, kt uint8 // slots of δ^d and τ^t
+	// same: α, ε, β, γ are those of the previous term, whose exponential
+	// it shares; sameDelta: α and ε are (on an isotherm the δ factor is
+	// shared).
+	same, sameDelta bool
 }
 
 // Residual is a compiled residual Helmholtz energy αʳ(δ, τ). It is
 // immutable and safe for concurrent use. The zero value is αʳ ≡ 0.
 //
-// Evaluation groups the polynomial and exponential terms by (d, c), so
-// that each exp(−δ^c) is computed once; takes integer powers by
-// multiplication and the non-integer powers of τ from square roots of τ
-// where the exponents share a power-of-two denominator; and shares the
-// distance function Δ and its logarithm between nonanalytic terms of the
-// same shape.
+// Evaluation groups the polynomial and exponential terms by c (and, on an
+// Isotherm, by d), so that each exp(−δ^c) is computed once; takes the
+// powers of δ and τ by
+// multiplication from short chains (the non-integer powers of τ from
+// square roots of τ, where the exponents share a power-of-two
+// denominator); shares the exponential of consecutive Gaussian terms with
+// the same parameters; and shares |δ−1|^(1/β), the distance function Δ and
+// its logarithm between nonanalytic terms of the same shape. The
+// exponentials and logarithms are those of internal/elem. With a Kernel
+// (WithKernel), EvalSecond is the kernel.
 type Residual struct {
-	groups []polyGroup
-	terms  []polyTerm
-	tp     tauPowers
-	maxD   int
-	gauss  []Gaussian
-	gix    []int // index of τ^t of each Gaussian term among the distinct exponents
-	na     []NonAnalytic
-	na2a   []int // 2a of each nonanalytic term when an integer, else −1
+	cgroups  []cGroup
+	full     []fullTerm // by c, for Eval
+	dgroups  []dGroup   // by c and d, for Isotherm
+	terms    []polyTerm
+	tp, dp   powPlan // powers of τ and of δ of the power and exponential terms
+	gtp, gdp powPlan // powers of τ and of δ of the Gaussian terms
+	gauss    []gaussTerm
+	na       []naTerm
+	kernel   Kernel // zero: the tables
+	// terms as given, for DeltaLimits and the kernel's fingerprint.
+	src ResidualTerms
 }
 
 // NewResidual compiles the terms t. It returns an error if a term has an
 // exponent outside the ranges stated on the term types or a non-finite
-// parameter.
+// parameter, or if there are more terms than an Isotherm holds (64 groups
+// of one (d, c), 16 Gaussian and 8 nonanalytic terms).
 func NewResidual(t ResidualTerms) (*Residual, error) {
-	type raw struct {
-		n, t float64
-		d, c int
+	all, err := rawTerms(t)
+	if err != nil {
+		return nil, err
 	}
-	var all []raw
-	for _, p := range t.Power {
-		all = append(all, raw{p.N, p.T, p.D, 0})
-	}
-	for _, e := range t.Exponential {
-		if e.C < 1 {
-			return nil, fmt.Errorf("helmholtz: exponential term with c=%d < 1", e.C)
-		}
-		all = append(all, raw{e.N, e.T, e.D, e.C})
-	}
-	r := &Residual{}
-	var exps []float64
+	texps, dexps := polyExponents(all)
 	for _, p := range all {
 		if !finite(p.n, p.t) || p.d < 1 || p.d > maxDeltaPow || p.c < 0 || p.c >= maxExpC {
 			return nil, fmt.Errorf("helmholtz: term n=%g d=%d t=%g c=%d out of range", p.n, p.d, p.t, p.c)
 		}
-		r.maxD = max(r.maxD, p.d, p.c)
-		exps = append(exps, p.t)
 	}
+	var gtexps, gdexps []float64
 	for _, g := range t.Gaussian {
 		if !finite(g.N, g.T, g.Alpha, g.Beta, g.Gamma, g.Epsilon) || g.D < 1 || g.D > maxDeltaPow {
 			return nil, fmt.Errorf("helmholtz: Gaussian term %+v out of range", g)
 		}
-		r.maxD = max(r.maxD, g.D)
-		exps = append(exps, g.T)
+		gtexps = append(gtexps, g.T)
+		gdexps = append(gdexps, float64(g.D))
 	}
 	for _, q := range t.NonAnalytic {
 		if !finite(q.N, q.SmallA, q.SmallB, q.A, q.B, q.C, q.D, q.Beta) ||
@@ -146,43 +181,105 @@ func NewResidual(t ResidualTerms) (*Residual, error) {
 			return nil, fmt.Errorf("helmholtz: nonanalytic term %+v out of range", q)
 		}
 	}
-	tp, idx, ok := newTauPowers(exps)
-	if !ok {
-		return nil, errors.New("helmholtz: too many distinct temperature exponents")
+	if len(t.Gaussian) > maxGauss || len(t.NonAnalytic) > maxNonAnalytic {
+		return nil, fmt.Errorf("helmholtz: %d Gaussian and %d nonanalytic terms, at most %d and %d",
+			len(t.Gaussian), len(t.NonAnalytic), maxGauss, maxNonAnalytic)
 	}
-	r.tp = tp
-	// Group polynomial terms by c, keeping the published order within a
-	// group.
+	r := &Residual{}
+	var tslot, dslot, gtslot, gdslot []int
+	var ok1, ok2, ok3, ok4 bool
+	r.tp, tslot, ok1 = newPowPlan(texps, 0)
+	r.dp, dslot, ok2 = newPowPlan(dexps, r.tp.next)
+	r.gtp, gtslot, ok3 = newPowPlan(gtexps, r.dp.next)
+	r.gdp, gdslot, ok4 = newPowPlan(gdexps, r.gtp.next)
+	if !ok1 || !ok2 || !ok3 || !ok4 {
+		return nil, errors.New("helmholtz: too many distinct powers of tau or delta")
+	}
+	for _, i := range termOrder(all) {
+		p := all[i]
+		if n := len(r.cgroups); n == 0 || r.cgroups[n-1].c != p.c {
+			nd := int32(len(r.dgroups))
+			nf := int32(len(r.full))
+			r.cgroups = append(r.cgroups, cGroup{c: p.c, fc: float64(p.c), k: uint8(dslot[2*i+1]),
+				lo: nd, hi: nd, flo: nf, fhi: nf})
+		}
+		cg := &r.cgroups[len(r.cgroups)-1]
+		fd := float64(p.d)
+		r.full = append(r.full, fullTerm{n: p.n, fd: fd, w2: fd * (fd - 1), w3: fd * (fd - 1) * (fd - 2),
+			t: p.t, tt1: p.t * (p.t - 1), td: p.t * fd, kt: uint8(tslot[i]), kd: uint8(dslot[2*i])})
+		cg.fhi++
+		if cg.hi == cg.lo || r.dgroups[cg.hi-1].fd != fd {
+			r.dgroups = append(r.dgroups, dGroup{fd: fd, w2: fd * (fd - 1), k: uint8(dslot[2*i])})
+			cg.hi++
+		}
+		r.terms = append(r.terms, polyTerm{n: p.n, k: uint8(tslot[i]), g: uint8(len(r.dgroups) - 1)})
+	}
+	if len(r.dgroups) > maxDGroups {
+		return nil, fmt.Errorf("helmholtz: %d groups of terms of one (d, c), at most %d", len(r.dgroups), maxDGroups)
+	}
+	for i, g := range t.Gaussian {
+		gt := gaussTerm{Gaussian: g, fd: float64(g.D), kd: uint8(gdslot[i]), kt: uint8(gtslot[i])}
+		if i > 0 {
+			p := t.Gaussian[i-1]
+			gt.sameDelta = g.Alpha == p.Alpha && g.Epsilon == p.Epsilon
+			gt.same = gt.sameDelta && g.Beta == p.Beta && g.Gamma == p.Gamma
+		}
+		r.gauss = append(r.gauss, gt)
+	}
+	r.na = compileNonAnalytic(t.NonAnalytic)
+	r.src = ResidualTerms{
+		Power:       slices.Clone(t.Power),
+		Exponential: slices.Clone(t.Exponential),
+		Gaussian:    slices.Clone(t.Gaussian),
+		NonAnalytic: slices.Clone(t.NonAnalytic),
+	}
+	return r, nil
+}
+
+// rawTerm is a power (c = 0) or exponential term.
+type rawTerm struct {
+	n, t float64
+	d, c int
+}
+
+// rawTerms returns the power and exponential terms of t in the order
+// given.
+func rawTerms(t ResidualTerms) ([]rawTerm, error) {
+	var all []rawTerm
+	for _, p := range t.Power {
+		all = append(all, rawTerm{p.N, p.T, p.D, 0})
+	}
+	for _, e := range t.Exponential {
+		if e.C < 1 {
+			return nil, fmt.Errorf("helmholtz: exponential term with c=%d < 1", e.C)
+		}
+		all = append(all, rawTerm{e.N, e.T, e.D, e.C})
+	}
+	return all, nil
+}
+
+// polyExponents returns the exponents of τ of the terms, and of δ: d and
+// c of each term in turn.
+func polyExponents(all []rawTerm) (texps, dexps []float64) {
+	for _, p := range all {
+		texps = append(texps, p.t)
+		dexps = append(dexps, float64(p.d), float64(p.c))
+	}
+	return texps, dexps
+}
+
+// termOrder returns the indices of the terms grouped by c, then by d,
+// keeping the published order within a group.
+func termOrder(all []rawTerm) []int {
 	order := make([]int, len(all))
 	for i := range order {
 		order[i] = i
 	}
 	sort.SliceStable(order, func(a, b int) bool {
 		pa, pb := all[order[a]], all[order[b]]
-		return pa.c < pb.c
+		return pa.c < pb.c || pa.c == pb.c && pa.d < pb.d
 	})
-	for _, i := range order {
-		p := all[i]
-		if n := len(r.groups); n == 0 || r.groups[n-1].c != p.c {
-			r.groups = append(r.groups, polyGroup{c: p.c, lo: len(r.terms), hi: len(r.terms)})
-		}
-		fd := float64(p.d)
-		r.terms = append(r.terms, polyTerm{n: p.n, fd: fd, d2: fd * fd, d3: fd * fd * fd,
-			t: p.t, tt1: p.t * (p.t - 1), td: p.t * fd, d: int32(p.d), k: int32(idx[i])})
-		r.groups[len(r.groups)-1].hi++
-	}
-	r.gauss = append(r.gauss, t.Gaussian...)
-	r.gix = idx[len(all):]
-	r.na = append(r.na, t.NonAnalytic...)
-	for _, q := range r.na {
-		ta := 2 * q.SmallA
-		if ta == math.Trunc(ta) && ta <= 64 {
-			r.na2a = append(r.na2a, int(ta))
-		} else {
-			r.na2a = append(r.na2a, -1)
-		}
-	}
-	return r, nil
+	return order
 }
 
 // MustNewResidual is like NewResidual but panics on error. It is meant for
@@ -201,6 +298,10 @@ func (r *Residual) HasNonAnalytic() bool { return len(r.na) > 0 }
 
 // Eval returns αʳ and its derivatives at (δ, τ), for δ > 0 and τ > 0.
 //
+// Accuracy: within 8 ulp of a plain term-by-term evaluation with
+// math.Pow and math.Exp, relative to the magnitude of the terms weighted
+// by their condition (TestResidualReference).
+//
 // Special cases are:
 //
 //	At δ = τ = 1 exactly, with nonanalytic terms, TT = ±Inf (the sign of
@@ -208,261 +309,199 @@ func (r *Residual) HasNonAnalytic() bool { return len(r.na) > 0 }
 //	contribution to the other derivatives is its limit, 0.
 //
 // The result for δ ≤ 0 or τ ≤ 0 is unspecified (NaN or ±Inf).
-func (r *Residual) Eval(delta, tau float64) Derivs {
-	var dpow [maxDeltaPow + 1]float64
-	var tv [maxTauDst]float64
-	dpow[0] = 1
-	for k := 1; k <= r.maxD; k++ {
-		dpow[k] = dpow[k-1] * delta
-	}
-	r.tp.fill(&tv, tau)
+func (r *Residual) Eval(delta, tau float64) Derivs { return r.eval(delta, tau, true) }
 
+// EvalSecond is Eval without the third δ-derivative (DDD is zero), which
+// the properties at (T, ρ) do not need; with a kernel (WithKernel) it is
+// the kernel. Its accuracy is Eval's.
+func (r *Residual) EvalSecond(delta, tau float64) Derivs {
+	if r.kernel.Second != nil {
+		return r.kernel.Second(delta, tau)
+	}
+	return r.eval(delta, tau, false)
+}
+
+// eval sums the families of terms from the tables.
+func (r *Residual) eval(delta, tau float64, third bool) Derivs {
+	out := r.polyEval(delta, tau, third)
+	if len(r.gauss) > 0 {
+		out = out.Add(r.gaussEval(delta, tau, third))
+	}
+	if len(r.na) > 0 {
+		out = out.Add(r.evalNonAnalytic(delta, tau, third))
+	}
+	return out
+}
+
+// polyEval returns the power and exponential terms and their derivatives
+// (DDD when third is set).
+//
+// A term v = n δ^d τ^t exp(−δ^c) has, with e = c δ^c and y = d − e,
+//
+//	δ v_δ/v = y,  δ² v_δδ/v = y(y−1) − ce,
+//	δ³ v_δδδ/v = y(y−1)(y−2) − 3ce(y−1) − c²e,
+//
+// which expand in powers of e with the falling factorials d, d(d−1) and
+// d(d−1)(d−2) (expGroup and below): a group of one c needs only the sums
+// of v times these, v t, v t(t−1) and v t d (polySums). The falling
+// factorials vanish for the terms that do not contribute (d = 1 to the
+// second, d ≤ 2 to the third derivative), so that at small δ the sums do
+// not cancel.
+func (r *Residual) polyEval(delta, tau float64, third bool) Derivs {
+	// One array of slots holds the powers of τ and of δ.
+	var pv [maxSlots]float64
+	r.tp.eval(&pv, tau)
+	r.dp.eval(&pv, delta)
 	// Scaled sums: a, δα_δ, δ²α_δδ, δ³α_δδδ, τα_τ, τ²α_ττ, δτα_δτ.
-	//
-	// A term v = n δ^d τ^t exp(−δ^c) has, with e = c δ^c and y = d − e,
-	//	δ v_δ/v = y,  δ² v_δδ/v = y(y−1) − ce,
-	//	δ³ v_δδδ/v = y(y−1)(y−2) − 3ce(y−1) − c²e,
-	// so a group of one c needs only the sums of v d^k (k = 0..3), v t,
-	// v t(t−1) and v t d, from which Σ v y^k follow exactly.
 	var a, d1, d2, d3, t1, t2, dt float64
-	for gi := range r.groups {
-		g := &r.groups[gi]
-		var s0, s1, s2, s3, r1, r2, q float64
-		for i := g.lo; i < g.hi; i++ {
-			p := &r.terms[i]
-			v := p.n * tv[p.k] * dpow[p.d]
-			s0 += v
-			s1 += v * p.fd
-			s2 += v * p.d2
-			s3 += v * p.d3
-			r1 += v * p.t
-			r2 += v * p.tt1
-			q += v * p.td
-		}
-		if g.c > 0 {
-			u := dpow[g.c]
-			ex := math.Exp(-u)
-			s0, s1, s2, s3 = s0*ex, s1*ex, s2*ex, s3*ex
-			r1, r2, q = r1*ex, r2*ex, q*ex
-			fc := float64(g.c)
-			e := fc * u
-			m1 := s1 - e*s0
-			m2 := s2 - 2*e*s1 + e*e*s0
-			m3 := s3 - 3*e*s2 + 3*e*e*s1 - e*e*e*s0
-			a += s0
-			d1 += m1
-			d2 += m2 - m1 - fc*e*s0
-			d3 += m3 - 3*m2 + 2*m1 - 3*fc*e*(m1-s0) - fc*fc*e*s0
-			t1 += r1
-			t2 += r2
-			dt += q - e*r1
-		} else {
+	for ci := range r.cgroups {
+		cg := &r.cgroups[ci]
+		s0, s1, s2, s3, r1, r2, q := polySums(r.full[cg.flo:cg.fhi], &pv)
+		if cg.c == 0 {
 			a += s0
 			d1 += s1
-			d2 += s2 - s1
-			d3 += s3 - 3*s2 + 2*s1
+			d2 += s2
+			d3 += s3
 			t1 += r1
 			t2 += r2
 			dt += q
+			continue
 		}
+		u := pv[cg.k&(maxSlots-1)]
+		ex := elem.Exp(-u)
+		e := cg.fc * u
+		ga, g1, g2 := expGroup(cg.fc, e, ex, s0, s1, s2)
+		a += ga
+		d1 += g1
+		d2 += g2
+		if third {
+			fc := cg.fc
+			// Σ v (y(y−1)(y−2) − 3ce(y−1) − c²e), collected by sums so
+			// that nothing cancels at small e.
+			d3 += (s3 - 3*e*s2 + 3*e*((1-fc)+e)*s1 +
+				e*(3*(fc-1)*e-(fc-1)*(fc-2)-e*e)*s0) * ex
+		}
+		r1, r2, q = r1*ex, r2*ex, q*ex
+		t1 += r1
+		t2 += r2
+		dt += q - e*r1
 	}
+	if !third {
+		d3 = 0
+	}
+	return scaled(delta, tau, a, d1, d2, d3, t1, t2, dt)
+}
+
+// scaled returns the derivatives from the scaled sums a, δα_δ, δ²α_δδ,
+// δ³α_δδδ, τα_τ, τ²α_ττ and δτα_δτ.
+func scaled(delta, tau, a, d1, d2, d3, t1, t2, dt float64) Derivs {
+	id, it := 1/delta, 1/tau
+	return Derivs{A: a, D: d1 * id, DD: d2 * id * id, DDD: d3 * id * id * id,
+		T: t1 * it, TT: t2 * it * it, DT: dt * id * it}
+}
+
+// gaussEval returns the Gaussian terms and their derivatives (DDD when
+// third is set).
+func (r *Residual) gaussEval(delta, tau float64, third bool) Derivs {
+	var pv [maxSlots]float64
+	r.gtp.eval(&pv, tau)
+	r.gdp.eval(&pv, delta)
+	var a, d1, d2, d3, t1, t2, dt, eg float64
 	for i := range r.gauss {
 		g := &r.gauss[i]
 		dd := delta - g.Epsilon
 		tt := tau - g.Gamma
-		v := g.N * dpow[g.D] * tv[r.gix[i]] * math.Exp(-g.Alpha*dd*dd-g.Beta*tt*tt)
-		fd := float64(g.D)
-		// δ f'/f, δ²f''/f, δ³f'''/f for f = δ^d exp(−α(δ−ε)²); likewise in τ.
-		ad2 := 2 * g.Alpha * delta * delta
-		q1 := fd - 2*g.Alpha*delta*dd
-		q2 := q1*q1 - fd - ad2
-		q3 := q1*q1*q1 - 3*q1*(fd+ad2) + 2*fd
-		k1 := g.T - 2*g.Beta*tau*tt
-		k2 := k1*k1 - g.T - 2*g.Beta*tau*tau
+		if !g.same {
+			eg = elem.Exp(-g.Alpha*dd*dd - g.Beta*tt*tt)
+		}
+		v := g.N * pv[g.kd&(maxSlots-1)] * pv[g.kt&(maxSlots-1)] * eg
+		q1, q2, w, ad2 := g.deltaFactors(delta, dd)
+		// τf_τ/f and τ²f_ττ/f for f = τ^t exp(−β(τ−γ)²), likewise.
+		wt := -2 * g.Beta * tau * tt
+		k1 := g.T + wt
+		k2 := g.T*(g.T-1) + 2*g.T*wt + wt*wt - 2*g.Beta*tau*tau
 		a += v
 		d1 += v * q1
 		d2 += v * q2
-		d3 += v * q3
+		if third {
+			fd := g.fd
+			d3 += v * (fd*(fd-1)*(fd-2) + 3*fd*(fd-1)*w + 3*fd*(w*w-ad2) + w*w*w - 3*ad2*w)
+		}
 		t1 += v * k1
 		t2 += v * k2
 		dt += v * q1 * k1
 	}
-	id, it := 1/delta, 1/tau
-	out := Derivs{
-		A:   a,
-		D:   d1 * id,
-		DD:  d2 * id * id,
-		DDD: d3 * id * id * id,
-		T:   t1 * it,
-		TT:  t2 * it * it,
-		DT:  dt * id * it,
-	}
-	if len(r.na) > 0 {
-		out = out.Add(r.evalNonAnalytic(delta, tau))
-	}
-	return out
+	return scaled(delta, tau, a, d1, d2, d3, t1, t2, dt)
 }
 
-// evalNonAnalytic returns the sum of the nonanalytic terms and their plain
-// derivatives. It is valid at δ = 0 too, where it gives the limits.
+// polySums returns the sums over the terms v = n δ^d τ^t of ts of v,
+// v d, v d(d−1), v d(d−1)(d−2), v t, v t(t−1) and v t d, with the powers
+// of τ and δ from the slots pv. (A function of its own, so that its loop
+// keeps the seven sums in registers.)
+func polySums(ts []fullTerm, pv *[maxSlots]float64) (s0, s1, s2, s3, r1, r2, q float64) {
+	for i := range ts {
+		p := &ts[i]
+		v := p.n * pv[p.kt&(maxSlots-1)] * pv[p.kd&(maxSlots-1)]
+		s0 += v
+		s1 += v * p.fd
+		s2 += v * p.w2
+		s3 += v * p.w3
+		r1 += v * p.t
+		r2 += v * p.tt1
+		q += v * p.td
+	}
+	return s0, s1, s2, s3, r1, r2, q
+}
+
+// deltaFactors returns δf'/f and δ²f”/f for f = δ^d exp(−α(δ−ε)²), with
+// w = −2αδ(δ−ε) and 2αδ², from which δ³f”'/f follows; dd = δ − ε. In
+// falling factorials of d and powers of w:
 //
-// Consecutive terms of the same shape (β, a, A, B) share θ, Δ and ln Δ,
-// and those with the same (C, D) share ψ, so a family of terms costs one
-// power and one logarithm plus one exponential per term.
-func (r *Residual) evalNonAnalytic(delta, tau float64) Derivs {
-	var out Derivs
-	x := delta - 1
-	ax := math.Abs(x)
-	sx := 1.0
-	if x < 0 {
-		sx = -1
-	}
-	y := tau - 1
-	singular := false
-	minB, nMinB := math.Inf(1), 0.0
-
-	// Shape values, reused while the shape repeats.
-	var prev *NonAnalytic
-	var dl, dlx, dlxx, dlxxx, dlt, dlxt, lnDl float64
-	var psi, psix, psixx, psixxx, psit, psitt, psixt float64
-	for i := range r.na {
-		q := &r.na[i]
-		if prev == nil || q.Beta != prev.Beta || q.SmallA != prev.SmallA || q.A != prev.A || q.B != prev.B {
-			ib := 1 / q.Beta
-			// |x|^(1/β − k) and |x|^(2a − k), k = 0..3; zero at x = 0
-			// since 1/β > 3 and 2a > 3.
-			var p0, p1, p2, p3, s0, s1, s2, s3 float64
-			if ax > 0 {
-				p0 = powBeta(ax, ib)
-				p1 = p0 / ax
-				p2 = p1 / ax
-				p3 = p2 / ax
-				if n := r.na2a[i]; n >= 0 {
-					s0 = ipow(ax, n)
-				} else {
-					s0 = math.Pow(ax, 2*q.SmallA)
-				}
-				s1 = s0 / ax
-				s2 = s1 / ax
-				s3 = s2 / ax
-			}
-			th := -y + q.A*p0
-			thx := q.A * ib * p1 * sx
-			thxx := q.A * ib * (ib - 1) * p2
-			thxxx := q.A * ib * (ib - 1) * (ib - 2) * p3 * sx
-			ta := 2 * q.SmallA
-			dl = th*th + q.B*s0
-			dlx = 2*th*thx + q.B*ta*s1*sx
-			dlxx = 2*thx*thx + 2*th*thxx + q.B*ta*(ta-1)*s2
-			dlxxx = 6*thx*thxx + 2*th*thxxx + q.B*ta*(ta-1)*(ta-2)*s3*sx
-			dlt = -2 * th
-			dlxt = -2 * thx
-			if dl > 0 {
-				lnDl = math.Log(dl)
-			}
-		}
-		if prev == nil || q.C != prev.C || q.D != prev.D {
-			psi = math.Exp(-q.C*x*x - q.D*y*y)
-			psix = -2 * q.C * x * psi
-			psixx = (4*q.C*q.C*x*x - 2*q.C) * psi
-			psixxx = (12*q.C*q.C*x - 8*q.C*q.C*q.C*x*x*x) * psi
-			psit = -2 * q.D * y * psi
-			psitt = (4*q.D*q.D*y*y - 2*q.D) * psi
-			psixt = 4 * q.C * q.D * x * y * psi
-		}
-		prev = q
-
-		b := q.SmallB
-		var f, fx, fxx, fxxx, ft, ftt, fxt float64
-		if dl > 0 {
-			f = math.Exp(b * lnDl)
-			r1 := dlx / dl
-			rt := dlt / dl
-			rxx := dlxx / dl
-			fx = f * b * r1
-			fxx = f * (b*(b-1)*r1*r1 + b*rxx)
-			fxxx = f * (b*(b-1)*(b-2)*r1*r1*r1 + 3*b*(b-1)*r1*rxx + b*dlxxx/dl)
-			ft = f * b * rt
-			ftt = f * (b*(b-1)*rt*rt + 2*b/dl)
-			fxt = f * (b*(b-1)*r1*rt + b*dlxt/dl)
-		} else {
-			// Δ = 0 only at δ = τ = 1: every derivative of Δ^b but the
-			// second τ-derivative tends to 0 there, and that one to +Inf.
-			singular = true
-			if b < minB {
-				minB, nMinB = b, q.N
-			} else if b == minB {
-				nMinB += q.N
-			}
-		}
-
-		g := delta * psi
-		gx := psi + delta*psix
-		gxx := 2*psix + delta*psixx
-		gxxx := 3*psixx + delta*psixxx
-		gt := delta * psit
-		gtt := delta * psitt
-		gxt := psit + delta*psixt
-
-		n := q.N
-		out.A += n * f * g
-		out.D += n * (fx*g + f*gx)
-		out.DD += n * (fxx*g + 2*fx*gx + f*gxx)
-		out.DDD += n * (fxxx*g + 3*fxx*gx + 3*fx*gxx + f*gxxx)
-		out.T += n * (ft*g + f*gt)
-		out.TT += n * (ftt*g + 2*ft*gt + f*gtt)
-		out.DT += n * (fxt*g + fx*gt + ft*gx + f*gxt)
-	}
-	if singular {
-		out.TT = math.Copysign(math.Inf(1), nMinB)
-	}
-	return out
+//	δf'/f = d + w,  δ²f''/f = d(d−1) + 2dw + w² − 2αδ²,
+//	δ³f'''/f = d(d−1)(d−2) + 3d(d−1)w + 3d(w² − 2αδ²) + w³ − 6αδ²w.
+func (g *gaussTerm) deltaFactors(delta, dd float64) (q1, q2, w, ad2 float64) {
+	ad2 = 2 * g.Alpha * delta * delta
+	w = -2 * g.Alpha * delta * dd
+	fd := g.fd
+	return fd + w, fd*(fd-1) + 2*fd*w + w*w - ad2, w, ad2
 }
 
-// powBeta returns x^e for x > 0, with e = 1/β; the published equations
-// have β = 0.3, e = 10/3, where x³·∛x is exact to rounding and several
-// times faster than math.Pow.
-func powBeta(x, e float64) float64 {
-	if e == 10.0/3 {
-		return x * x * x * math.Cbrt(x)
-	}
-	return math.Pow(x, e)
-}
-
-// ipow returns x^n for n ≥ 0 by repeated squaring.
-func ipow(x float64, n int) float64 {
-	p := 1.0
-	for n > 0 {
-		if n&1 != 0 {
-			p *= x
-		}
-		x *= x
-		n >>= 1
-	}
-	return p
+// expGroup returns the scaled sums a, δα_δ and δ²α_δδ of a group of
+// terms with the factor ex = exp(−δ^c), e = c δ^c, from the plain sums
+// s0 = Σ n δ^d τ^t, s1 = Σ … d, s2 = Σ … d(d−1):
+//
+//	Σ v y = s1 − e s0,  Σ v (y(y−1) − ce) = s2 − 2e s1 + e((1 − c) + e) s0,
+//
+// with 1 − c, an integer, added to e last, so that c = 1 does not round e
+// away.
+func expGroup(fc, e, ex, s0, s1, s2 float64) (a, d1, d2 float64) {
+	return s0 * ex, (s1 - e*s0) * ex, (s2 - 2*e*s1 + e*((1-fc)+e)*s0) * ex
 }
 
 // DeltaLimits returns the limits of ∂αʳ/∂δ and ∂²αʳ/∂δ² as δ → 0 at τ.
 // Divided by ρc and ρc², they are the second and third virial
 // coefficients.
 func (r *Residual) DeltaLimits(tau float64) (d, dd float64) {
-	for _, g := range r.groups {
-		for _, p := range r.terms[g.lo:g.hi] {
-			v := p.n * math.Pow(tau, p.t)
-			// δ^d exp(−δ^c) = δ^d − δ^(d+c) + …
-			if p.d == 1 {
-				d += v
-			}
-			if p.d == 2 {
-				dd += 2 * v
-			}
-			if g.c > 0 && int(p.d)+g.c == 2 {
-				dd -= 2 * v
-			}
+	poly := func(n float64, dexp int, t float64, c int) {
+		v := n * math.Pow(tau, t)
+		// δ^d exp(−δ^c) = δ^d − δ^(d+c) + …
+		if dexp == 1 {
+			d += v
+		}
+		if dexp == 2 {
+			dd += 2 * v
+		}
+		if c > 0 && dexp+c == 2 {
+			dd -= 2 * v
 		}
 	}
-	for i := range r.gauss {
-		g := &r.gauss[i]
+	for _, p := range r.src.Power {
+		poly(p.N, p.D, p.T, 0)
+	}
+	for _, p := range r.src.Exponential {
+		poly(p.N, p.D, p.T, p.C)
+	}
+	for _, g := range r.src.Gaussian {
 		tt := tau - g.Gamma
 		// δ^d exp(−α(δ−ε)²) = e0 δ^d (1 + 2αε δ + …)
 		v := g.N * math.Pow(tau, g.T) * math.Exp(-g.Alpha*g.Epsilon*g.Epsilon-g.Beta*tt*tt)
@@ -475,7 +514,7 @@ func (r *Residual) DeltaLimits(tau float64) (d, dd float64) {
 		}
 	}
 	if len(r.na) > 0 {
-		e := r.evalNonAnalytic(0, tau)
+		e := r.evalNonAnalytic(0, tau, false)
 		d += e.D
 		dd += e.DD
 	}
