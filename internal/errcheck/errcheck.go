@@ -17,9 +17,10 @@ import (
 	"github.com/tripoint-thermo/tripoint/fluid"
 )
 
-// opPrefix matches the start of a message of an operation of tripoint,
-// e.g. "fluid.Props: ".
-var opPrefix = regexp.MustCompile(`\b(fluid|flash|sublimation|partial|transport)\.[A-Za-z.]+: `)
+// opPrefix matches the start of a message of an operation of tripoint
+// with its inputs, e.g. "fluid.Props: T = ": twice in one message, an
+// inner error's inputs are repeated.
+var opPrefix = regexp.MustCompile(`\b(fluid|flash|sublimation|partial|transport)\.[A-Za-z.]+: [A-Za-z]+ = `)
 
 // Case is one bad call.
 type Case struct {
@@ -92,7 +93,7 @@ func Check(c Case) (fault string) {
 		faults = append(faults, "an out-of-range error whose range names no bound")
 	}
 	if len(opPrefix.FindAllString(msg, -1)) > 1 {
-		faults = append(faults, "a message inside another (the inner error's operation and inputs repeated)")
+		faults = append(faults, "a message inside another (the inner error's inputs repeated)")
 	}
 	for i := 0; i < len(msg); i++ {
 		if msg[i] < 0x20 || msg[i] >= 0x7f {
