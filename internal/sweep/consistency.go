@@ -53,6 +53,7 @@ func relErr(a, b, scale float64) float64 {
 
 // consistency runs the consistency checks on a forward state.
 func (s *setup) consistency(c *tcase, st *flash.State, r *result, rep func() string) {
+	r.at.failing = "consistency"
 	if st.Flags&fluid.AtCritical != 0 {
 		return
 	}

@@ -109,6 +109,12 @@ func (s *setup) judgePT(p, T float64, c *tcase) verdict {
 			return verdict{must: mayRefuse}
 		}
 		v := verdict{must: mustState, want: fluidWant, fluid: true}
+		if s.hasSolid && p > s.meltPMax*(1-1e-9) && T < s.tp.T {
+			// Beyond the solid model (ice Ih ends at 208.566 MPa): the
+			// flashes do not place a supercooled liquid there (package
+			// flash, "Solid regions and their limits").
+			v.must = mayRefuse
+		}
 		v.meta = pr.Flags&fluid.Metastable != 0
 		if s.hasSolid {
 			if sp, err := s.sol.Props(T, p); err == nil && (sp.G-pr.G)/(s.R*T) < -gibbsBand {
@@ -122,6 +128,13 @@ func (s *setup) judgePT(p, T float64, c *tcase) verdict {
 			return verdict{must: mustRefuse}
 		}
 		return verdict{must: mustState, want: fluidWant, fluid: true}
+	}
+	if p > s.meltPMax*(1-1e-9) {
+		// At and above the end of the model's melting curve (ice Ih:
+		// 208.566 MPa, where ice III appears; dry ice: 800 MPa) the
+		// flashes may refuse (package flash: "Solid regions and their
+		// limits"); what they return must be the fluid or the solid.
+		return verdict{must: mayRefuse, want: fluidWant | phases(flash.Solid)}
 	}
 	sp, serr := s.sol.Props(T, p)
 	switch {

@@ -26,10 +26,14 @@ const (
 
 var failNames = [nFail]string{"refused", "accepted", "phase", "invalid", "panic", "residual", "error", "consistency"}
 
-// failure is one failure, with a reproducer.
+// failure is one failure, with a reproducer: its kind, the region of its
+// case, the forward flash and the flash that failed (the forward one, or
+// an inverse), and the report.
 type failure struct {
-	kind failKind
-	text string
+	kind             failKind
+	region           region
+	forward, failing string
+	text             string
 }
 
 // worst is the largest value of a measure and where it was seen.
@@ -112,6 +116,12 @@ type result struct {
 	errSeen   map[string]int         // sentinel of refusals, by flash
 	maxFirst  int                    // how many failures of each kind to keep
 	fluidName string                 // for reproducers
+	// at is where the checks are: the case's region, its forward flash
+	// and the flash being judged (for failure records).
+	at struct {
+		region           region
+		forward, failing string
+	}
 }
 
 func newResult(fluidName string, maxFirst int) *result {
@@ -121,7 +131,7 @@ func newResult(fluidName string, maxFirst int) *result {
 func (r *result) fail(k failKind, format string, args ...any) {
 	r.fails[k]++
 	if len(r.first[k]) < r.maxFirst {
-		r.first[k] = append(r.first[k], failure{k, fmt.Sprintf(format, args...)})
+		r.first[k] = append(r.first[k], failure{k, r.at.region, r.at.forward, r.at.failing, fmt.Sprintf(format, args...)})
 	}
 }
 
@@ -174,6 +184,7 @@ func sentinelName(err error) string {
 func (s *setup) runCase(c *tcase, r *result) {
 	r.cases++
 	fw := forward[c.kind]
+	r.at.region, r.at.forward, r.at.failing = c.region, fw.name, fw.name
 	opt := c.options()
 	st, err, pan := call(fw.fn, s.f, c.a, c.b, opt)
 	r.flashes++
@@ -301,6 +312,7 @@ func (s *setup) inverses(c *tcase, st *flash.State, r *result) {
 			continue
 		}
 		a, b := valueOf(st, inv.a), valueOf(st, inv.b)
+		r.at.failing = inv.name
 		got, err, pan := call(inv.fn, s.f, a, b, opt)
 		r.flashes++
 		rep := func() string {
