@@ -177,28 +177,14 @@ func sq(n float64) int { return max(int(math.Sqrt(n)), 2) }
 // all.
 func (s *setup) cases(n float64, want [nRegions]bool) []tcase {
 	var out []tcase
+	grids := [nRegions]func([]tcase, float64) []tcase{
+		rFluid: s.fluidGrid, rSupercritical: s.supercriticalGrid, rCritical: s.criticalGrid,
+		rSaturation: s.saturationGrid, rTriple: s.tripleGrid, rMetastable: s.metastableGrid,
+		rSolid: s.solidGrid, rLimits: s.limitsGrid,
+	}
 	for r := range nRegions {
-		if !want[r] {
-			continue
-		}
-		m := n * regionWeights[r]
-		switch r {
-		case rFluid:
-			out = s.fluidGrid(out, m)
-		case rSupercritical:
-			out = s.supercriticalGrid(out, m)
-		case rCritical:
-			out = s.criticalGrid(out, m)
-		case rSaturation:
-			out = s.saturationGrid(out, m)
-		case rTriple:
-			out = s.tripleGrid(out, m)
-		case rMetastable:
-			out = s.metastableGrid(out, m)
-		case rSolid:
-			out = s.solidGrid(out, m)
-		case rLimits:
-			out = s.limitsGrid(out, m)
+		if want[r] {
+			out = grids[r](out, n*regionWeights[r])
 		}
 	}
 	return out

@@ -270,24 +270,19 @@ func (s *setup) judgeSat(x, q float64, atP bool) verdict {
 	case x == hi:
 		return verdict{must: mustState, want: fluidPhases} // AtCritical
 	}
-	fluidSide := func() phaseSet {
+	// byQ: q = 0 is the condensed phase alone, q = 1 the vapour, else
+	// the mixture.
+	byQ := func(condensed, mixture flash.Phase) phaseSet {
 		switch q {
 		case 0:
-			return phases(flash.Liquid)
+			return phases(condensed)
 		case 1:
 			return phases(flash.Vapor)
 		}
-		return phases(flash.TwoPhase)
+		return phases(mixture)
 	}
-	solidSide := func() phaseSet {
-		switch q {
-		case 0:
-			return phases(flash.Solid)
-		case 1:
-			return phases(flash.Vapor)
-		}
-		return phases(flash.SolidVapor)
-	}
+	fluidSide := func() phaseSet { return byQ(flash.Liquid, flash.TwoPhase) }
+	solidSide := func() phaseSet { return byQ(flash.Solid, flash.SolidVapor) }
 	d := (x - xt) / xt
 	switch {
 	case d < -10*tol:
