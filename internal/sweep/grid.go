@@ -140,9 +140,12 @@ func linspace(lo, hi float64, n int) []float64 {
 }
 
 // offsets returns x·(1 + e) for e = 0 and ±10^k, k from kLo to kHi.
-func offsets(x float64, kLo, kHi int) []float64 {
+func offsets(x float64, kLo, kHi int) []float64 { return offsetsBy(x, kLo, kHi, 1) }
+
+// offsetsBy is offsets with every step-th exponent.
+func offsetsBy(x float64, kLo, kHi, step int) []float64 {
 	out := []float64{x}
-	for k := kLo; k <= kHi; k++ {
+	for k := kLo; k <= kHi; k += step {
 		e := math.Pow(10, float64(k))
 		out = append(out, x*(1+e), x*(1-e))
 	}
@@ -468,6 +471,13 @@ func (s *setup) solidGrid(out []tcase, m float64) []tcase {
 func (s *setup) limitsGrid(out []tcase, m float64) []tcase {
 	l, c := s.lim, s.crit
 	k := max(int(m/12), 4)
+	// Small sweeps (the tests) take every third exponent of the offsets
+	// and fewer qualities; from m = 2000 on, all of them.
+	step, nq := 1, 12
+	if m < 2000 {
+		step, nq = 3, 4
+	}
+	offsets := func(x float64, kLo, kHi int) []float64 { return offsetsBy(x, kLo, kHi, step) }
 	Ts := logspace(l.TFloor, l.TCeil, k)
 	ps := logspace(1, l.PCeil, k)
 	for _, T := range append(offsets(l.TFloor, -12, -3), offsets(l.TCeil, -12, -3)...) {
@@ -490,7 +500,7 @@ func (s *setup) limitsGrid(out []tcase, m float64) []tcase {
 	if s.hasSolid {
 		Tfl, pfl = l.TFloor, s.subPFloor
 	}
-	for _, q := range qualities(12) {
+	for _, q := range qualities(nq) {
 		for _, T := range append(offsets(Tfl, -12, -3), offsets(c.T, -15, -3)...) {
 			out = append(out, tcase{region: rLimits, kind: kTQ, a: T, b: q})
 		}
