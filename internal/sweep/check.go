@@ -239,6 +239,9 @@ func (s *setup) invalid(st *flash.State) string {
 	if math.Abs(sum-1) > 1e-12 || math.Abs(st.Solid-xs) > 1e-12 || math.Abs(st.Quality-xv) > 1e-12 {
 		return "fractions, Quality or Solid do not add up"
 	}
+	if why := s.wholeOfPhases(st); why != "" {
+		return why
+	}
 	ok := true
 	p := &st.Phases
 	switch st.Phase {
@@ -262,6 +265,33 @@ func (s *setup) invalid(st *flash.State) string {
 	}
 	if !ok {
 		return "the phases do not match Phase " + st.Phase.String()
+	}
+	return ""
+}
+
+// wholeOfPhases checks that the state's ρ, h, s and u are those of its
+// phases (flash.State: 1/ρ = Σ xᵢ/ρᵢ, h = Σ xᵢhᵢ, ...) to 1e-9 of their
+// scales: a state that echoes its inputs but whose phases are another
+// state fails here, although it reproduces the inputs.
+func (s *setup) wholeOfPhases(st *flash.State) string {
+	var v, h, en, u float64
+	for i := 0; i < st.N; i++ {
+		ph := &st.Phases[i]
+		v += ph.Fraction / ph.Rho
+		h += ph.Fraction * ph.H
+		en += ph.Fraction * ph.S
+		u += ph.Fraction * ph.U
+	}
+	e := s.R * s.crit.T
+	switch {
+	case math.Abs(1/st.Rho-v) > 1e-9*v:
+		return fmt.Sprintf("rho = %.17g is not that of its phases (%.17g)", st.Rho, 1/v)
+	case math.Abs(st.H-h) > 1e-9*max(math.Abs(h), e):
+		return fmt.Sprintf("h = %.17g is not that of its phases (%.17g)", st.H, h)
+	case math.Abs(st.S-en) > 1e-9*max(math.Abs(en), s.R):
+		return fmt.Sprintf("s = %.17g is not that of its phases (%.17g)", st.S, en)
+	case math.Abs(st.U-u) > 1e-9*max(math.Abs(u), e):
+		return fmt.Sprintf("u = %.17g is not that of its phases (%.17g)", st.U, u)
 	}
 	return ""
 }

@@ -258,7 +258,10 @@ func (s *setup) clapeyron(c *tcase, st *flash.State, r *result, rep func() strin
 	default:
 		return
 	}
-	h := min(1e-3*T, (hi-T)/4) // central where it fits, else forward
+	// Steps well inside the scale on which the curve bends (its distance
+	// to the critical point, where p'' grows without bound): central
+	// where it fits, else forward.
+	h := min(1e-3*T, (hi-T)/40)
 	if h < 1e-5 {
 		r.skipped++
 		return
