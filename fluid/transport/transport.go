@@ -1,6 +1,7 @@
 package transport
 
 import (
+	"errors"
 	"strconv"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
@@ -225,7 +226,7 @@ func (m *model) fill(op string, f *fluid.Fluid, s *state, T, rho float64) error 
 	}
 	p, err := f.Props(T, rho)
 	if err != nil {
-		return fluid.NewError(op, err, "", inputs(T, rho)...)
+		return rewrap(op, err, inputs(T, rho))
 	}
 	if p.Flags&fluid.AtCritical != 0 {
 		return fluid.NewError(op, fluid.ErrUndefined,
@@ -268,6 +269,17 @@ func SurfaceTension(f *fluid.Fluid, T float64) (float64, error) {
 			fmtG(m.sigmaLo)+" <= T <= "+fmtG(m.sigmaHi)+" K", in)
 	}
 	return m.sigma(T), nil
+}
+
+// rewrap returns err, an error of package fluid, as an error of op with
+// the inputs of the call, keeping its sentinel and explanation (so that
+// the message names the inputs once).
+func rewrap(op string, err error, in []fluid.Input) error {
+	var fe *fluid.Error
+	if errors.As(err, &fe) {
+		return fluid.NewError(op, fe.Err, fe.Range, in...)
+	}
+	return fluid.NewError(op, err, "", in...)
 }
 
 func what(w which) string {
