@@ -134,9 +134,13 @@ func TestErrorCatalogue(t *testing.T) {
 	add(water, byOp(water, "PQ"), 0.01, 0.5, none, fluid.ErrOutOfRange, "below the vapour floor")
 	add(co2, byOp(co2, "PQ"), 10, 0.5, none, fluid.ErrOutOfRange, "below the vapour floor")
 	// Beyond the solid models (DESIGN.md: ice Ih ends at 208.566 MPa, dry
-	// ice at 800 MPa).
-	add(water, byOp(water, "PT"), 250e6, 250, none, fluid.ErrOutOfRange, "beyond ice Ih")
-	add(water, byOp(water, "PT"), 300e6, 260, none, fluid.ErrOutOfRange, "liquid below 273.16 K beyond ice Ih")
+	// ice at 800 MPa); the liquid above 208.566 MPa ends at the melting
+	// curves of ices III, V, VI and VII (IAPWS R14-08: ice III melts at
+	// 253.3 K at 250 MPa, ice V at 260 K near 403 MPa, ice VI at 300 K near
+	// 996 MPa).
+	add(water, byOp(water, "PT"), 250e6, 250, none, fluid.ErrOutOfRange, "beyond ice Ih, in ice III")
+	add(water, byOp(water, "PT"), 450e6, 260, none, fluid.ErrOutOfRange, "liquid beyond ice V")
+	add(water, byOp(water, "PT"), 1e9, 300, none, fluid.ErrOutOfRange, "liquid beyond ice VI")
 	add(co2, byOp(co2, "PT"), 900e6, 200, none, fluid.ErrOutOfRange, "beyond dry ice")
 	add(co2, byOp(co2, "PH"), 900e6, -800e3, none, fluid.ErrOutOfRange, "beyond dry ice")
 	// The solid region of a fluid without a solid model (R-134a).
