@@ -97,10 +97,9 @@ func newWith(f *fluid.Fluid, r Range, res resolution) (*Table, error) {
 	if err := b.run(); err != nil {
 		return nil, err
 	}
-	for _, ss := range [][]slab{t.sph, t.spt, t.sdu} {
-		for i := range ss {
-			t.bytes += ss[i].size()
-		}
+	for _, ts := range []*tables{&t.ph, &t.pt, &t.du} {
+		ts.join()
+		t.bytes += ts.size()
 	}
 	t.bytes += t.sat.size()
 	return t, nil
@@ -177,10 +176,10 @@ func (b *builder) resolve(r Range) error {
 	if err != nil {
 		return b.fail("saturation at the triple point", err)
 	}
-	t.pt = st.P
+	t.ptr = st.P
 	d := defaults(f)
 	if d.PMin == 0 {
-		d.PMin = t.pt
+		d.PMin = t.ptr
 	}
 	if r.PMin == 0 {
 		r.PMin = d.PMin
@@ -223,7 +222,7 @@ func (b *builder) resolve(r Range) error {
 		return bad(fluid.ErrOutOfRange, "the range must enclose the critical neighbourhood: PMin < "+
 			fmtG(t.nb.p1)+" Pa, PMax > "+fmtG(t.nb.p2)+" Pa, TMin < "+fmtG(t.nb.t1)+" K, TMax > "+
 			fmtG(t.nb.t2)+" K")
-	case r.PMin < t.pt && b.hasSolid:
+	case r.PMin < t.ptr && b.hasSolid:
 		// The vapour below the triple point must reach TMin or the
 		// sublimation curve.
 		if _, err := b.sol.SublimationTemperature(r.PMin); err != nil && r.TMin < t.tt {
@@ -288,8 +287,8 @@ func (b *builder) pDefs() []pdef {
 		pIso = pr.P
 		br = append(br, pIso)
 	}
-	if t.pt > r.PMin {
-		br = append(br, t.pt)
+	if t.ptr > r.PMin {
+		br = append(br, t.ptr)
 	}
 	if b.hasSolid && math.Abs(r.TMin-t.tt) > 1e-9*t.tt {
 		if co, err := b.sol.MeltingPressure(r.TMin); err == nil {
@@ -316,7 +315,7 @@ func (b *builder) pDefs() []pdef {
 		pm := math.Sqrt(pa * pb)
 		d := pdef{pa: pa, pb: pb}
 		switch {
-		case pm < t.pt:
+		case pm < t.ptr:
 			d.kind = pBelow
 		case pm < t.nb.p1:
 			d.kind = pSub
@@ -342,8 +341,8 @@ func nodes(width, step float64) int {
 // pSlabs queues the slabs in ln p of PH (boundaries in h) and PT (in T).
 func (b *builder) pSlabs(defs []pdef) {
 	t := b.t
-	t.sph = make([]slab, len(defs))
-	t.spt = make([]slab, len(defs))
+	t.ph.slabs = make([]slab, len(defs))
+	t.pt.slabs = make([]slab, len(defs))
 	for n, d := range defs {
 		top := bcurve{kind: cIsotherm, c: t.r.TMax}
 		var cs []bcurve
@@ -364,8 +363,8 @@ func (b *builder) pSlabs(defs []pdef) {
 			props [maxProps]prop
 			out   *slab
 		}{
-			{vH, [maxProps]prop{{vT, pIdent}, {vRho, pIdent}, {vS, pIdent}, cpProp, cvProp, wProp}, &t.sph[n]},
-			{vT, [maxProps]prop{{vH, pIdent}, {vRho, pIdent}, {vS, pIdent}, cpProp, cvProp, wProp}, &t.spt[n]},
+			{vH, [maxProps]prop{{vT, pIdent}, {vRho, pIdent}, {vS, pIdent}, cpProp, cvProp, wProp}, &t.ph.slabs[n]},
+			{vT, [maxProps]prop{{vH, pIdent}, {vRho, pIdent}, {vS, pIdent}, cpProp, cvProp, wProp}, &t.pt.slabs[n]},
 		} {
 			s := &sbuild{b: b, a: vP, v: fl.v, aa: d.pa, ab: d.pb, dx0: b.res.dx0, curves: cs}
 			liq := colSpec{a: vP, b: fl.v, props: fl.props}

@@ -49,7 +49,7 @@ func (b *builder) dSlabs(defs []pdef) error {
 	// below the triple point, else the saturated vapour.
 	var lowMin bpoint
 	var err error
-	if r.PMin < t.pt {
+	if r.PMin < t.ptr {
 		lowMin, err = b.atP(defs[0].low, r.PMin, nil)
 	} else {
 		lowMin, err = b.atP(bcurve{kind: cSatVapor}, r.PMin, nil)
@@ -75,7 +75,7 @@ func (b *builder) dSlabs(defs []pdef) error {
 		add(&lower, d.low, a, z, bandOut)
 	}
 	satAt := func(kind curveKind, p float64) (bpoint, error) { return b.atP(bcurve{kind: kind}, p, nil) }
-	pLow := max(r.PMin, t.pt)
+	pLow := max(r.PMin, t.ptr)
 	v0, err1 := satAt(cSatVapor, pLow)
 	v1, err2 := satAt(cSatVapor, t.nb.p1)
 	l1, err3 := satAt(cSatLiquid, t.nb.p1)
@@ -152,7 +152,7 @@ func (b *builder) dSlabs(defs []pdef) error {
 		}
 		return -1
 	}
-	t.sdu = make([]slab, len(ends)-1)
+	t.du.slabs = make([]slab, len(ends)-1)
 	// Each piece's state at the start of each slab, marching up in ρ.
 	at := func(ps []dpiece, k int, rho float64) (bpoint, error) {
 		bp, err := b.atRho(ps[k].c, rho, &ps[k].start)
@@ -165,7 +165,7 @@ func (b *builder) dSlabs(defs []pdef) error {
 		ra, rb := ends[n], ends[n+1]
 		rm := math.Sqrt(ra * rb)
 		lo, hi := pieceAt(lower, rm), pieceAt(upper, rm)
-		out := &t.sdu[n]
+		out := &t.du.slabs[n]
 		if lo < 0 || hi < 0 || lower[lo].none {
 			// Left to the equation: a grid without curves.
 			out.x = newGrid([]float64{math.Log(ra), math.Log(rb)})

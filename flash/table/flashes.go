@@ -36,21 +36,11 @@ func eta(y, lo, hi float64) float64 {
 	return 0
 }
 
-// slabOf returns the slab of ss holding x, which lies within them.
-func slabOf(ss []slab, x float64) *slab {
-	for k := range ss[:len(ss)-1] {
-		if x <= ss[k].x.x[len(ss[k].x.x)-1] {
-			return &ss[k]
-		}
-	}
-	return &ss[len(ss)-1]
-}
-
 // onTriple reports whether p lies on the triple line of a fluid with a
 // solid model (within 1e-9), where the equation's flash returns its
 // documented choices.
 func (t *Table) onTriple(p float64) bool {
-	return t.solid && math.Abs(p-t.pt) <= 1e-9*t.pt
+	return t.solid && math.Abs(p-t.ptr) <= 1e-9*t.ptr
 }
 
 // PH returns the state of the table's fluid at pressure p in Pa and
@@ -86,8 +76,7 @@ func (t *Table) fromPH(p, h float64, st *flash.State) bool {
 		return false
 	}
 	x := math.Log(p)
-	s := slabOf(t.sph, x)
-	i, tx, w := s.x.cell(x)
+	s, i, tx, w := t.ph.locate(x)
 	wx := basis(tx, w)
 	k, lo, hi := s.v.find(i, &wx, h)
 	if k < 0 || k >= len(s.v.bands) {
@@ -138,8 +127,7 @@ func (t *Table) fromPT(p, T float64, st *flash.State) bool {
 		return false
 	}
 	x := math.Log(p)
-	s := slabOf(t.spt, x)
-	i, tx, w := s.x.cell(x)
+	s, i, tx, w := t.pt.locate(x)
 	wx := basis(tx, w)
 	k, lo, hi := s.v.find(i, &wx, T)
 	if k < 0 || k >= len(s.v.bands) || s.v.bands[k].kind != bandPatch {
@@ -211,19 +199,14 @@ func (t *Table) CoversDU(rho, u float64) bool {
 }
 
 func (t *Table) fromDU(rho, u float64, st *flash.State) bool {
-	ss := t.sdu
-	if !(rho > 0) || !finite(u) {
+	if !(rho >= t.du.lo && rho <= t.du.hi) || !finite(u) {
 		return false
 	}
 	x := math.Log(rho)
-	if !(x >= ss[0].x.x[0] && x <= ss[len(ss)-1].x.x[len(ss[len(ss)-1].x.x)-1]) {
-		return false
-	}
-	s := slabOf(ss, x)
+	s, i, tx, w := t.du.locate(x)
 	if len(s.v.b) == 0 {
 		return false
 	}
-	i, tx, w := s.x.cell(x)
 	wx := basis(tx, w)
 	k, lo, hi := s.v.find(i, &wx, u)
 	if k < 0 {

@@ -70,7 +70,7 @@ func validationGrid(tb testing.TB, t *Table, n, m int) []vpoint {
 		pts = append(pts, vpoint{regionOf(st.Phase), st})
 	}
 	for k := 0; k < m; {
-		p := math.Exp(math.Log(t.pt) + rng.Float64()*(math.Log(c.P)-math.Log(t.pt)))
+		p := math.Exp(math.Log(t.ptr) + rng.Float64()*(math.Log(c.P)-math.Log(t.ptr)))
 		st, err := flash.PQ(f, p, rng.Float64())
 		if err != nil {
 			continue

@@ -140,6 +140,14 @@ func (p *patch) eval(i int, wx *[4]float64, eta float64, out *[maxProps]float64)
 	r1 := r0 + p.ny*stride
 	a := p.data[r0 : r0+2*stride : r0+2*stride]
 	c := p.data[r1 : r1+2*stride : r1+2*stride]
+	if vector {
+		q0 := n * stride32
+		q1 := q0 + p.ny*stride32
+		e := p.data32[q0 : q0+2*stride32 : q0+2*stride32]
+		g := p.data32[q1 : q1+2*stride32 : q1+2*stride32]
+		evalVec(wx, &wy, &a[0], &c[0], &e[0], &g[0], out)
+		return
+	}
 	for k := 0; k < nExact; k++ {
 		o := 4 * k
 		a0 := a[o : o+4 : o+4] // node (i, j): f, fx, fy, fxy

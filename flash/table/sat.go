@@ -132,7 +132,7 @@ func (b *builder) satNodeAt(p float64, near *satNode) (satNode, error) {
 // buildSat builds the saturation curves from the triple point to p1,
 // refined as the slabs are (see sbuild) to tolCurve.
 func (b *builder) buildSat(n0 int) error {
-	x0, x1 := math.Log(b.t.pt), math.Log(b.t.nb.p1)
+	x0, x1 := math.Log(b.t.ptr), math.Log(b.t.nb.p1)
 	xs := make([]float64, n0)
 	for i := range xs {
 		xs[i] = x0 + (x1-x0)*float64(i)/float64(n0-1)
@@ -141,7 +141,7 @@ func (b *builder) buildSat(n0 int) error {
 	pOf := func(i int, x float64) float64 {
 		switch x {
 		case x0:
-			return b.t.pt
+			return b.t.ptr
 		case x1:
 			return b.t.nb.p1
 		}

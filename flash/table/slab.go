@@ -160,7 +160,11 @@ func (s *sbuild) column(pb *pbuild, i int, old []fluid.Props, oldEta []float64) 
 		case j == ny-1:
 			st[j] = hi.pr
 		default:
-			pr, err := s.b.solve(s.a, s.v, av, blo+e*(bhi-blo), &st[j-1])
+			var g2 *fluid.Props
+			if j >= 2 {
+				g2 = &st[j-2]
+			}
+			pr, err := s.b.solve(s.a, s.v, av, blo+e*(bhi-blo), &st[j-1], g2)
 			if err != nil {
 				return s.b.fail("node at "+s.a.name()+" = "+fmtG(av)+", "+s.v.name()+" = "+
 					fmtG(blo+e*(bhi-blo)), err)
@@ -244,7 +248,8 @@ func estimate(u, f, df, tol, ratio []float64) {
 			b := basis((u[k]-u[i])/w, w)
 			miss := math.Abs(b[0]*f[i] + b[1]*df[i] + b[2]*f[i+1] + b[3]*df[i+1] - f[k])
 			a, c := u[k]-u[i], u[k]-u[i+1]
-			e = max(e, miss*math.Pow(w/2, 4)/(a*a*c*c))
+			h2 := w * w / 4
+			e = max(e, miss*h2*h2/(a*a*c*c))
 		}
 		r := e / min(tol[i], tol[i+1])
 		if !finite(r) {
@@ -494,22 +499,44 @@ func (z variable) name() string {
 
 // solve returns the fluid state where a = av and b = bv, by Newton's
 // method in (T, ρ) with the analytic Jacobian, from the nearby state g
-// (the previous node of the grid line): converged when the step is below
-// 1e-13 of T and ρ.
-func (b *builder) solve(a, bv variable, av, bval float64, g *fluid.Props) (fluid.Props, error) {
+// (the previous node of the grid line) and, where not nil, the one before
+// it, g2: the first step from g is corrected to second order by the
+// change of (∂T/∂b)_a and (∂ρ/∂b)_a from g2 to g, so that one or two
+// evaluations of the equation usually suffice. Converged when a step is
+// below 1e-13 of T and ρ, or, once a step is below 1e-7 of them, after
+// that step (Newton's method leaves an error of the order of its square).
+func (b *builder) solve(a, bv variable, av, bval float64, g, g2 *fluid.Props) (fluid.Props, error) {
+	// step returns the Newton step at pr to (av, bval), and (∂T/∂b)_a,
+	// (∂ρ/∂b)_a there.
+	step := func(pr *fluid.Props) (dT, dR, sT, sR float64) {
+		ra := av - value(pr, a)
+		rb := bval - value(pr, bv)
+		aT, aR := tr(pr, a)
+		bT, bR := tr(pr, bv)
+		d := aT*bR - aR*bT
+		sT, sR = -aR/d, aT/d
+		return (ra*bR - aR*rb) / d, (aT*rb - ra*bT) / d, sT, sR
+	}
 	cur := *g
 	T, rho := cur.T, cur.Rho
+	dT, dR, sT, sR := step(&cur)
+	if g2 != nil {
+		if db := value(g, bv) - value(g2, bv); db != 0 {
+			_, _, sT2, sR2 := step(g2)
+			h := bval - value(g, bv)
+			dT += 0.5 * (sT - sT2) / db * h * h
+			dR += 0.5 * (sR - sR2) / db * h * h
+		}
+	}
+	last := false
 	for it := 0; it < 60; it++ {
-		ra := av - value(&cur, a)
-		rb := bval - value(&cur, bv)
-		aT, aR := tr(&cur, a)
-		bT, bR := tr(&cur, bv)
-		d := aT*bR - aR*bT
-		dT := (ra*bR - aR*rb) / d
-		dR := (aT*rb - ra*bT) / d
+		if it > 0 {
+			dT, dR, _, _ = step(&cur)
+		}
 		if math.Abs(dT) <= 1e-13*T && math.Abs(dR) <= 1e-13*rho {
 			return cur, nil
 		}
+		last = it > 0 && math.Abs(dT) <= 1e-7*T && math.Abs(dR) <= 1e-7*rho
 		for h := 0; ; h++ {
 			dT = math.Max(math.Min(dT, 0.25*T), -0.25*T)
 			dR = math.Max(math.Min(dR, 0.5*rho), -0.5*rho)
@@ -523,6 +550,10 @@ func (b *builder) solve(a, bv variable, av, bval float64, g *fluid.Props) (fluid
 				return cur, err
 			}
 			dT, dR = dT/2, dR/2
+			last = false
+		}
+		if last {
+			return cur, nil
 		}
 	}
 	return cur, errBuild("Newton's method did not converge")

@@ -76,14 +76,14 @@ type Table struct {
 	crit  fluid.Point
 	nb    neighbourhood
 	tt    float64 // triple-point temperature, K
-	pt    float64 // the equation's vapour pressure at tt, Pa
+	ptr   float64 // the equation's vapour pressure at tt, Pa
 	rgas  float64 // specific gas constant
 	solid bool    // the fluid has a solid model
 
-	sph, spt, sdu []slab     // the slabs of PH, PT and DU, ascending in x
-	gap           [2]float64 // DU: the densities whose isochores cross the dome twice
-	sat           satCurves
-	bytes         int
+	ph, pt, du tables     // the tables of each flash
+	gap        [2]float64 // DU: the densities whose isochores cross the dome twice
+	sat        satCurves
+	bytes      int
 }
 
 // bandKind says what a band between two boundary curves holds.
@@ -113,8 +113,54 @@ type view struct {
 // slab is a part of the tables between two values of x (ln p for PH
 // and PT, ln ρ for DU): its grid in x and its view.
 type slab struct {
-	x grid
-	v view
+	x     grid
+	v     view
+	first int // the index of its first node in its tables' grid
+}
+
+// tables are the slabs of one flash, ascending in x, and one grid of all
+// their nodes (a slab's last node is the next one's first) that finds the
+// slab and the cell of a point at once.
+type tables struct {
+	slabs    []slab
+	x        grid
+	cellSlab []uint8 // the slab of each cell of x
+	lo, hi   float64 // the range of the flash's first input (p or ρ)
+}
+
+// join sets up the grid of ts from its slabs.
+func (ts *tables) join() {
+	var xs []float64
+	for k := range ts.slabs {
+		s := &ts.slabs[k]
+		if k == 0 {
+			xs = append(xs, s.x.x[0])
+		}
+		s.first = len(xs) - 1
+		xs = append(xs, s.x.x[1:]...)
+		for range s.x.x[1:] {
+			ts.cellSlab = append(ts.cellSlab, uint8(k))
+		}
+	}
+	ts.x = newGrid(xs)
+	ts.lo, ts.hi = math.Exp(xs[0]), math.Exp(xs[len(xs)-1])
+}
+
+// locate returns the slab of x, the cell of x in it, the position in the
+// cell and its width. x must lie in the grid.
+func (ts *tables) locate(x float64) (s *slab, i int, t, w float64) {
+	g, t, w := ts.x.cell(x)
+	s = &ts.slabs[ts.cellSlab[g]]
+	return s, g - s.first, t, w
+}
+
+// size returns the bytes of the tables.
+func (ts *tables) size() int {
+	n := ts.x.size() + len(ts.cellSlab)
+	for i := range ts.slabs {
+		n += ts.slabs[i].size()
+	}
+	return n
 }
 
 // Fluid returns the fluid of t.
