@@ -126,11 +126,29 @@ type patch struct {
 }
 
 // eval interpolates the patch in cell i of the slab's grid (x basis wx)
-// at η, into out. It is written out in full (this is the hot path of
-// every flash of the tables), in two stages that keep the weights in
-// registers: along η at the cell's two nodes in x, the values and their
-// x-derivatives, then along x.
+// at η, into out: by the vector kernel evalVec where the processor has
+// it, else by evalGo. This is the hot path of every flash of the tables.
 func (p *patch) eval(i int, wx *[4]float64, eta float64, out *[maxProps]float64) {
+	if !vector {
+		p.evalGo(i, wx, eta, out)
+		return
+	}
+	j, t, h := p.eta.cell(eta)
+	wy := basis(t, h)
+	n := i*p.ny + j
+	r0, r1 := n*stride, (n+p.ny)*stride
+	q0, q1 := n*stride32, (n+p.ny)*stride32
+	a := p.data[r0 : r0+2*stride : r0+2*stride]
+	c := p.data[r1 : r1+2*stride : r1+2*stride]
+	e := p.data32[q0 : q0+2*stride32 : q0+2*stride32]
+	g := p.data32[q1 : q1+2*stride32 : q1+2*stride32]
+	evalVec(wx, &wy, &a[0], &c[0], &e[0], &g[0], out)
+}
+
+// evalGo is eval in Go, written out in full, in two stages that keep the
+// weights in registers: along η at the cell's two nodes in x, the values
+// and their x-derivatives, then along x.
+func (p *patch) evalGo(i int, wx *[4]float64, eta float64, out *[maxProps]float64) {
 	j, t, h := p.eta.cell(eta)
 	wy := basis(t, h)
 	y0, y1, y2, y3 := wy[0], wy[1], wy[2], wy[3]
@@ -140,14 +158,6 @@ func (p *patch) eval(i int, wx *[4]float64, eta float64, out *[maxProps]float64)
 	r1 := r0 + p.ny*stride
 	a := p.data[r0 : r0+2*stride : r0+2*stride]
 	c := p.data[r1 : r1+2*stride : r1+2*stride]
-	if vector {
-		q0 := n * stride32
-		q1 := q0 + p.ny*stride32
-		e := p.data32[q0 : q0+2*stride32 : q0+2*stride32]
-		g := p.data32[q1 : q1+2*stride32 : q1+2*stride32]
-		evalVec(wx, &wy, &a[0], &c[0], &e[0], &g[0], out)
-		return
-	}
 	for k := 0; k < nExact; k++ {
 		o := 4 * k
 		a0 := a[o : o+4 : o+4] // node (i, j): f, fx, fy, fxy
