@@ -50,7 +50,7 @@ func (b *builder) fail(what string, err error) error {
 		fluid.Input{Name: "fluid", Value: 0, Unit: b.f.Name()})
 }
 
-func lnP(x float64) float64  { return math.Log(x) }
+func lnP(x float64) float64  { return ln(x) }
 func expP(x float64) float64 { return math.Exp(x) }
 func nan() float64           { return math.NaN() }
 func inf() float64           { return math.Inf(1) }
@@ -101,6 +101,10 @@ func newWith(f *fluid.Fluid, r Range, res resolution) (*Table, error) {
 		ts.join()
 		t.bytes += ts.size()
 	}
+	var sv satVals
+	t.sat.at(t.sat.x.x[0], &sv)
+	vl, vv := 1/sv[sRhoL], math.Exp(-sv[sLnRhoV])
+	t.triple = [4]float64{vl, vv, sv[sHL] - t.ptr*vl, sv[sHV] - t.ptr*vv}
 	t.bytes += t.sat.size()
 	return t, nil
 }

@@ -168,7 +168,7 @@ func (b *builder) dSlabs(defs []pdef) error {
 		out := &t.du.slabs[n]
 		if lo < 0 || hi < 0 || lower[lo].none {
 			// Left to the equation: a grid without curves.
-			out.x = newGrid([]float64{math.Log(ra), math.Log(rb)})
+			out.x = newGrid([]float64{ln(ra), ln(rb)})
 			continue
 		}
 		sl, err1 := at(lower, lo, ra)
@@ -196,6 +196,15 @@ func (b *builder) dSlabs(defs []pdef) error {
 				out.v.b = append(out.v.b, b.mixCurve(s.xs))
 			}
 			out.v.b = append(out.v.b, s.curveOf(0), s.curveOf(1))
+			if out.v.below == bandTwoPhase && !band {
+				// ln p along the saturated phase: d ln p/dx = (dp/dx)/p.
+				c := make(curve, 2*len(s.xs))
+				for i := range s.xs {
+					p, dp := bslope(&s.pts[0][i], vRho, vP)
+					c[2*i], c[2*i+1] = ln(p), dp/p
+				}
+				out.v.lnPSat = c
+			}
 			return nil
 		})
 	}

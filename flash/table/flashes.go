@@ -72,10 +72,10 @@ func (t *Table) CoversPH(p, h float64) bool {
 
 // fromPH is PH from the tables; false where they do not answer.
 func (t *Table) fromPH(p, h float64, st *flash.State) bool {
-	if !(p >= t.r.PMin && p <= t.r.PMax) || !finite(h) || t.onTriple(p) {
+	if !(p >= t.r.PMin && p <= t.r.PMax) || t.onTriple(p) {
 		return false
 	}
-	x := math.Log(p)
+	x := ln(p)
 	s, i, tx, w := t.ph.locate(x)
 	wx := basis(tx, w)
 	k, lo, hi := s.v.find(i, &wx, h)
@@ -123,10 +123,10 @@ func (t *Table) CoversPT(p, T float64) bool {
 }
 
 func (t *Table) fromPT(p, T float64, st *flash.State) bool {
-	if !(p >= t.r.PMin && p <= t.r.PMax) || !finite(T) || t.onTriple(p) {
+	if !(p >= t.r.PMin && p <= t.r.PMax) || t.onTriple(p) {
 		return false
 	}
-	x := math.Log(p)
+	x := ln(p)
 	s, i, tx, w := t.pt.locate(x)
 	wx := basis(tx, w)
 	k, lo, hi := s.v.find(i, &wx, T)
@@ -199,10 +199,10 @@ func (t *Table) CoversDU(rho, u float64) bool {
 }
 
 func (t *Table) fromDU(rho, u float64, st *flash.State) bool {
-	if !(rho >= t.du.lo && rho <= t.du.hi) || !finite(u) {
+	if !(rho >= t.du.lo && rho <= t.du.hi) {
 		return false
 	}
-	x := math.Log(rho)
+	x := ln(rho)
 	s, i, tx, w := t.du.locate(x)
 	if len(s.v.b) == 0 {
 		return false
@@ -210,7 +210,16 @@ func (t *Table) fromDU(rho, u float64, st *flash.State) bool {
 	wx := basis(tx, w)
 	k, lo, hi := s.v.find(i, &wx, u)
 	if k < 0 {
-		return s.v.below == bandTwoPhase && t.duTwoPhase(rho, u, st)
+		if s.v.below != bandTwoPhase {
+			return false
+		}
+		// The upper end of the mixtures along the isochore: where it
+		// leaves the dome, or at p1 (the critical band).
+		xs := t.sat.x.x[len(t.sat.x.x)-1]
+		if len(s.v.lnPSat) > 0 {
+			xs = s.v.lnPSat.at(i, &wx)
+		}
+		return t.duTwoPhase(rho, u, xs, lo-u, st)
 	}
 	if k >= len(s.v.bands) || s.v.bands[k].kind != bandPatch {
 		return false
@@ -227,24 +236,28 @@ func (t *Table) fromDU(rho, u float64, st *flash.State) bool {
 //
 //	F(x) = u′ + q (u″ − u′) − u = 0,  q = (1/ρ − v′)/(v″ − v′),
 //
-// which rises with x along the isochore while it is two-phase (0 ≤ q ≤ 1);
-// where q leaves [0, 1] the isochore is a single phase at that saturation
-// temperature, which is then too high. Newton's method is kept in a
-// bracket that starts at the triple point and p1. A mixture below the
-// triple point's (solid in it) or above p1's is not answered.
-func (t *Table) duTwoPhase(rho, u float64, st *flash.State) bool {
+// which rises with x along the isochore while it is two-phase, between
+// the triple point and xs, where the isochore leaves the dome (or p1),
+// and F(xs) = fs ≥ 0 is known. A mixture below the triple point's (solid
+// in it) is not answered.
+//
+// Newton's method from the secant of the bracket's ends, bisection where
+// a step would leave the bracket (or q leaves [0, 1]); once a step is below
+// 1e-8 of x, one more leaves an error of the order of its square.
+func (t *Table) duTwoPhase(rho, u, xs, fs float64, st *flash.State) bool {
 	s := &t.sat
 	v := 1 / rho
-	g := s.x.x
-	a, b := g[0], g[len(g)-1]
-	if fa, _, ok := t.duResidual(a, v, u); !ok || fa > 0 {
+	tr := &t.triple
+	a, b := s.x.x[0], min(xs, s.x.x[len(s.x.x)-1])
+	fa := tr[2] + (tr[3]-tr[2])*(v-tr[0])/(tr[1]-tr[0]) - u
+	if !(fa <= 0 && fs >= 0) {
 		return false
 	}
-	if fb, _, ok := t.duResidual(b, v, u); ok && fb < 0 {
-		return false
+	x := a
+	if fs > fa {
+		x = a + (b-a)*(-fa)/(fs-fa)
 	}
-	x := 0.5 * (a + b)
-	for it := 0; it < 200 && b-a > 1e-15*math.Abs(x); it++ {
+	for it := 0; it < 100; it++ {
 		fx, dx, ok := t.duResidual(x, v, u)
 		if !ok || fx > 0 {
 			b = x
@@ -255,9 +268,14 @@ func (t *Table) duTwoPhase(rho, u float64, st *flash.State) bool {
 		if !ok || !(next > a && next < b) {
 			next = 0.5 * (a + b)
 		}
-		done := math.Abs(next-x) <= 1e-15*math.Abs(x)
+		step := math.Abs(next - x)
 		x = next
-		if done {
+		if step <= 1e-8*math.Abs(x) && ok || b-a <= 1e-14*math.Abs(x) {
+			if step > 1e-15*math.Abs(x) && ok {
+				if fx, dx, ok := t.duResidual(x, v, u); ok {
+					x -= fx / dx
+				}
+			}
 			break
 		}
 	}

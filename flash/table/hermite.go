@@ -12,12 +12,16 @@ package table
 // one or the next.
 type grid struct {
 	x     []float64
-	inv   []float64 // 1/(x[i+1] − x[i])
+	cells []gcell // n − 1 cells, and one past the last (its lo the last node)
 	idx   []int32
 	x0    float64 // x[0]
 	scale float64 // buckets per unit of the coordinate
 	last  int     // the last cell, n − 2
 }
+
+// gcell is a cell of a grid: its lower node, width and inverse width, in
+// one place for the lookup.
+type gcell struct{ lo, w, inv float64 }
 
 // maxBuckets bounds the index of a grid; beyond it a lookup may step
 // over a few cells.
@@ -25,13 +29,14 @@ const maxBuckets = 1 << 14
 
 func newGrid(x []float64) grid {
 	n := len(x)
-	g := grid{x: x, inv: make([]float64, n-1), x0: x[0], last: n - 2}
+	g := grid{x: x, cells: make([]gcell, n), x0: x[0], last: n - 2}
 	minw := x[n-1] - x[0]
 	for i := 0; i+1 < n; i++ {
 		w := x[i+1] - x[i]
-		g.inv[i] = 1 / w
+		g.cells[i] = gcell{lo: x[i], w: w, inv: 1 / w}
 		minw = min(minw, w)
 	}
+	g.cells[n-1] = gcell{lo: x[n-1]}
 	nb := min(int((x[n-1]-x[0])/minw)+1, maxBuckets)
 	g.scale = float64(nb) / (x[n-1] - x[0])
 	g.idx = make([]int32, nb)
@@ -56,15 +61,15 @@ func (g *grid) cell(u float64) (i int, t, w float64) {
 		b = min(int(f), len(g.idx)-1)
 	}
 	i = int(g.idx[b])
-	for i < g.last && u >= g.x[i+1] {
+	for i < g.last && u >= g.cells[i+1].lo {
 		i++
 	}
-	x := g.x[i : i+2 : i+2]
-	return i, (u - x[0]) * g.inv[i], x[1] - x[0]
+	c := &g.cells[i]
+	return i, (u - c.lo) * c.inv, c.w
 }
 
 // size returns the bytes of g.
-func (g *grid) size() int { return 8*(len(g.x)+len(g.inv)) + 4*len(g.idx) }
+func (g *grid) size() int { return 8*len(g.x) + 24*len(g.cells) + 4*len(g.idx) }
 
 // basis returns the cubic Hermite basis at t in a cell of width w, in
 // the order of the node data: value and derivative at the cell's first

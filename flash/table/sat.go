@@ -132,7 +132,7 @@ func (b *builder) satNodeAt(p float64, near *satNode) (satNode, error) {
 // buildSat builds the saturation curves from the triple point to p1,
 // refined as the slabs are (see sbuild) to tolCurve.
 func (b *builder) buildSat(n0 int) error {
-	x0, x1 := math.Log(b.t.ptr), math.Log(b.t.nb.p1)
+	x0, x1 := ln(b.t.ptr), ln(b.t.nb.p1)
 	xs := make([]float64, n0)
 	for i := range xs {
 		xs[i] = x0 + (x1-x0)*float64(i)/float64(n0-1)

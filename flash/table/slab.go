@@ -85,7 +85,7 @@ func (s *sbuild) point(k int, x float64, near *bpoint) (bpoint, error) {
 
 // build refines and fills the slab.
 func (s *sbuild) build() error {
-	xa, xb := math.Log(s.aa), math.Log(s.ab)
+	xa, xb := ln(s.aa), ln(s.ab)
 	n := nodes(xb-xa, s.dx0)
 	s.xs = make([]float64, n)
 	for i := range s.xs {

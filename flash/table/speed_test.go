@@ -9,6 +9,7 @@ import (
 	"time"
 
 	"github.com/tripoint-thermo/tripoint/flash"
+	"github.com/tripoint-thermo/tripoint/fluid"
 )
 
 // Benchmarks: the tables against the equation's flashes, per fluid and
@@ -40,8 +41,7 @@ func BenchmarkTable(b *testing.B) {
 				b.ReportAllocs()
 				for i := 0; i < b.N; i++ {
 					x := &in[i%len(in)]
-					st, _ := tableFlash(t, fl, x[0], x[1])
-					benchSink += st.T
+					tableLoop(t, fl, x[0], x[1], 1)
 				}
 			})
 		}
@@ -58,11 +58,25 @@ func BenchmarkEquation(b *testing.B) {
 				b.ReportAllocs()
 				for i := 0; i < b.N; i++ {
 					x := &in[i%len(in)]
-					st, _ := equationFlash(t.Fluid(), fl, x[0], x[1])
-					benchSink += st.T
+					equationLoop(t.Fluid(), fl, x[0], x[1], 1)
 				}
 			})
 		}
+	}
+}
+
+// BenchmarkBuild times New with the default range of each fluid (the
+// goal: 1 s).
+func BenchmarkBuild(b *testing.B) {
+	for _, name := range fluidNames {
+		f, _ := fluid.Lookup(name)
+		b.Run(name, func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				if _, err := New(f, Range{}); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
 	}
 }
 
@@ -81,22 +95,12 @@ func benchInputs(fl string, pts []vpoint) [][2]float64 {
 // flash the median time per call of the tables and of the equation's
 // flash over the states of the validation grid, and their ratio, measured
 // in one run (each state: the best of 5 rounds of calls, the least
-// disturbed by the rest of the machine). It is a measurement, not a
-// check: timings on a shared machine do not make assertions.
+// disturbed by the rest of the machine; the calls are direct, in a loop).
+// It is a measurement, not a check: timings on a shared machine do not
+// make assertions.
 func TestSpeedReport(t *testing.T) {
 	if !*report {
 		t.Skip("run with -args -table.report")
-	}
-	timeOf := func(n int, fn func()) float64 {
-		best := math.Inf(1)
-		for r := 0; r < 5; r++ {
-			t0 := time.Now()
-			for i := 0; i < n; i++ {
-				fn()
-			}
-			best = min(best, float64(time.Since(t0).Nanoseconds())/float64(n))
-		}
-		return best
 	}
 	for _, name := range fluidNames {
 		tb := tableOf(t, name)
@@ -109,14 +113,67 @@ func TestSpeedReport(t *testing.T) {
 				if !fromTables(tb, fl, x[0], x[1], &st) {
 					left++
 				}
-				tab = append(tab, timeOf(200, func() { s, _ := tableFlash(tb, fl, x[0], x[1]); benchSink += s.T }))
-				eq = append(eq, timeOf(4, func() { s, _ := equationFlash(tb.Fluid(), fl, x[0], x[1]); benchSink += s.T }))
+				tab = append(tab, timeCalls(200, func(n int) { tableLoop(tb, fl, x[0], x[1], n) }))
+				eq = append(eq, timeCalls(4, func(n int) { equationLoop(tb.Fluid(), fl, x[0], x[1], n) }))
 			}
 			slices.Sort(tab)
 			slices.Sort(eq)
 			mt, me := tab[len(tab)/2], eq[len(eq)/2]
 			fmt.Printf("%-6s %s: tables median %6.1f ns (worst %8.0f), equation median %8.0f ns: %5.1f times faster (%d of %d states left to the equation)\n",
 				name, fl, mt, tab[len(tab)-1], me, me/mt, left, len(tab))
+		}
+	}
+}
+
+// timeCalls returns the time per call of loop(n), the best of 5 rounds.
+func timeCalls(n int, loop func(n int)) float64 {
+	best := math.Inf(1)
+	for r := 0; r < 5; r++ {
+		t0 := time.Now()
+		loop(n)
+		best = min(best, float64(time.Since(t0).Nanoseconds())/float64(n))
+	}
+	return best
+}
+
+// tableLoop and equationLoop call flash fl of the tables or the equation
+// n times with the same inputs, directly.
+func tableLoop(t *Table, fl string, a, b float64, n int) {
+	switch fl {
+	case "PH":
+		for i := 0; i < n; i++ {
+			st, _ := t.PH(a, b)
+			benchSink += st.T
+		}
+	case "PT":
+		for i := 0; i < n; i++ {
+			st, _ := t.PT(a, b)
+			benchSink += st.T
+		}
+	default:
+		for i := 0; i < n; i++ {
+			st, _ := t.DU(a, b)
+			benchSink += st.T
+		}
+	}
+}
+
+func equationLoop(f *fluid.Fluid, fl string, a, b float64, n int) {
+	switch fl {
+	case "PH":
+		for i := 0; i < n; i++ {
+			st, _ := flash.PH(f, a, b)
+			benchSink += st.T
+		}
+	case "PT":
+		for i := 0; i < n; i++ {
+			st, _ := flash.PT(f, a, b)
+			benchSink += st.T
+		}
+	default:
+		for i := 0; i < n; i++ {
+			st, _ := flash.DU(f, a, b)
+			benchSink += st.T
 		}
 	}
 }

@@ -82,6 +82,7 @@ type Table struct {
 
 	ph, pt, du tables     // the tables of each flash
 	gap        [2]float64 // DU: the densities whose isochores cross the dome twice
+	triple     [4]float64 // v′, v″, u′, u″ of the saturated phases at the triple point
 	sat        satCurves
 	bytes      int
 }
@@ -108,6 +109,10 @@ type view struct {
 	b     []curve
 	bands []band
 	below bandKind
+	// DU, below which lie mixtures: ln p along the first curve (the
+	// saturated phase whose density is ρ), where the isochore leaves the
+	// dome; empty where the first curve is the mixtures' at p1.
+	lnPSat curve
 }
 
 // slab is a part of the tables between two values of x (ln p for PH
