@@ -56,10 +56,11 @@ func nan() float64           { return math.NaN() }
 func inf() float64           { return math.Inf(1) }
 func sqrt(x float64) float64 { return math.Sqrt(x) }
 
-// New builds the tables of f over the range r (zero fields: the fluid's
-// defaults, see Range). It evaluates the equation of state at every node
-// (about 2–3 evaluations a node, marching along each grid line from a
-// boundary), on all processors.
+// New builds the tables of f, with its reference state, over the range r
+// (zero fields: the fluid's defaults, see Range). It evaluates the
+// equation of state at every node (about two evaluations a node, marching
+// along each grid line from a boundary), on all processors: 0.2–0.4 s and
+// 9–17 MB for the default range of each fluid on a 2-core machine.
 //
 // Special cases are:
 //

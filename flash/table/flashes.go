@@ -51,12 +51,18 @@ func (t *Table) onTriple(p float64) bool {
 // single phase from the bicubic patch of its region, in the two-phase
 // region from the saturation curves at p (the phases' properties, the
 // quality from h, the mixture's cv and speed of sound as the equation's
-// flash defines them). Everywhere else — outside the range, in the
-// critical neighbourhood, on the triple line and in the solid regions —
-// flash.PH answers, with its errors; CoversPH tells which.
+// flash defines them). T, ρ and s are within 1e-6 of flash.PH's (see the
+// package documentation for the figures). CoversPH tells whether the
+// tables answer.
 //
-// Accuracy against flash.PH, outside the critical neighbourhood: see the
-// package documentation.
+// Special cases are (flash.PH's state or error, exactly):
+//
+//	p outside PMin..PMax, or NaN or ±Inf: flash.PH
+//	the critical neighbourhood: flash.PH
+//	p within 1e-9 of the triple-point pressure (a fluid with a solid
+//	  model), where the equation returns its documented choices: flash.PH
+//	h below the lowest fluid state at p (a solid, or below TMin) or above
+//	  TMax, or NaN or ±Inf: flash.PH
 func (t *Table) PH(p, h float64) (st flash.State, err error) {
 	if t.fromPH(p, h, &st) {
 		return st, nil
@@ -109,6 +115,9 @@ func (t *Table) fromPH(p, h float64, st *flash.State) bool {
 // from flash.PT. The tables place the state against the saturation
 // temperature at p; a state within the tables' accuracy of it (about
 // 1e-9 K) may come out on the other side than flash.PT places it.
+//
+// Special cases are those of PH, with T for h: outside TMin (or the
+// solid curves) to TMax, flash.PT.
 func (t *Table) PT(p, T float64) (st flash.State, err error) {
 	if t.fromPT(p, T, &st) {
 		return st, nil
@@ -185,6 +194,20 @@ func (t *Table) extrapolated(T, p float64) fluid.Flags {
 // of its isochore, from the saturation curves, by Newton's method in
 // ln p for the mixture of overall density ρ and internal energy u on the
 // splines alone.
+//
+// Special cases are (flash.DU's state or error, exactly):
+//
+//	rho outside the densities of the range, or NaN, ±Inf or ≤ 0: flash.DU
+//	the critical neighbourhood: flash.DU
+//	the isochores that cross the saturation dome twice (DoubleCrossing): flash.DU
+//	u below the lowest fluid state of the isochore (a solid, or a mixture
+//	  below the triple point) or above TMax and PMax, or NaN or ±Inf: flash.DU
+//
+// Where flash.DU returns a state that is not an equilibrium state (near
+// the critical point, at the time of writing, it did for a few inputs: a
+// single phase inside the saturation dome, or a mixture whose phases are
+// not saturated at its temperature), the tables return the equilibrium
+// state; FuzzTables and TestValidation tell such inputs apart.
 func (t *Table) DU(rho, u float64) (st flash.State, err error) {
 	if t.fromDU(rho, u, &st) {
 		return st, nil

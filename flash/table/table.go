@@ -24,8 +24,9 @@ import (
 // ice sublimes at 151.2 K) along the sublimation curve to the triple
 // point and up the melting curve (236.1 K at 100 MPa); water from the
 // triple-point temperature; R-134a from its triple point. The range must
-// enclose the critical neighbourhood (see Table): PMin below 0.9·pc,
-// PMax above 1.1·pc, TMax above its upper temperature.
+// enclose the critical neighbourhood (see CriticalNeighbourhood): PMin
+// below 0.9·pc, PMax above 1.1·pc, TMin below the saturation temperature
+// at 0.9·pc, TMax above 1.05·Tc.
 type Range struct {
 	PMin, PMax float64 // Pa
 	TMin, TMax float64 // K
@@ -66,9 +67,11 @@ const (
 // Table answers the PH, PT and DU flashes of one fluid from spline tables
 // over a Range: every field of the returned flash.State comes from the
 // tables, without an evaluation of the equation of state, where the
-// inputs lie in the range and outside the critical neighbourhood;
-// elsewhere the equation's flash answers (see PH). A *Table is immutable
-// and safe for concurrent use; build one with New.
+// inputs lie in the range, outside the critical neighbourhood and off the
+// triple line; elsewhere — also in the solid regions — the equation's
+// flash answers (see PH). A *Table is immutable and safe for concurrent
+// use; build one with New. See the package documentation for its layout,
+// accuracy and cost.
 type Table struct {
 	f     *fluid.Fluid
 	r     Range
@@ -179,11 +182,13 @@ func (t *Table) Range() Range { return t.r }
 // aside).
 func (t *Table) Bytes() int { return t.bytes }
 
-// CriticalNeighbourhood returns the region of (p, T) where PH and PT are
-// answered by the equation's flash: p1 ≤ p ≤ p2 and t1 ≤ T ≤ t2 (Pa, K).
-// DU is answered by the equation for densities between rho1 and rho2
-// (kg/m³, the saturated vapour and liquid at p1) at temperatures between
-// t1 and t2.
+// CriticalNeighbourhood returns the region where the tables leave the
+// state to the equation's flash near the critical point: for PH and PT
+// p1 ≤ p ≤ p2 and t1 ≤ T ≤ t2 (Pa, K: p1 = 0.9·pc, p2 = 1.1·pc, t1 the
+// saturation temperature at p1, t2 = 1.05·Tc); for DU densities between
+// rho1 and rho2 (kg/m³, the saturated vapour and liquid at p1) at
+// temperatures below t2, but for the liquid–vapour mixtures below t1.
+// Inside it the state is the equation's own.
 func (t *Table) CriticalNeighbourhood() (p1, p2, t1, t2, rho1, rho2 float64) {
 	n := &t.nb
 	return n.p1, n.p2, n.t1, n.t2, n.rho1, n.rho2
