@@ -121,21 +121,27 @@ func TestCMatchesGo(t *testing.T) {
 		if err != nil {
 			continue
 		}
-		want := fmt.Sprintf("%d %d %d %d", statusOK, st.Phase, st.Flags, st.N)
-		for _, v := range []float64{st.T, st.P, st.Rho, st.H, st.S, st.U, st.Cp, st.Cv, st.W, st.Quality, st.Solid} {
-			want += fmt.Sprintf(" %016x", math.Float64bits(v))
-		}
-		for k := 0; k < int(st.N); k++ {
-			p := st.Phases[k]
-			want += fmt.Sprintf(" %d", p.Phase)
-			for _, v := range []float64{p.Fraction, p.Rho, p.H, p.S, p.U, p.Cp, p.Cv, p.W} {
-				want += fmt.Sprintf(" %016x", math.Float64bits(v))
-			}
-		}
-		if lines[i] != want {
+		if want := fmt.Sprintf("%d ", statusOK) + stateLine(&st); lines[i] != want {
 			t.Errorf("case %+v:\n C: %s\nGo: %s", c, lines[i], want)
 		}
 	}
+}
+
+// stateLine formats st as the C test program prints it: phase, flags, n
+// and the fields as hexadecimal bits.
+func stateLine(st *flash.State) string {
+	line := fmt.Sprintf("%d %d %d", st.Phase, st.Flags, st.N)
+	for _, v := range []float64{st.T, st.P, st.Rho, st.H, st.S, st.U, st.Cp, st.Cv, st.W, st.Quality, st.Solid} {
+		line += fmt.Sprintf(" %016x", math.Float64bits(v))
+	}
+	for k := 0; k < int(st.N); k++ {
+		p := st.Phases[k]
+		line += fmt.Sprintf(" %d", p.Phase)
+		for _, v := range []float64{p.Fraction, p.Rho, p.H, p.S, p.U, p.Cp, p.Cv, p.W} {
+			line += fmt.Sprintf(" %016x", math.Float64bits(v))
+		}
+	}
+	return line
 }
 
 // TestCDerivative checks tp_derivative from C against partial.Derivative,
@@ -470,17 +476,7 @@ func TestCTables(t *testing.T) {
 		}
 		want := fmt.Sprintf("%d %d", map[bool]int{true: 1}[covers], statusOf(err))
 		if err == nil {
-			want += fmt.Sprintf(" %d %d %d", st.Phase, st.Flags, st.N)
-			for _, v := range []float64{st.T, st.P, st.Rho, st.H, st.S, st.U, st.Cp, st.Cv, st.W, st.Quality, st.Solid} {
-				want += fmt.Sprintf(" %016x", math.Float64bits(v))
-			}
-			for k := 0; k < int(st.N); k++ {
-				p := st.Phases[k]
-				want += fmt.Sprintf(" %d", p.Phase)
-				for _, v := range []float64{p.Fraction, p.Rho, p.H, p.S, p.U, p.Cp, p.Cv, p.W} {
-					want += fmt.Sprintf(" %016x", math.Float64bits(v))
-				}
-			}
+			want += " " + stateLine(&st)
 		}
 		got := lines[i]
 		if err != nil {

@@ -235,6 +235,22 @@ def _err():
     return e
 
 
+def _flash_n(call, a, b):
+    """Runs a vector flash call(n, a, b, out, status, err) on the lists a and
+    b: returns (states, statuses), a failed element None."""
+    n = len(a)
+    if len(b) != n:
+        raise ValueError("a and b differ in length")
+    A, B = (ctypes.c_double * n)(*a), (ctypes.c_double * n)(*b)
+    out = (_State * n)()
+    for s in out:
+        s.size = ctypes.sizeof(_State)
+    stat = (ctypes.c_int32 * n)()
+    err = _err()
+    call(n, A, B, out, stat, ctypes.byref(err))
+    return [State(out[i]) if stat[i] == OK else None for i in range(n)], list(stat)
+
+
 def _options(phase, allow_metastable, guess):
     if not phase and not allow_metastable and guess is None:
         return None
@@ -284,18 +300,9 @@ class Fluid:
 
     def flash_n(self, pair, a, b, phase=0, allow_metastable=False):
         """Vector flash: returns (states, statuses); a failed element is None."""
-        n = len(a)
-        if len(b) != n:
-            raise ValueError("a and b differ in length")
-        A, B = (ctypes.c_double * n)(*a), (ctypes.c_double * n)(*b)
-        out = (_State * n)()
-        for s in out:
-            s.size = ctypes.sizeof(_State)
-        stat = (ctypes.c_int32 * n)()
-        err = _err()
-        self._lib._lib.tp_flash_n(self._h, pair, n, A, B, _options(phase, allow_metastable, None), out, stat,
-                                  ctypes.byref(err))
-        return [State(out[i]) if stat[i] == OK else None for i in range(n)], list(stat)
+        opt = _options(phase, allow_metastable, None)
+        return _flash_n(lambda n, A, B, out, stat, err: self._lib._lib.tp_flash_n(
+            self._h, pair, n, A, B, opt, out, stat, err), a, b)
 
     def prop(self, pair, a, b, prop):
         """One property of the state at (a, b); raises on error."""
@@ -412,14 +419,5 @@ class Table:
 
     def flash_n(self, pair, a, b):
         """Vector flash: returns (states, statuses); a failed element is None."""
-        n = len(a)
-        if len(b) != n:
-            raise ValueError("a and b differ in length")
-        A, B = (ctypes.c_double * n)(*a), (ctypes.c_double * n)(*b)
-        out = (_State * n)()
-        for s in out:
-            s.size = ctypes.sizeof(_State)
-        stat = (ctypes.c_int32 * n)()
-        err = _err()
-        self._lib._lib.tp_table_flash_n(self._h, pair, n, A, B, out, stat, ctypes.byref(err))
-        return [State(out[i]) if stat[i] == OK else None for i in range(n)], list(stat)
+        return _flash_n(lambda n, A, B, out, stat, err: self._lib._lib.tp_table_flash_n(
+            self._h, pair, n, A, B, out, stat, err), a, b)

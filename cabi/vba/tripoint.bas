@@ -66,12 +66,15 @@ Public Function TP_PROP(ByVal fluid As String, ByVal pair As Long, ByVal a As Do
         TP_PROP = CVErr(xlErrValue)
         Exit Function
     End If
-    Dim v As Double
-    v = tp_prop(h, pair, a, b, prop, e)
+    TP_PROP = cellValue(tp_prop(h, pair, a, b, prop, e), e)
+End Function
+
+' cellValue returns v for a cell, or #VALUE! if the call behind it failed.
+Private Function cellValue(ByVal v As Double, ByRef e As TpError) As Variant
     If e.code <> 0 Then
-        TP_PROP = CVErr(xlErrValue)
+        cellValue = CVErr(xlErrValue)
     Else
-        TP_PROP = v
+        cellValue = v
     End If
 End Function
 
@@ -108,13 +111,7 @@ Public Function TP_TPROP(ByVal fluid As String, ByVal pair As Long, ByVal a As D
         TP_TPROP = CVErr(xlErrValue)
         Exit Function
     End If
-    Dim v As Double
-    v = tp_table_prop(t, pair, a, b, prop, e)
-    If e.code <> 0 Then
-        TP_TPROP = CVErr(xlErrValue)
-    Else
-        TP_TPROP = v
-    End If
+    TP_TPROP = cellValue(tp_table_prop(t, pair, a, b, prop, e), e)
 End Function
 
 ' tableFor returns the table handle of fluid and ref, built on first use;

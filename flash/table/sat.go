@@ -171,11 +171,7 @@ func (b *builder) buildSat(n0 int) error {
 			}
 			estimate(xs, f, df, tol, bad)
 		}
-		for i := range bad {
-			if xs[i+1]-xs[i] < 2*minDx {
-				bad[i] = 0
-			}
-		}
+		keepWide(xs, bad, minDx)
 		if !refineAny(bad) {
 			break
 		}

@@ -279,50 +279,56 @@ func (s *sbuild) xIndicator() []float64 {
 		estimate(s.xs, f, df, tol, bad)
 	}
 	for _, pb := range s.patches {
-		for j := range pb.eta {
-			for k, pp := range pb.spec.props {
-				if !pp.exact() {
-					continue
-				}
-				for i := range s.xs {
-					d := &pb.nd[i][j][k]
-					f[i], df[i], tol[i] = d[0], d[1], d[3]
-				}
-				estimate(s.xs, f, df, tol, bad)
-			}
-		}
+		s.lineRatios(pb, true, bad)
 	}
-	for i := range bad {
-		if s.xs[i+1]-s.xs[i] < 2*minDx {
-			bad[i] = 0
-		}
-	}
+	keepWide(s.xs, bad, minDx)
 	return bad
 }
 
 // etaIndicator returns the ratios of the cells in η of pb.
 func (s *sbuild) etaIndicator(pb *pbuild) []float64 {
-	n := len(pb.eta)
-	bad := make([]float64, n-1)
+	bad := make([]float64, len(pb.eta)-1)
+	s.lineRatios(pb, false, bad)
+	keepWide(pb.eta, bad, minDeta)
+	return bad
+}
+
+// lineRatios raises ratio by the lines of every exact property of pb
+// along x (alongX) or along η, one line at every node of the other grid.
+func (s *sbuild) lineRatios(pb *pbuild, alongX bool, ratio []float64) {
+	u, other, m := pb.eta, len(s.xs), 2
+	if alongX {
+		u, other, m = s.xs, len(pb.eta), 1
+	}
+	n := len(u)
 	f, df, tol := make([]float64, n), make([]float64, n), make([]float64, n)
-	for i := range s.xs {
+	for o := 0; o < other; o++ {
 		for k, pp := range pb.spec.props {
 			if !pp.exact() {
 				continue
 			}
-			for j := range pb.eta {
-				d := &pb.nd[i][j][k]
-				f[j], df[j], tol[j] = d[0], d[2], d[3]
+			for j := range n {
+				var d *[4]float64
+				if alongX {
+					d = &pb.nd[j][o][k]
+				} else {
+					d = &pb.nd[o][j][k]
+				}
+				f[j], df[j], tol[j] = d[0], d[m], d[3]
 			}
-			estimate(pb.eta, f, df, tol, bad)
+			estimate(u, f, df, tol, ratio)
 		}
 	}
-	for j := range bad {
-		if pb.eta[j+1]-pb.eta[j] < 2*minDeta {
-			bad[j] = 0
+}
+
+// keepWide clears the ratios of the cells of u narrower than twice w:
+// they are not split further.
+func keepWide(u, ratio []float64, w float64) {
+	for i := range ratio {
+		if u[i+1]-u[i] < 2*w {
+			ratio[i] = 0
 		}
 	}
-	return bad
 }
 
 // split returns the nodes u with every cell whose ratio exceeds 1 cut

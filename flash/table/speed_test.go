@@ -32,23 +32,16 @@ func benchStates(tb testing.TB, t *Table) []vpoint {
 var benchSink float64
 
 func BenchmarkTable(b *testing.B) {
-	for _, name := range fluidNames {
-		t := tableOf(b, name)
-		pts := benchStates(b, t)
-		for _, fl := range flashNames {
-			in := benchInputs(fl, pts)
-			b.Run(name+"/"+fl, func(b *testing.B) {
-				b.ReportAllocs()
-				for i := 0; i < b.N; i++ {
-					x := &in[i%len(in)]
-					tableLoop(t, fl, x[0], x[1], 1)
-				}
-			})
-		}
-	}
+	benchFlashes(b, func(t *Table, fl string, a, b float64) { tableLoop(t, fl, a, b, 1) })
 }
 
 func BenchmarkEquation(b *testing.B) {
+	benchFlashes(b, func(t *Table, fl string, a, b float64) { equationLoop(t.Fluid(), fl, a, b, 1) })
+}
+
+// benchFlashes runs call per fluid and flash, cycling over the states of
+// the validation grid.
+func benchFlashes(b *testing.B, call func(t *Table, fl string, a, b float64)) {
 	for _, name := range fluidNames {
 		t := tableOf(b, name)
 		pts := benchStates(b, t)
@@ -58,37 +51,11 @@ func BenchmarkEquation(b *testing.B) {
 				b.ReportAllocs()
 				for i := 0; i < b.N; i++ {
 					x := &in[i%len(in)]
-					equationLoop(t.Fluid(), fl, x[0], x[1], 1)
+					call(t, fl, x[0], x[1])
 				}
 			})
 		}
 	}
-}
-
-// BenchmarkBuild times New with the default range of each fluid (the
-// goal: 1 s).
-func BenchmarkBuild(b *testing.B) {
-	for _, name := range fluidNames {
-		f, _ := fluid.Lookup(name)
-		b.Run(name, func(b *testing.B) {
-			for i := 0; i < b.N; i++ {
-				if _, err := New(f, Range{}); err != nil {
-					b.Fatal(err)
-				}
-			}
-		})
-	}
-}
-
-// benchInputs returns the inputs of flash fl at the states.
-func benchInputs(fl string, pts []vpoint) [][2]float64 {
-	var in [][2]float64
-	for i := range pts {
-		if a, b, ok := inputs(fl, &pts[i].ref); ok {
-			in = append(in, [2]float64{a, b})
-		}
-	}
-	return in
 }
 
 // TestSpeedReport prints, with -args -table.report, for every fluid and
@@ -176,4 +143,30 @@ func equationLoop(f *fluid.Fluid, fl string, a, b float64, n int) {
 			benchSink += st.T
 		}
 	}
+}
+
+// BenchmarkBuild times New with the default range of each fluid (the
+// goal: 1 s).
+func BenchmarkBuild(b *testing.B) {
+	for _, name := range fluidNames {
+		f, _ := fluid.Lookup(name)
+		b.Run(name, func(b *testing.B) {
+			for i := 0; i < b.N; i++ {
+				if _, err := New(f, Range{}); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
+
+// benchInputs returns the inputs of flash fl at the states.
+func benchInputs(fl string, pts []vpoint) [][2]float64 {
+	var in [][2]float64
+	for i := range pts {
+		if a, b, ok := inputs(fl, &pts[i].ref); ok {
+			in = append(in, [2]float64{a, b})
+		}
+	}
+	return in
 }
