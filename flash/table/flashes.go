@@ -36,43 +36,20 @@ func eta(y, lo, hi float64) float64 {
 	return 0
 }
 
-// place is where a point (x, y) of a flash's tables lies: its slab, the
-// cell i of x and the Hermite basis wx there, the band k of y (−1 below
-// the first curve, len(bands) above the last) and its boundary values lo
-// and hi at x.
-type place struct {
-	s      *slab
-	i      int
-	wx     [4]float64
-	k      int
-	lo, hi float64
-}
-
-// place sets pl to the place of (x, y), x in the tables' grid.
-func (ts *tables) place(x, y float64, pl *place) {
-	s, i, tx, w := ts.locate(x)
-	pl.s, pl.i, pl.wx = s, i, basis(tx, w)
-	pl.k, pl.lo, pl.hi = s.v.find(i, &pl.wx, y)
-}
-
-// patch returns the patch of pl's band, nil if it is not one.
-func (pl *place) patch() *patch {
-	if pl.k < 0 || pl.k >= len(pl.s.v.bands) {
+// patchOf returns the patch of band k of v, nil if it is not one.
+func (v *view) patchOf(k int) *patch {
+	if k < 0 || k >= len(v.bands) {
 		return nil
 	}
-	return pl.s.v.bands[pl.k].patch
+	return v.bands[k].patch
 }
 
-// eval interpolates the patch p of pl at y into out.
-func (pl *place) eval(p *patch, y float64, out *[maxProps]float64) {
-	p.eval(pl.i, &pl.wx, eta(y, pl.lo, pl.hi), out)
-}
-
-// onTriple reports whether p lies on the triple line of a fluid with a
-// solid model (within 1e-9), where the equation's flash returns its
-// documented choices.
-func (t *Table) onTriple(p float64) bool {
-	return t.solid && math.Abs(p-t.ptr) <= 1e-9*t.ptr
+// tabulatedP reports whether the tables of PH and PT hold pressure p: in
+// the range, and not on the triple line of a fluid with a solid model
+// (within 1e-9), where the equation's flash returns its documented
+// choices.
+func (t *Table) tabulatedP(p float64) bool {
+	return p >= t.r.PMin && p <= t.r.PMax && !(t.solid && math.Abs(p-t.ptr) <= 1e-9*t.ptr)
 }
 
 // PH returns the state of the table's fluid at pressure p in Pa and
@@ -110,15 +87,16 @@ func (t *Table) CoversPH(p, h float64) bool {
 
 // fromPH is PH from the tables; false where they do not answer.
 func (t *Table) fromPH(p, h float64, st *flash.State) bool {
-	if !(p >= t.r.PMin && p <= t.r.PMax) || t.onTriple(p) {
+	if !t.tabulatedP(p) {
 		return false
 	}
 	x := ln(p)
-	var pl place
-	t.ph.place(x, h, &pl)
-	if pa := pl.patch(); pa != nil {
+	s, i, tx, w := t.ph.locate(x)
+	wx := basis(tx, w)
+	k, lo, hi := s.v.find(i, &wx, h)
+	if pa := s.v.patchOf(k); pa != nil {
 		var o [maxProps]float64
-		pl.eval(pa, h, &o)
+		pa.eval(i, &wx, eta(h, lo, hi), &o)
 		rho := o[1]
 		if pa.rhoPerA {
 			rho *= p
@@ -126,7 +104,7 @@ func (t *Table) fromPH(p, h float64, st *flash.State) bool {
 		t.single(st, o[0], p, rho, h, o[2], h-p/rho, o[3], o[4], o[5])
 		return true
 	}
-	if pl.k < 0 || pl.k >= len(pl.s.v.bands) || pl.s.v.bands[pl.k].kind != bandTwoPhase {
+	if k < 0 || k >= len(s.v.bands) || s.v.bands[k].kind != bandTwoPhase {
 		return false
 	}
 	var v satVals
@@ -160,17 +138,18 @@ func (t *Table) CoversPT(p, T float64) bool {
 }
 
 func (t *Table) fromPT(p, T float64, st *flash.State) bool {
-	if !(p >= t.r.PMin && p <= t.r.PMax) || t.onTriple(p) {
+	if !t.tabulatedP(p) {
 		return false
 	}
-	var pl place
-	t.pt.place(ln(p), T, &pl)
-	pa := pl.patch()
+	s, i, tx, w := t.pt.locate(ln(p))
+	wx := basis(tx, w)
+	k, lo, hi := s.v.find(i, &wx, T)
+	pa := s.v.patchOf(k)
 	if pa == nil {
 		return false
 	}
 	var o [maxProps]float64
-	pl.eval(pa, T, &o)
+	pa.eval(i, &wx, eta(T, lo, hi), &o)
 	rho := o[1]
 	if pa.rhoPerA {
 		rho *= p
@@ -251,25 +230,26 @@ func (t *Table) fromDU(rho, u float64, st *flash.State) bool {
 	if !(rho >= t.du.lo && rho <= t.du.hi) {
 		return false
 	}
-	var pl place
-	t.du.place(ln(rho), u, &pl)
-	if pa := pl.patch(); pa != nil {
+	s, i, tx, w := t.du.locate(ln(rho))
+	wx := basis(tx, w)
+	k, lo, hi := s.v.find(i, &wx, u)
+	if pa := s.v.patchOf(k); pa != nil {
 		var o [maxProps]float64
-		pl.eval(pa, u, &o)
+		pa.eval(i, &wx, eta(u, lo, hi), &o)
 		pr := o[1]
 		t.single(st, o[0], rho*pr, rho, u+pr, o[2], u, o[3], o[4], o[5])
 		return true
 	}
-	if pl.k >= 0 || pl.s.v.below != bandTwoPhase {
+	if k >= 0 || s.v.below != bandTwoPhase {
 		return false
 	}
 	// The upper end of the mixtures along the isochore: where it leaves
 	// the dome, or p1 (the critical band).
 	xs := t.sat.x.x[len(t.sat.x.x)-1]
-	if len(pl.s.v.lnPSat) > 0 {
-		xs = pl.s.v.lnPSat.at(pl.i, &pl.wx)
+	if len(s.v.lnPSat) > 0 {
+		xs = s.v.lnPSat.at(i, &wx)
 	}
-	return t.duTwoPhase(rho, u, xs, pl.lo-u, st)
+	return t.duTwoPhase(rho, u, xs, lo-u, st)
 }
 
 // duTwoPhase solves the liquid–vapour mixture of overall density rho and
