@@ -111,13 +111,15 @@
 //
 // New evaluates the equation at every node, about two evaluations a node
 // (each node starts from its neighbour's state, corrected to second order),
-// on all processors: 0.2–0.4 s per fluid on a 2-core machine (BenchmarkBuild).
-// The tables take 17.0 MB for CO2, 13.5 MB for water and 8.7 MB for R-134a
-// (Bytes). A call costs about 80 ns (TestSpeedReport with -table.report
-// prints the medians over the validation grid against the equation's
-// flashes: PH 60–145 times faster, DU 48–68 times, PT 27–37 times faster
-// than the equation's flashes in the same run); a liquid–vapour DU, which
-// iterates on the splines, about 0.6 µs. None allocates. On amd64
+// on all processors: on a 2-core machine 0.3 s for CO2, 0.4 s for water and
+// 0.2 s for R-134a when it is otherwise idle, up to 0.9 s under load
+// (BenchmarkBuild). The tables take 17.0 MB for CO2, 13.5 MB for water and
+// 8.7 MB for R-134a (Bytes). A call costs about 80 ns; TestSpeedReport
+// (with -table.report) prints the medians over the validation grid against
+// the equation's flashes in the same run: PH 61–148 times faster, DU 47–69
+// times, PT 27–37 times (the equation's PT solves for one density, 2–3 µs,
+// and the tables' call fills every field of the state). A liquid–vapour
+// DU, which iterates on the splines, costs about 0.6 µs. None allocates. On amd64
 // processors with AVX and FMA the bicubic sums of the six properties run
 // as a vector kernel in assembly (evalVec), elsewhere in Go (evalGo).
 //
