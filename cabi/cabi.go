@@ -343,10 +343,18 @@ func fromC(c *C.tp_state) flash.State {
 //export tp_flash
 func tp_flash(h, pair C.int32_t, a, b C.double, o *C.tp_options, out *C.tp_state, e *C.tp_error) (status C.int32_t) {
 	defer guard(e, &status)
+	return flashInto("tp_flash", out, e, func() (flash.State, error) {
+		return flashOne(h, pair, float64(a), float64(b), o, 0)
+	})
+}
+
+// flashInto runs one flash for an entry point that writes a tp_state:
+// out checked, written on success, zeroed (but for its size) on an error.
+func flashInto(op string, out *C.tp_state, e *C.tp_error, fn func() (flash.State, error)) C.int32_t {
 	if out == nil || uintptr(out.size) < unsafe.Sizeof(C.tp_state{}) {
-		return C.int32_t(fail(e, sizeError("tp_flash", "tp_state", unsafe.Sizeof(C.tp_state{}))))
+		return C.int32_t(fail(e, sizeError(op, "tp_state", unsafe.Sizeof(C.tp_state{}))))
 	}
-	st, err := flashOne(h, pair, float64(a), float64(b), o, 0)
+	st, err := fn()
 	if err != nil {
 		size := out.size
 		*out = C.tp_state{}
@@ -373,8 +381,19 @@ func flashOne(h, pair C.int32_t, a, b float64, o *C.tp_options, i int) (flash.St
 //export tp_flash_n
 func tp_flash_n(h, pair, n C.int32_t, a, b *C.double, o *C.tp_options, out *C.tp_state, stat *C.int32_t, e *C.tp_error) (status C.int32_t) {
 	defer guard(e, &status)
+	return flashN("tp_flash_n", n, a, b, out, stat, e, func(i int, a, b float64) (flash.State, error) {
+		return flashOne(h, pair, a, b, o, i)
+	})
+}
+
+// flashN runs n flashes for a vector entry point: out[i] written on
+// success and zeroed (but for its size) on an error, stat[i] (if not
+// NULL) the status of each; it returns TP_OK or the status of the first
+// failure, whose message goes to e.
+func flashN(op string, n C.int32_t, a, b *C.double, out *C.tp_state, stat *C.int32_t, e *C.tp_error,
+	one func(i int, a, b float64) (flash.State, error)) C.int32_t {
 	if n < 0 || (n > 0 && (a == nil || b == nil || out == nil)) {
-		return C.int32_t(fail(e, fluid.NewError("tp_flash_n", fluid.ErrInvalidInput,
+		return C.int32_t(fail(e, fluid.NewError(op, fluid.ErrInvalidInput,
 			fmt.Sprintf("n must be >= 0 and a, b, out non-NULL; got n = %d", int(n)))))
 	}
 	if n == 0 {
@@ -382,7 +401,7 @@ func tp_flash_n(h, pair, n C.int32_t, a, b *C.double, o *C.tp_options, out *C.tp
 		return statusOK
 	}
 	if uintptr(out.size) < unsafe.Sizeof(C.tp_state{}) {
-		return C.int32_t(fail(e, sizeError("tp_flash_n", "tp_state", unsafe.Sizeof(C.tp_state{}))))
+		return C.int32_t(fail(e, sizeError(op, "tp_state", unsafe.Sizeof(C.tp_state{}))))
 	}
 	as, bs := unsafe.Slice(a, int(n)), unsafe.Slice(b, int(n))
 	outs := unsafe.Slice(out, int(n))
@@ -394,7 +413,7 @@ func tp_flash_n(h, pair, n C.int32_t, a, b *C.double, o *C.tp_options, out *C.tp
 	first := C.int32_t(statusOK)
 	for i := range outs {
 		outs[i].size = size
-		st, err := flashOne(h, pair, float64(as[i]), float64(bs[i]), o, i)
+		st, err := one(i, float64(as[i]), float64(bs[i]))
 		code := C.int32_t(statusOf(err))
 		if err != nil {
 			outs[i] = C.tp_state{size: size}
@@ -468,10 +487,16 @@ func property(st *flash.State, prop C.int32_t) (float64, error) {
 }
 
 func propOne(h, pair C.int32_t, a, b float64, prop C.int32_t) (float64, error) {
+	return propOf(prop, func() (flash.State, error) { return flashOne(h, pair, a, b, nil, 0) })
+}
+
+// propOf returns property prop of the state fn returns, the code checked
+// first.
+func propOf(prop C.int32_t, fn func() (flash.State, error)) (float64, error) {
 	if _, err := property(&flash.State{}, prop); err != nil {
 		return math.NaN(), err
 	}
-	st, err := flashOne(h, pair, a, b, nil, 0)
+	st, err := fn()
 	if err != nil {
 		return math.NaN(), err
 	}

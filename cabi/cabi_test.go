@@ -19,6 +19,7 @@ import (
 
 	"github.com/tripoint-thermo/tripoint/flash"
 	"github.com/tripoint-thermo/tripoint/flash/partial"
+	"github.com/tripoint-thermo/tripoint/flash/table"
 	"github.com/tripoint-thermo/tripoint/fluid"
 )
 
@@ -120,21 +121,27 @@ func TestCMatchesGo(t *testing.T) {
 		if err != nil {
 			continue
 		}
-		want := fmt.Sprintf("%d %d %d %d", statusOK, st.Phase, st.Flags, st.N)
-		for _, v := range []float64{st.T, st.P, st.Rho, st.H, st.S, st.U, st.Cp, st.Cv, st.W, st.Quality, st.Solid} {
-			want += fmt.Sprintf(" %016x", math.Float64bits(v))
-		}
-		for k := 0; k < int(st.N); k++ {
-			p := st.Phases[k]
-			want += fmt.Sprintf(" %d", p.Phase)
-			for _, v := range []float64{p.Fraction, p.Rho, p.H, p.S, p.U, p.Cp, p.Cv, p.W} {
-				want += fmt.Sprintf(" %016x", math.Float64bits(v))
-			}
-		}
-		if lines[i] != want {
+		if want := fmt.Sprintf("%d ", statusOK) + stateLine(&st); lines[i] != want {
 			t.Errorf("case %+v:\n C: %s\nGo: %s", c, lines[i], want)
 		}
 	}
+}
+
+// stateLine formats st as the C test program prints it: phase, flags, n
+// and the fields as hexadecimal bits.
+func stateLine(st *flash.State) string {
+	line := fmt.Sprintf("%d %d %d", st.Phase, st.Flags, st.N)
+	for _, v := range []float64{st.T, st.P, st.Rho, st.H, st.S, st.U, st.Cp, st.Cv, st.W, st.Quality, st.Solid} {
+		line += fmt.Sprintf(" %016x", math.Float64bits(v))
+	}
+	for k := 0; k < int(st.N); k++ {
+		p := st.Phases[k]
+		line += fmt.Sprintf(" %d", p.Phase)
+		for _, v := range []float64{p.Fraction, p.Rho, p.H, p.S, p.U, p.Cp, p.Cv, p.W} {
+			line += fmt.Sprintf(" %016x", math.Float64bits(v))
+		}
+	}
+	return line
 }
 
 // TestCDerivative checks tp_derivative from C against partial.Derivative,
@@ -253,15 +260,19 @@ func TestCErrors(t *testing.T) {
 }
 
 // TestHeaderSymbols checks that tripoint.h declares exactly the functions
-// cabi.go exports, and that the built library defines them.
+// cabi.go and tables.go export, and that the built library defines them.
 func TestHeaderSymbols(t *testing.T) {
 	hdr, err := os.ReadFile("tripoint.h")
 	if err != nil {
 		t.Fatal(err)
 	}
-	src, err := os.ReadFile("cabi.go")
-	if err != nil {
-		t.Fatal(err)
+	var src []byte
+	for _, name := range []string{"cabi.go", "tables.go"} {
+		b, err := os.ReadFile(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		src = append(src, b...)
 	}
 	declared := uniq(regexp.MustCompile(`(?m)^\s*(?:int32_t|double)\s+(tp_\w+)\s*\(`).FindAllSubmatch(hdr, -1))
 	exported := uniq(regexp.MustCompile(`(?m)^//export (tp_\w+)`).FindAllSubmatch(src, -1))
@@ -405,5 +416,117 @@ func BenchmarkBoundary(b *testing.B) {
 			b.ReportMetric(cross, "crossing-ns")
 			b.ReportMetric((goNs+cross)/goNs, "(Go+crossing)/Go")
 		})
+	}
+}
+
+// TestCTables checks the spline tables through C against the Go API's
+// tables, to the last bit, for states in every region of each fluid (one
+// in the critical neighbourhood, where the equation answers, and one out
+// of range), and the statuses of bad table calls.
+func TestCTables(t *testing.T) {
+	_, ctest := buildAll(t)
+	type tc struct {
+		fluid string
+		pair  int
+		a, b  float64
+	}
+	cs := []tc{
+		{"CO2", pairPT, 1e5, 300}, {"CO2", pairPT, 10e6, 310}, {"CO2", pairPT, 6e6, 280},
+		{"CO2", pairPH, 3e6, -150e3}, {"CO2", pairPH, 101325, -250e3}, {"CO2", pairDU, 600, -250e3},
+		{"CO2", pairDU, 50, 200e3}, {"CO2", pairPT, 7.4e6, 305}, {"CO2", pairPT, 1e9, 300},
+		{"water", pairPT, 101325, 300}, {"water", pairPH, 1e5, 1e6}, {"water", pairDU, 10, 2e6},
+		{"R134a", pairPT, 1e6, 300}, {"R134a", pairDU, 1200, 250e3},
+	}
+	var in bytes.Buffer
+	for _, c := range cs {
+		fmt.Fprintf(&in, "%s %d %016x %016x\n", c.fluid, c.pair, math.Float64bits(c.a), math.Float64bits(c.b))
+	}
+	cmd := exec.Command(ctest, "tables")
+	cmd.Stdin = &in
+	out, err := cmd.Output()
+	if err != nil {
+		t.Fatalf("ctest tables: %v", err)
+	}
+	lines := strings.Split(strings.TrimSpace(string(out)), "\n")
+	if len(lines) < len(cs) {
+		t.Fatalf("ctest printed %d lines for %d cases:\n%s", len(lines), len(cs), out)
+	}
+	tabs := map[string]*table.Table{}
+	for i, c := range cs {
+		tb := tabs[c.fluid]
+		if tb == nil {
+			f, _ := fluid.Lookup(c.fluid)
+			if tb, err = table.New(f, table.Range{}); err != nil {
+				t.Fatal(err)
+			}
+			tabs[c.fluid] = tb
+		}
+		var st flash.State
+		var covers bool
+		switch c.pair {
+		case pairPT:
+			st, err = tb.PT(c.a, c.b)
+			covers = tb.CoversPT(c.a, c.b)
+		case pairPH:
+			st, err = tb.PH(c.a, c.b)
+			covers = tb.CoversPH(c.a, c.b)
+		default:
+			st, err = tb.DU(c.a, c.b)
+			covers = tb.CoversDU(c.a, c.b)
+		}
+		want := fmt.Sprintf("%d %d", map[bool]int{true: 1}[covers], statusOf(err))
+		if err == nil {
+			want += " " + stateLine(&st)
+		}
+		got := lines[i]
+		if err != nil {
+			// An error: the status only (the C state is zeroed).
+			got = strings.Join(strings.Fields(got)[:2], " ")
+		}
+		if got != want {
+			t.Errorf("case %+v:\n C: %s\nGo: %s", c, got, want)
+		}
+	}
+	if !strings.HasPrefix(lines[7], "0 0 ") || !strings.HasPrefix(lines[8], "0 "+strconv.Itoa(statusOutOfRange)) {
+		t.Errorf("the critical neighbourhood and a state out of range: %q, %q", lines[7], lines[8])
+	}
+	want := map[string]string{
+		"tbl-bad-pair": "1", "tbl-bad-handle": "1", "tbl-zero-handle": "1", "tbl-covers-bad-pair": "1",
+		"tbl-info": "0 1 1", "tbl-bad-range": "1", "tbl-small-range": "1",
+		"tbl-vector": fmt.Sprintf("%d %d %d %d", statusInvalidInput, statusOK, statusInvalidInput, statusOK),
+		"tbl-free":   "0", "tbl-freed": "1", "tbl-double-free": "1",
+	}
+	seen := map[string]bool{}
+	for _, l := range lines[len(cs):] {
+		f := strings.Fields(l)
+		w, ok := want[f[0]]
+		if !ok {
+			t.Errorf("unexpected line %q", l)
+			continue
+		}
+		seen[f[0]] = true
+		n := len(strings.Fields(w))
+		if got := strings.Join(f[1:1+min(n, len(f)-1)], " "); got != w {
+			t.Errorf("%s: %q, want %q", f[0], got, w)
+		}
+		if w == "1" && len(f) < 3 {
+			t.Errorf("%s: no message", f[0])
+		}
+	}
+	for k := range want {
+		if !seen[k] {
+			t.Errorf("no result for %s:\n%s", k, out)
+		}
+	}
+}
+
+func TestCTableThreads(t *testing.T) {
+	_, ctest := buildAll(t)
+	out, err := exec.Command(ctest, "tablethreads", "100000").CombinedOutput()
+	if err != nil {
+		t.Fatalf("ctest tablethreads: %v\n%s", err, out)
+	}
+	if strings.TrimSpace(string(out)) != "mismatches 0" {
+		t.Errorf("8 threads x 100000 table calls: %s", out)
 	}
 }

@@ -92,5 +92,58 @@ class TestLibrary(unittest.TestCase):
         self.assertEqual(bad, [])
 
 
+class TestTables(unittest.TestCase):
+    @classmethod
+    def setUpClass(cls):
+        cls.lib = tripoint.Library()
+        cls.co2 = cls.lib.fluid("CO2")
+        cls.tab = cls.co2.table()
+
+    @classmethod
+    def tearDownClass(cls):
+        cls.tab.close()
+
+    def test_against_the_equation(self):
+        # States of our own in the liquid, vapour, supercritical and
+        # two-phase regions: the tables within 1e-6 of the equation.
+        for p, T in [(6e6, 280.0), (1e6, 300.0), (10e6, 330.0), (20e6, 600.0)]:
+            ref = self.co2.pt(p, T)
+            for st in (self.tab.pt(p, T), self.tab.ph(p, ref.h), self.tab.du(ref.rho, ref.u)):
+                self.assertTrue(self.tab.covers(tripoint.PT, p, T))
+                self.assertEqual(st.phase, ref.phase)
+                self.assertLess(abs(st.T / ref.T - 1), 1e-6)
+                self.assertLess(abs(st.rho / ref.rho - 1), 1e-6)
+        mix = self.co2.pq(3e6, 0.4)
+        st = self.tab.ph(3e6, mix.h)
+        self.assertEqual(st.phase, tripoint.TWO_PHASE)
+        self.assertLess(abs(st.quality - 0.4), 1e-6)
+
+    def test_info_and_neighbourhood(self):
+        p1, p2, t1, t2, rho1, rho2 = self.tab.neighbourhood
+        self.assertLess(p1, self.co2.critical[1])
+        self.assertGreater(self.tab.bytes, 0)
+        # At the critical point itself the equation answers.
+        self.assertFalse(self.tab.covers(tripoint.PT, self.co2.critical[1] * 1.01, self.co2.critical[0] * 1.001))
+        st = self.tab.pt(self.co2.critical[1] * 1.01, self.co2.critical[0] * 1.001)
+        self.assertEqual(st.phase, tripoint.SUPERCRITICAL)
+
+    def test_vector_and_prop(self):
+        ps, ts = [1e6, float("nan"), 2e6], [300.0, 300.0, 320.0]
+        states, stat = self.tab.flash_n(tripoint.PT, ps, ts)
+        self.assertEqual(stat, [tripoint.OK, tripoint.INVALID_INPUT, tripoint.OK])
+        self.assertEqual(states[0].h, self.tab.prop(tripoint.PT, 1e6, 300.0, tripoint.PROP_H))
+
+    def test_errors(self):
+        with self.assertRaises(tripoint.InvalidInputError):
+            self.tab.flash(tripoint.PS, 1e5, 100.0)
+        with self.assertRaises(tripoint.OutOfRangeError):
+            self.co2.table(p_max=1e6)  # does not enclose the critical neighbourhood
+        t = self.co2.table(p_max=20e6)
+        t.close()
+        t.close()  # a second close does nothing
+        with self.assertRaises(tripoint.InvalidInputError):
+            t.pt(1e6, 300.0)
+
+
 if __name__ == "__main__":
     unittest.main()

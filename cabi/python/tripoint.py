@@ -10,6 +10,8 @@ cabi/build.sh (or `go build -buildmode=c-shared -o libtripoint.so ./cabi`):
     print(st.T, st.phase_name, st.quality)
     rho = co2.prop(tripoint.PT, 1e5, 300.0, tripoint.PROP_RHO)
     rhos = co2.prop_n(tripoint.PT, tripoint.PROP_RHO, [1e5, 2e5], [300.0, 310.0])
+    with co2.table() as tab:           # spline tables: PT, PH, DU without the equation
+        st = tab.ph(3.0e6, 250e3)      # within 1e-6 of co2.ph(...) in T, rho, h, s
 
 Errors raise tripoint.Error (with .code and .message), or a subclass per
 status code. The library cannot be unloaded once loaded; load it once.
@@ -118,6 +120,17 @@ class _FluidInfo(ctypes.Structure):
                                        "t_min", "t_max", "p_max")]
 
 
+class _TableRange(ctypes.Structure):
+    _fields_ = [("size", ctypes.c_uint32), ("reserved", ctypes.c_int32)] + [
+        (n, ctypes.c_double) for n in ("p_min", "p_max", "t_min", "t_max")]
+
+
+class _TableInfo(ctypes.Structure):
+    _fields_ = [("size", ctypes.c_uint32), ("fluid", ctypes.c_int32)] + [
+        (n, ctypes.c_double) for n in ("bytes", "p_min", "p_max", "t_min", "t_max",
+                                       "p1", "p2", "t1", "t2", "rho1", "rho2")]
+
+
 class PhaseState:
     """One coexisting phase of a State (SI units)."""
 
@@ -179,6 +192,13 @@ class Library:
             "tp_prop_n": (i32, [i32, i32, i32, i32, P(dbl), P(dbl), P(dbl), P(i32), P(_Error)]),
             "tp_derivative": (dbl, [i32, i32, dbl, dbl, i32, i32, i32, P(_Error)]),
             "tp_curve_derivative": (dbl, [i32, i32, i32, dbl, i32, i32, i32, P(_Error)]),
+            "tp_table_new": (i32, [i32, P(_TableRange), P(_Error)]),
+            "tp_table_free": (i32, [i32, P(_Error)]),
+            "tp_table_info_get": (i32, [i32, P(_TableInfo), P(_Error)]),
+            "tp_table_covers": (i32, [i32, i32, dbl, dbl, P(_Error)]),
+            "tp_table_flash": (i32, [i32, i32, dbl, dbl, P(_State), P(_Error)]),
+            "tp_table_flash_n": (i32, [i32, i32, i32, P(dbl), P(dbl), P(_State), P(i32), P(_Error)]),
+            "tp_table_prop": (dbl, [i32, i32, dbl, dbl, i32, P(_Error)]),
         }
         for name, (res, args) in sig.items():
             fn = getattr(lib, name)
@@ -213,6 +233,22 @@ def _err():
     e = _Error()
     e.size = ctypes.sizeof(_Error)
     return e
+
+
+def _flash_n(call, a, b):
+    """Runs a vector flash call(n, a, b, out, status, err) on the lists a and
+    b: returns (states, statuses), a failed element None."""
+    n = len(a)
+    if len(b) != n:
+        raise ValueError("a and b differ in length")
+    A, B = (ctypes.c_double * n)(*a), (ctypes.c_double * n)(*b)
+    out = (_State * n)()
+    for s in out:
+        s.size = ctypes.sizeof(_State)
+    stat = (ctypes.c_int32 * n)()
+    err = _err()
+    call(n, A, B, out, stat, ctypes.byref(err))
+    return [State(out[i]) if stat[i] == OK else None for i in range(n)], list(stat)
 
 
 def _options(phase, allow_metastable, guess):
@@ -264,18 +300,9 @@ class Fluid:
 
     def flash_n(self, pair, a, b, phase=0, allow_metastable=False):
         """Vector flash: returns (states, statuses); a failed element is None."""
-        n = len(a)
-        if len(b) != n:
-            raise ValueError("a and b differ in length")
-        A, B = (ctypes.c_double * n)(*a), (ctypes.c_double * n)(*b)
-        out = (_State * n)()
-        for s in out:
-            s.size = ctypes.sizeof(_State)
-        stat = (ctypes.c_int32 * n)()
-        err = _err()
-        self._lib._lib.tp_flash_n(self._h, pair, n, A, B, _options(phase, allow_metastable, None), out, stat,
-                                  ctypes.byref(err))
-        return [State(out[i]) if stat[i] == OK else None for i in range(n)], list(stat)
+        opt = _options(phase, allow_metastable, None)
+        return _flash_n(lambda n, A, B, out, stat, err: self._lib._lib.tp_flash_n(
+            self._h, pair, n, A, B, opt, out, stat, err), a, b)
 
     def prop(self, pair, a, b, prop):
         """One property of the state at (a, b); raises on error."""
@@ -312,3 +339,85 @@ class Fluid:
         A, B, out = (ctypes.c_double * n)(*a), (ctypes.c_double * n)(*b), (ctypes.c_double * n)()
         self._lib._lib.tp_prop_n(self._h, pair, prop, n, A, B, out, None, None)
         return list(out)
+
+    def table(self, p_min=0.0, p_max=0.0, t_min=0.0, t_max=0.0):
+        """Spline tables of this fluid over a range (Pa, K; 0 for the
+        fluid's defaults): PT, PH and DU without the equation of state.
+        Building takes about a second; free them with close() (or use a
+        with block)."""
+        r = _TableRange()
+        r.size = ctypes.sizeof(_TableRange)
+        r.p_min, r.p_max, r.t_min, r.t_max = p_min, p_max, t_min, t_max
+        err = _err()
+        h = self._lib._lib.tp_table_new(self._h, ctypes.byref(r), ctypes.byref(err))
+        if h <= 0:
+            _raise(err.code, err.message.decode("ascii"))
+        return Table(self._lib, h)
+
+
+class Table:
+    """Spline tables of a fluid (Fluid.table). pt, ph and du return State as
+    the fluid's flashes do, from the tables where covers() is true and from
+    the equation elsewhere (the critical neighbourhood, outside the range,
+    the solid regions). Attributes: bytes, range (p_min, p_max, t_min,
+    t_max) and neighbourhood (p1, p2, t1, t2, rho1, rho2)."""
+
+    def __init__(self, lib, handle):
+        self._lib, self._h = lib, handle
+        info = _TableInfo()
+        info.size = ctypes.sizeof(_TableInfo)
+        err = _err()
+        if lib._lib.tp_table_info_get(handle, ctypes.byref(info), ctypes.byref(err)) != OK:
+            _raise(err.code, err.message.decode("ascii"))
+        self.bytes = int(info.bytes)
+        self.range = (info.p_min, info.p_max, info.t_min, info.t_max)
+        self.neighbourhood = (info.p1, info.p2, info.t1, info.t2, info.rho1, info.rho2)
+
+    def close(self):
+        """Frees the tables; the Table may not be used afterwards."""
+        if self._h > 0:
+            err = _err()
+            s = self._lib._lib.tp_table_free(self._h, ctypes.byref(err))
+            self._h = 0
+            if s != OK:
+                _raise(err.code, err.message.decode("ascii"))
+
+    def __enter__(self):
+        return self
+
+    def __exit__(self, *exc):
+        self.close()
+        return False
+
+    def flash(self, pair, a, b):
+        st = _State()
+        st.size = ctypes.sizeof(_State)
+        err = _err()
+        if self._lib._lib.tp_table_flash(self._h, pair, a, b, ctypes.byref(st), ctypes.byref(err)) != OK:
+            _raise(err.code, err.message.decode("ascii"))
+        return State(st)
+
+    def pt(self, p, T): return self.flash(PT, p, T)
+    def ph(self, p, h): return self.flash(PH, p, h)
+    def du(self, rho, u): return self.flash(DU, rho, u)
+
+    def covers(self, pair, a, b):
+        """True if the tables answer (a, b) of pair PT, PH or DU themselves."""
+        err = _err()
+        c = self._lib._lib.tp_table_covers(self._h, pair, a, b, ctypes.byref(err))
+        if c < 0:
+            _raise(err.code, err.message.decode("ascii"))
+        return c == 1
+
+    def prop(self, pair, a, b, prop):
+        """One property of the state at (a, b); raises on error."""
+        err = _err()
+        v = self._lib._lib.tp_table_prop(self._h, pair, a, b, prop, ctypes.byref(err))
+        if math.isnan(v) and err.code != OK:
+            _raise(err.code, err.message.decode("ascii"))
+        return v
+
+    def flash_n(self, pair, a, b):
+        """Vector flash: returns (states, statuses); a failed element is None."""
+        return _flash_n(lambda n, A, B, out, stat, err: self._lib._lib.tp_table_flash_n(
+            self._h, pair, n, A, B, out, stat, err), a, b)
