@@ -116,8 +116,10 @@ func placeLV(n *satNodes, hd, sd float64) tiePlace {
 			return tiePlace{kind: tieNone}
 		}
 	}
-	// The first node with φ ≥ 0 in (0, top]: φ rises on [0, il].
-	a, b := 0, top
+	// The first node with φ ≥ 0 in (0, top]: φ rises on [0, il]. With
+	// φ(0) = 0 exactly ((h, s) on the tie line of the first node, the
+	// triple point's, and s at its liquid's) the interval is the first.
+	a, b := 0, max(top, 1)
 	for b-a > 1 {
 		m := (a + b) / 2
 		if phi(m) < 0 {
@@ -127,7 +129,10 @@ func placeLV(n *satNodes, hd, sd float64) tiePlace {
 		}
 	}
 	fa, fb := phi(a), phi(b)
-	t := fa / (fa - fb)
+	t := 0.0
+	if fa != fb {
+		t = fa / (fa - fb)
+	}
 	sl := lerp(n.liq[a].S, n.liq[b].S, t)
 	sv := lerp(n.vap[a].S, n.vap[b].S, t)
 	x := 0.5
@@ -520,18 +525,61 @@ func (k *call) hsSat(n *satNodes, h, s float64, lv *tiePlace) (fluid.Saturation,
 	return k.hsSatBracket(n, h, s, lv)
 }
 
-// hsSatNewton is the Newton iteration of hsSat. The tolerances are those
+// hsSatNewton is the Newton iteration of hsSat (lvMixNewton with the
+// condition h − T s = g′).
+func hsSatNewton(f *fluid.Fluid, h, s, T, rl, rv, Ta, Tb float64) (fluid.Saturation, bool) {
+	return lvMixNewton(f, mixCond{a: h, b: s}, T, rl, rv, Ta, Tb)
+}
+
+// lvResidual returns the condition's residual for a liquid–vapour
+// mixture of the saturated phases l and v at their T, in units of RT, and
+// its derivatives in T (at fixed densities), ln ρ′ and ln ρ″:
+//
+//	HS: F = (h − T s − g′)/RT,  ∂g′/∂T = −s′ + (∂p/∂T)_ρ′/ρ′,
+//	    ∂g′/∂ln ρ′ = (∂p/∂ρ)_T′;
+//	DU: F = (u_mix − u)/RT, u_mix = u′ + x (u″ − u′),
+//	    x = (v − v′)/(v″ − v′), ∂x/∂ln ρ′ = (1 − x) v′/(v″ − v′),
+//	    ∂x/∂ln ρ″ = x v″/(v″ − v′), ∂u/∂T = cv,
+//	    ∂u/∂ln ρ = (p − T(∂p/∂T)_ρ)/ρ.
+func (m *mixCond) lvResidual(l, v *fluid.Props, rt float64) (F, dT, dl, dv float64) {
+	T := l.T
+	if !m.du {
+		h, s := m.a, m.b
+		return (h - T*s - l.G) / rt, (-s + l.S - l.DpDT/l.Rho) / rt, -l.DpDrho / rt, 0
+	}
+	vm, u := m.a, m.b
+	vl, vv := 1/l.Rho, 1/v.Rho
+	x := (vm - vl) / (vv - vl)
+	du := v.U - l.U
+	F = (l.U + x*du - u) / rt
+	dT = ((1-x)*l.Cv + x*v.Cv) / rt
+	dl = ((1-x)*(l.P-T*l.DpDT)/l.Rho + du*(1-x)*vl/(vv-vl)) / rt
+	dv = (x*(v.P-T*v.DpDT)/v.Rho + du*x*vv/(vv-vl)) / rt
+	return F, dT, dl, dv
+}
+
+// lvMixNewton solves the liquid–vapour mixture with the condition m (h
+// and s, or specific volume and u) by Newton's method in
+// (T, ln ρ′, ln ρ″) on
+//
+//	F1 = (p′ − p″)/(ρr R T),  F2 = (g′ − g″)/(RT),  F3 = m's residual
+//
+// (ρr the reducing density), from (T, ρ′, ρ″). The tolerances are those
 // of fluid.SaturationAtT for F1 and F2 (the rounding level of the
 // equation: 1e-14(δ′τ⁴ + |P|) and 1e-14τ⁴ in reduced units) and 1/100 of
-// the backward-residual floor of h for F3. The root lies between the
-// nodes' temperatures Ta and Tb: an iterate that leaves that interval by
-// its width, or 16 iterations, end the attempt (where (h, s) lies beside
-// the dome there may be no root at all).
-func hsSatNewton(f *fluid.Fluid, h, s, T, rl, rv, Ta, Tb float64) (fluid.Saturation, bool) {
+// the backward-residual floor of h or u for F3. Within a millikelvin of
+// Tc, where the equation fixes the saturated densities only loosely
+// (fluid.SaturationAtT: rounding leaves F1 and F2 above their
+// tolerances in a band of densities), a point of that band is accepted
+// once F3 meets its tolerance with F1 and F2 within 100 times theirs.
+// The root lies between Ta and Tb: an iterate that leaves that interval
+// by its width, or 16 iterations, end the attempt (where the inputs lie
+// beside the dome there may be no root at all).
+func lvMixNewton(f *fluid.Fluid, m mixCond, T, rl, rv, Ta, Tb float64) (fluid.Saturation, bool) {
 	Tr, rhor := f.Reducing()
 	R := f.GasConstant()
 	c := f.Critical()
-	tolH := qH.tol(f, nil, h)
+	tol3 := m.tol(f)
 	yl, yv := math.Log(rl), math.Log(rv)
 	var l, v fluid.Props
 	good := false
@@ -560,10 +608,16 @@ func hsSatNewton(f *fluid.Fluid, h, s, T, rl, rv, Ta, Tb float64) (fluid.Saturat
 		P := v.P / (rhor * rt)
 		F1 := (l.P - v.P) / (rhor * rt)
 		F2 := (l.G - v.G) / rt
-		F3 := (h - T*s - l.G) / rt
-		res := max(math.Abs(F1)/(1e-14*(l.Rho/rhor*t4+math.Abs(P))), math.Abs(F2)/(1e-14*t4), math.Abs(F3)*rt/tolH)
+		F3, a31, a32, a33 := m.lvResidual(&l, &v, rt)
+		res12 := max(math.Abs(F1)/(1e-14*(l.Rho/rhor*t4+math.Abs(P))), math.Abs(F2)/(1e-14*t4))
+		res := max(res12, math.Abs(F3)*rt/tol3)
+		near := c.T-T < 1e-3
+		if near && res12 <= 100 && math.Abs(F3)*rt <= tol3 {
+			converged = true
+			break
+		}
 		if w.check(res, lastStep) {
-			if res > 5 && !(math.Abs(F3)*rt <= 100*tolH && res <= 100) {
+			if res > 5 && !(math.Abs(F3)*rt <= 100*tol3 && res <= 100) {
 				return fluid.Saturation{}, false
 			}
 			converged = true
@@ -572,12 +626,17 @@ func hsSatNewton(f *fluid.Fluid, h, s, T, rl, rv, Ta, Tb float64) (fluid.Saturat
 		// Rows: ∂/∂T at fixed ρ, ∂/∂ln ρ′, ∂/∂ln ρ″.
 		a11, a12, a13 := (l.DpDT-v.DpDT)/(rhor*rt), l.Rho*l.DpDrho/(rhor*rt), -v.Rho*v.DpDrho/(rhor*rt)
 		a21, a22, a23 := (-l.S+l.DpDT/l.Rho+v.S-v.DpDT/v.Rho)/rt, l.DpDrho/rt, -v.DpDrho/rt
-		a31, a32 := (-s+l.S-l.DpDT/l.Rho)/rt, -l.DpDrho/rt
-		// Solve J d = −F with a33 = 0, by Cramer's rule.
-		det := a11*(a22*0-a23*a32) - a12*(a21*0-a23*a31) + a13*(a21*a32-a22*a31)
+		// Solve J d = −F by Cramer's rule.
+		det := a11*(a22*a33-a23*a32) - a12*(a21*a33-a23*a31) + a13*(a21*a32-a22*a31)
 		b1, b2, b3 := -F1, -F2, -F3
-		dT := (b1*(a22*0-a23*a32) - a12*(b2*0-a23*b3) + a13*(b2*a32-a22*b3)) / det
-		dl := (a11*(b2*0-a23*b3) - b1*(a21*0-a23*a31) + a13*(a21*b3-b2*a31)) / det
+		if near && res12 <= 10 {
+			// F1 and F2 at the equation's rounding noise: a step along
+			// the coexistence curve for F3 alone, which does not chase
+			// that noise.
+			b1, b2 = 0, 0
+		}
+		dT := (b1*(a22*a33-a23*a32) - a12*(b2*a33-a23*b3) + a13*(b2*a32-a22*b3)) / det
+		dl := (a11*(b2*a33-a23*b3) - b1*(a21*a33-a23*a31) + a13*(a21*b3-b2*a31)) / det
 		dv := (a11*(a22*b3-b2*a32) - a12*(a21*b3-b2*a31) + b1*(a21*a32-a22*a31)) / det
 		if !isFinite(dT) || !isFinite(dl) || !isFinite(dv) {
 			return fluid.Saturation{}, false

@@ -218,6 +218,16 @@ func (k *call) satT(T float64) (fluid.Saturation, error) {
 // melting curve. A vessel cooled or vented through the triple point thus
 // passes through Triple states and continues as solid–vapour.
 //
+// Within a millikelvin of Tc the equation fixes the saturated densities
+// only to about 3e-5 relative (fluid.SaturationAtT), and the mixture's u
+// computed from the saturation at each T scatters by more than the
+// backward-residual floor between neighbouring temperatures: there the
+// mixture is solved within that band (Newton's method on the phases'
+// equilibrium and u together), so that ρ and u are still reproduced to
+// the floors of DESIGN.md with the phases in equilibrium to 1e-12·RT; a
+// state within the band of a saturated density may come back as that
+// single phase instead of a mixture with a vanishing fraction.
+//
 // Special cases are:
 //
 //	rho NaN, ±Inf or ≤ 0, u NaN or ±Inf: ErrInvalidInput
@@ -457,9 +467,13 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 			// T is fixed to rounding. Within a millikelvin of Tc the
 			// equation fixes the saturated densities only loosely
 			// (fluid.SaturationAtT), and the mixture's u jumps between
-			// neighbouring temperatures by more than the floor: the
-			// state is then as determined as the equation allows.
-			converged = math.Abs(r) <= X.floor(f, ref, x) || inside && c.T-T < 1e-3
+			// neighbouring temperatures by more than the floor: there
+			// the state is solved within that band (nearCritDU).
+			if math.Abs(r) <= X.floor(f, ref, x) {
+				converged = true
+			} else if c.T-T < 1e-3 {
+				return k.nearCritDU(rho, x, T, &sat, inside)
+			}
 			break
 		}
 		if r > 0 {
@@ -488,6 +502,65 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 	}
 	return k.wanted(k.finish(&sp))
+}
+
+// nearCritDU finishes DU within a millikelvin of Tc, where the
+// iteration along the isochore has fixed T to rounding without meeting
+// u: there the equation fixes the saturated densities only to about
+// 3e-5 relative (fluid.SaturationAtT), and the mixture's u, computed
+// from the saturation at each T, scatters between neighbouring
+// temperatures by more than the backward-residual floor. The state is
+// solved within that band instead: the mixture of the saturated phases
+// by Newton's method in (T, ln ρ′, ln ρ″) with u_mix = u (lvMixNewton),
+// or the single phase at (T, ρ) with u(T) = u where ρ lies outside the
+// saturated densities at T, or inside them by less than the band; the
+// side of the saturation sat at T (inside) is tried first.
+func (k *call) nearCritDU(rho, u, T float64, sat *fluid.Saturation, inside bool) (State, error) {
+	f := k.f
+	c := f.Critical()
+	mixture := func() (State, bool) {
+		if sat.T == 0 {
+			return State{}, false
+		}
+		s, ok := lvMixNewton(f, mixCond{du: true, a: 1 / rho, b: u}, T, sat.Liquid.Rho, sat.Vapor.Rho, c.T-2e-3, c.T)
+		if !ok {
+			return State{}, false
+		}
+		q, in := qualityOf(rho, &s)
+		if !in || math.Abs(twoPhase(f, &s, q).U-u) > qU.floor(f, nil, u) {
+			return State{}, false
+		}
+		st, err := k.finishSat(&s, q)
+		return st, err == nil
+	}
+	single := func() (State, bool) {
+		pr, ok := newton1(f, qU, u, T, rho, true, T*(1-1e-6), min(T*(1+1e-6), c.T))
+		if !ok || pr.T >= c.T {
+			return State{}, false
+		}
+		if s, err := f.SaturationAtT(pr.T); err == nil {
+			const band = 3e-5
+			if rho < s.Liquid.Rho*(1-band) && rho > s.Vapor.Rho*(1+band) {
+				return State{}, false // inside the dome beyond the band
+			}
+		}
+		st, err := k.finish(&pr)
+		if err != nil || !satisfies(k.opt.Phase, st.Phase) {
+			return State{}, false
+		}
+		return st, true
+	}
+	first, second := single, mixture
+	if inside {
+		first, second = mixture, single
+	}
+	if st, ok := first(); ok {
+		return st, nil
+	}
+	if st, ok := second(); ok {
+		return st, nil
+	}
+	return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 }
 
 // belowTriple finishes a single-phase state below the triple-point
