@@ -294,6 +294,7 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 		// the vapour-pressure curve.
 		tp, _ := k.triple()
 		st := single(&tp.Liquid, Liquid)
+		st.P = tp.P // the triple point's, not the liquid's own (see twoPhase)
 		st.Flags |= Indeterminate | Saturated
 		return k.wanted(st, nil)
 	}
@@ -327,6 +328,12 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 		return State{}, k.rewrap(err)
 	}
 	if pr.Flags&Metastable != 0 && !k.opt.AllowMetastable {
+		if pl == placeNear && !meta && k.opt.Phase != Vapor && k.opt.Phase != Liquid {
+			// Beside the sublimation curve the vapour root is metastable
+			// against the liquid: below the triple point the liquid lies
+			// above the solid in Gibbs energy, so the solid is stable.
+			return k.done(k.ptSolid(p, T, pl, why, nil))
+		}
 		ph := Liquid
 		if pr.Rho > f.Critical().Rho {
 			ph = Vapor

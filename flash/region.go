@@ -89,6 +89,23 @@ var (
 	waterNodes = sync.OnceValue(func() *curveNodes { return buildNodes("water") })
 )
 
+// lvTriplePressure holds, for each registered fluid without a solid
+// model, its equation's own vapour pressure at the triple-point
+// temperature, in Pa, computed once.
+var lvTriplePressure = sync.OnceValue(func() map[string]float64 {
+	m := map[string]float64{}
+	for _, name := range fluid.Names() {
+		f, err := fluid.Lookup(name)
+		if err != nil || f.Triple().RhoSolid > 0 {
+			continue
+		}
+		if s, err := f.SaturationAtT(f.Triple().T); err == nil {
+			m[name] = s.P
+		}
+	}
+	return m
+})
+
 func nodesFor(f *fluid.Fluid) *curveNodes {
 	switch f.Name() {
 	case "CO2":
@@ -222,7 +239,14 @@ func (b *solidSide) init(f *fluid.Fluid) {
 	t := f.Triple()
 	b.tt, b.pt = t.T, t.P
 	if t.RhoSolid <= 0 {
-		return // no solid model: sublimation.For would only say so
+		// No solid model (sublimation.For would only say so): the
+		// liquid–vapour states end where the equation's own vapour
+		// pressure curve does, at Tt, whatever the published triple-point
+		// pressure Triple().P (R-134a: 389.5638 Pa against 389.6 Pa).
+		if p, ok := lvTriplePressure()[f.Name()]; ok {
+			b.pt = p
+		}
+		return
 	}
 	n := nodesFor(f)
 	if n == nil || n.err != nil {

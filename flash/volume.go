@@ -181,8 +181,13 @@ func qualityOf(rho float64, s *fluid.Saturation) (float64, bool) {
 }
 
 // satT returns the saturation at T, started from the cached curve, else
-// from the guess.
+// from the guess. On the triple line below the stored triple-point
+// temperature (within tripleTolT, the precision of that constant) it is
+// the saturation at the triple point.
 func (k *call) satT(T float64) (fluid.Saturation, error) {
+	if T < k.sol.tt && k.onTripleT(T) {
+		T = k.sol.tt
+	}
 	s, ok, err := k.satFromCacheT(T)
 	if !ok {
 		if gT, rl, rv, okg := k.guessSat(); okg && math.Abs(gT-T) < 0.1*T {

@@ -455,6 +455,17 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64) (float
 		if stable {
 			step := -res / dP
 			if math.Abs(step) <= rhoStepTol*x {
+				if math.Abs(res) > 1e-6*math.Abs(pi)+1e-10*x {
+					// A root that double precision cannot resolve: far
+					// below Tc the nonanalytic terms of IAPWS-95 make
+					// p(ρ) rise by 1e25 Pa per kg/m³ next to ρc, where p
+					// jumps by orders of magnitude between neighbouring
+					// densities. Not a state of the fluid.
+					if b == branchVapor {
+						return x, r, rootBeyondSpinodal
+					}
+					return x, r, rootNoConvergence
+				}
 				return x, r, rootFound
 			}
 			xn := x + step
