@@ -279,6 +279,27 @@ func PT(f *fluid.Fluid, p, T float64) (State, error) { return PTWith(f, p, T, Op
 // mixture (TwoPhase, SolidVapor, SolidLiquid, Triple) cannot be
 // requested: ErrInvalidInput.
 func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
+	return atInputP(f, p)(ptWith(f, p, T, opt))
+}
+
+// atInputP returns a function that gives a single-phase fluid state of
+// a flash at pressure p that pressure itself: its P, from the equation
+// at the solved density, differs from p by rounding (within the
+// backward-residual floor: in a dense liquid up to about 1e-13·ρRT, 4e-8
+// of p for water at its triple point), and a state that keeps its input
+// exactly can be fed to the next flash without landing on the other side
+// of a phase boundary that rounding put it on.
+func atInputP(f *fluid.Fluid, p float64) func(State, error) (State, error) {
+	return func(st State, err error) (State, error) {
+		if err == nil && st.N == 1 && (st.Phase == Liquid || st.Phase == Vapor || st.Phase == Supercritical) &&
+			math.Abs(st.P-p) <= 1e-10*p+1e-12*st.Rho*f.GasConstant()*st.T {
+			st.P = p
+		}
+		return st, err
+	}
+}
+
+func ptWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PT", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
 		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt, 3); err != nil {
@@ -453,6 +474,11 @@ func (k *call) satP(p float64) (fluid.Saturation, error) {
 			s, err = k.f.SaturationAtP(p)
 		}
 	}
+	if err != nil && k.onTripleP(p) {
+		// On the triple line below the vapour pressure at Tt, to within
+		// its precision: the saturation at Tt.
+		return k.satT(k.sol.tt)
+	}
 	if err != nil {
 		return s, k.rewrap(err)
 	}
@@ -519,7 +545,7 @@ func PHWith(f *fluid.Fluid, p, h float64, opt Options) (State, error) {
 		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	return k.done(k.isobaricAll(p, qH, h))
+	return atInputP(f, p)(k.done(k.isobaricAll(p, qH, h)))
 }
 
 // PS returns the state of f at pressure p in Pa and specific entropy s
@@ -533,7 +559,7 @@ func PSWith(f *fluid.Fluid, p, s float64, opt Options) (State, error) {
 		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	return k.done(k.isobaricAll(p, qS, s))
+	return atInputP(f, p)(k.done(k.isobaricAll(p, qS, s)))
 }
 
 // dXdT returns (∂X/∂T)_p at pr: cp for h, cp/T for s.
@@ -604,12 +630,12 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 	// The lowest fluid temperature at p, a bound from the solid model's
 	// curve nodes (results are placed against the solid in finish).
 	Tf, floor := k.freezeT(p)
-	if p >= c.P || p < k.sol.pt {
+	if p >= c.P || k.belowTripleP(p) {
 		// One fluid phase along the isobar.
 		sd := anySide
 		root := fluid.RootStable
 		T0 := c.T
-		if p < k.sol.pt {
+		if k.belowTripleP(p) {
 			root, T0, sd = fluid.RootVapor, Tf, vaporSide
 		} else if ls, ok := k.liquidStart(p, X, x, 0); ok {
 			// Above pc, liquid-like below Tc by the cached curve.
@@ -644,7 +670,7 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 		if err != nil {
 			return State{}, k.rewrap(err)
 		}
-		if p < k.sol.pt && x < X.of(&pr0)-X.tol(f, &pr0, x) {
+		if k.belowTripleP(p) && x < X.of(&pr0)-X.tol(f, &pr0, x) {
 			return State{}, k.lowError(floor)
 		}
 		return k.isobarSingle(p, X, x, &pr0, sd, Tf, lim.TCeil, false)
@@ -676,6 +702,12 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 		// pressure at Tt: the equation's saturation.
 		s, err = f.SaturationAtP(p)
 	}
+	if err != nil && k.onTripleP(p) {
+		// On the triple line, below the vapour pressure at Tt to within
+		// its precision (a fluid without a solid model): the saturation
+		// at Tt.
+		s, err = k.satT(k.sol.tt)
+	}
 	if err != nil {
 		if errors.Is(err, fluid.ErrOutOfRange) && p < k.sol.pt*1.01 {
 			// Between the stored triple-point pressure and the
@@ -701,6 +733,11 @@ func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation
 	want := k.opt.Phase
 	xl, xv := X.of(&s.Liquid), X.of(&s.Vapor)
 	Tf, _ := k.freezeT(p)
+	if k.onTripleT(s.T) && x < xl && xl-x <= X.floor(f, &s.Liquid, x) {
+		// The liquid at the triple point, to the floor of x: no colder
+		// liquid to solve for (a fluid without a solid model).
+		return k.finishSat(s, 0)
+	}
 	switch {
 	case x < xl:
 		return k.isobarSingle(p, X, x, &s.Liquid, liquidSide, Tf, s.T, false)

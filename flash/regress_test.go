@@ -1,6 +1,7 @@
 package flash
 
 import (
+	"errors"
 	"math"
 	"testing"
 
@@ -149,5 +150,173 @@ func TestHSOnTheTripleTieLine(t *testing.T) {
 			math.Abs(st.S-hs[1]) > 1e-10*max(math.Abs(hs[1]), f.GasConstant()) {
 			t.Errorf("HS(%v, %v) = h %v, s %v", hs[0], hs[1], st.H, st.S)
 		}
+	}
+}
+
+// TestPTBesideTheSublimationCurve: just below the triple point, between
+// the node bounds of the sublimation curve, the vapour root is
+// metastable against the supercooled liquid, and PT refused with "the
+// stable state is Liquid, not the requested Unknown" (found by the
+// reliability sweep; the failure report, item D). Below the triple point
+// the liquid lies above the solid in Gibbs energy: the solid is stable,
+// and so by the model's own Gibbs energies.
+func TestPTBesideTheSublimationCurve(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		fluid string
+		p, T  float64
+	}{
+		{"CO2", 517653.9460654438, 216.46215650725492},
+		{"CO2", 517964.4412205257, 216.59199315075958},
+		{"water", 605.53822329, 272.9962448821829},
+	} {
+		f := mustFluid(t, c.fluid)
+		st, err := PT(f, c.p, c.T)
+		if err != nil || st.Phase != Solid {
+			t.Errorf("%s PT(%v, %v) = %v, %v; want Solid", c.fluid, c.p, c.T, st.Phase, err)
+			continue
+		}
+		s := mustSolid(t, f)
+		sp, err := s.Props(c.T, c.p)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, root := range []fluid.Root{fluid.RootLiquid, fluid.RootVapor} {
+			if pr, err := f.PropsTP(c.T, c.p, root, 0); err == nil && pr.G < sp.G {
+				t.Errorf("%s PT(%v, %v): the fluid root %v has the lower Gibbs energy", c.fluid, c.p, c.T, root)
+			}
+		}
+	}
+}
+
+// TestOnTheTripleLineFromBelow: a temperature 1e-13 below Tt lies on the
+// triple line (within the precision of the stored constant), where TS
+// refused the vapour because the fluid path asked for the saturation
+// below Tt (found by the reliability sweep from PT(512784.813024,
+// 216.59199999997836); the failure report, item C).
+func TestOnTheTripleLineFromBelow(t *testing.T) {
+	t.Parallel()
+	f := mustFluid(t, "CO2")
+	const T = 216.59199999997836
+	for _, p := range []float64{512784.81302400003, 517653.9460654438} {
+		v, err := PT(f, p, T)
+		if err != nil || v.Phase != Vapor {
+			t.Fatalf("PT(%v, %v) = %v, %v", p, T, v.Phase, err)
+		}
+		st, err := TS(f, T, v.S)
+		if err != nil {
+			t.Errorf("TS(%v, %v): %v", T, v.S, err)
+			continue
+		}
+		if st.Phase != Vapor || math.Abs(st.P-p) > 1e-10*p+1e-12*st.Rho*f.GasConstant()*T {
+			t.Errorf("TS(%v, %v) = %v at %v Pa, want the vapour at %v Pa", T, v.S, st.Phase, st.P, p)
+		}
+	}
+}
+
+// TestR134aTripleBand: R-134a has no solid model; its liquid–vapour
+// states end at its equation's own vapour pressure at Tt, 389.5638 Pa,
+// below the published 389.6 Pa that Triple().P keeps. PH and PS between
+// them, and PQ at the equation's pressure (to its precision, which the
+// saturated liquid's own pressure sets at about 6e-10 relative), refused
+// the states as solid (the failure report, item D; the sweep).
+func TestR134aTripleBand(t *testing.T) {
+	t.Parallel()
+	f := mustFluid(t, "R134a")
+	if tp := f.Triple(); tp.P != 389.6 {
+		t.Errorf("Triple().P = %v, want the published 389.6 Pa (Tillner-Roth and Baehr 1994, from memory)", tp.P)
+	}
+	sat, err := f.SaturationAtT(f.Triple().T)
+	if err != nil {
+		t.Fatal(err)
+	}
+	liq, err := TQ(f, f.Triple().T, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		name string
+		st   func() (State, error)
+		want Phase
+	}{
+		{"PH in the band", func() (State, error) { return PH(f, 389.5999999449016, 71454.99398560649) }, Liquid},
+		{"PS in the band", func() (State, error) { return PS(f, 389.5999999449016, liq.S) }, Liquid},
+		{"PQ at the equation's pressure", func() (State, error) { return PQ(f, sat.P, 0) }, Liquid},
+		{"PH of TQ(Tt, 0)", func() (State, error) { return PH(f, liq.P, liq.H) }, Liquid},
+		{"PQ of TQ(Tt, 0)", func() (State, error) { return PQ(f, liq.P, 0) }, Liquid},
+	} {
+		st, err := c.st()
+		if err != nil || st.Phase != c.want {
+			t.Errorf("%s: %v, %v; want %v", c.name, st.Phase, err, c.want)
+		}
+	}
+	// The report's PQ(389.5637885098052, 0) was at the saturated liquid's
+	// own pressure at Tt, which TQ then returned: 2.4e-10 below the
+	// equation's vapour pressure there, further than the precision of the
+	// triple line (1e-10), it lies in the solid region.
+	for _, p := range []float64{389.5637885098052, sat.P * (1 - 1e-8)} {
+		if _, err := PQ(f, p, 0); !errors.Is(err, fluid.ErrUndefined) {
+			t.Errorf("PQ(%v, 0) below the triple line: %v, want ErrUndefined", p, err)
+		}
+	}
+}
+
+// TestInputPressureKept: a flash at given pressure (PT, PH, PS) returns
+// that pressure as P, and TQ and PQ the saturation pressure for a
+// saturated phase as for a mixture. The equation's own p at the solved
+// density of a dense liquid scatters by about 1e-13·ρRT (4e-8 of p for
+// water at its triple point), and states that carried it were placed on
+// the other side of the triple line by the next flash (the sweep: PH of
+// PT(611.654771283905, 273.1600000000273) gave ice and vapour).
+func TestInputPressureKept(t *testing.T) {
+	t.Parallel()
+	w := mustFluid(t, "water")
+	for _, c := range [][2]float64{{611.654771283905, 273.1600000004557}, {1e5, 300}, {3e7, 280}} {
+		st, err := PT(w, c[0], c[1])
+		if err != nil {
+			t.Fatal(err)
+		}
+		if st.P != c[0] {
+			t.Errorf("PT(%v, %v).P = %v", c[0], c[1], st.P)
+		}
+		for _, fl := range []struct {
+			name string
+			fn   func() (State, error)
+		}{{"PH", func() (State, error) { return PH(w, st.P, st.H) }}, {"PS", func() (State, error) { return PS(w, st.P, st.S) }}} {
+			got, err := fl.fn()
+			if err != nil || got.Phase != st.Phase || got.P != st.P {
+				t.Errorf("%s of PT(%v, %v) = %v at %v Pa, %v; want %v at %v Pa", fl.name, c[0], c[1], got.Phase, got.P, err, st.Phase, st.P)
+			}
+		}
+	}
+	for _, T := range []float64{273.1600000043293, 300, 600} {
+		l, err1 := TQ(w, T, 0)
+		v, err2 := TQ(w, T, 1)
+		m, err3 := TQ(w, T, 0.5)
+		if err1 != nil || err2 != nil || err3 != nil {
+			t.Fatal(err1, err2, err3)
+		}
+		if l.P != m.P || v.P != m.P {
+			t.Errorf("TQ(%v, 0, 0.5, 1).P = %v, %v, %v", T, l.P, m.P, v.P)
+		}
+		if q, err := PQ(w, l.P, 0); err != nil || q.Phase != Liquid {
+			t.Errorf("PQ of TQ(%v, 0): %v, %v", T, q.Phase, err)
+		}
+	}
+}
+
+// TestPHAtTheCeiling: at exactly the accepted 10 GPa of CO2 the density
+// search of PH refused every temperature (fluid.PropsTP found p a
+// rounding above the ceiling), and PH did not converge (the sweep).
+func TestPHAtTheCeiling(t *testing.T) {
+	t.Parallel()
+	f := mustFluid(t, "CO2")
+	const p, h = 1e10, 7.177358088180827e+06
+	st, err := PH(f, p, h)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if st.P != p || math.Abs(st.H-h) > 1e-10*math.Abs(h) {
+		t.Errorf("PH(%v, %v) = p %v, h %v", p, h, st.P, st.H)
 	}
 }

@@ -664,7 +664,7 @@ func (k *call) pd(p, rho float64) (State, error) {
 	case pl == cacheVapor:
 		tlo = e.T - e.Err.T
 		T0 = max(e.T, p/(rho*f.GasConstant()*e.Vapor.Z))
-	case p < c.P && p >= k.sol.pt:
+	case p < c.P && !k.belowTripleP(p):
 		s, err := k.satP(p)
 		if err == nil {
 			if q, in := qualityOf(rho, &s); in {

@@ -128,6 +128,13 @@ func (f *Fluid) PropsTP(T, p float64, root Root, rhoGuess float64) (Props, error
 	}
 	pr := f.props(T, rho)
 	pr.Flags |= fl
+	if c := f.limits.PCeil; pr.P > c && pr.P-p <= 1e-10*p+1e-12*pr.Rho*f.r*T {
+		// p within the ceiling, reproduced at the root to rounding (the
+		// backward-residual floor of DESIGN.md), which lands above it.
+		chk := pr
+		chk.P = c
+		return pr, f.checkProps("fluid.PropsTP", &chk)
+	}
 	return pr, f.checkProps("fluid.PropsTP", &pr)
 }
 
@@ -155,7 +162,7 @@ func (f *Fluid) StableRoot(T, p float64) (root Root, flags Flags, err error) {
 	if T >= f.triple.T {
 		if s, ok := f.satT(tau); ok {
 			ps := s.pi()
-			if math.Abs(pi-ps) <= 4e-16*ps {
+			if onVapourCurve(pi, ps, tau) {
 				return RootLiquid, Indeterminate, nil
 			}
 			if pi > ps {
@@ -171,6 +178,17 @@ func (f *Fluid) StableRoot(T, p float64) (root Root, flags Flags, err error) {
 		return RootLiquid, 0, nil
 	}
 	return rootOf(f.stableBranch(&it, T, pi, branchVapor, d, &r)), 0, nil
+}
+
+// onVapourCurve reports whether the reduced pressure pi lies on the
+// vapour-pressure curve at ps to rounding: within the precision to which
+// the saturation fixes ps, satTolG(τ)·ps (equal Gibbs energies to
+// satTolG in units of RT put p on the curve to that fraction, since
+// d(g′ − g″) = (v′ − v″) dp and p v″ ≈ RT), so that a vapour pressure
+// computed on one path (the cached curve, a warm start) is on the curve
+// for every other.
+func onVapourCurve(pi, ps, tau float64) bool {
+	return math.Abs(pi-ps) <= satTolG(tau)*ps
 }
 
 func rootOf(b branch) Root {
@@ -257,7 +275,7 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 				b = branchLiquid
 			}
 			var fl Flags
-			if math.Abs(pi-ps) <= 4e-16*ps {
+			if onVapourCurve(pi, ps, tau) {
 				// On the vapour-pressure curve to rounding: the inputs
 				// do not fix the phase.
 				fl = Indeterminate
