@@ -219,7 +219,7 @@ func (k *call) duSolidPhase(rho, u float64) (State, bool) {
 	if !ok {
 		return State{}, false
 	}
-	if ok, _ := k.solidAt(sp.T, sp.P); !ok {
+	if ok, _ := k.solidAt(&sp); !ok {
 		return State{}, false
 	}
 	return solidState(&sp), true

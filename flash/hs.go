@@ -871,7 +871,7 @@ func (k *call) hsSolid(h, s, hd, sd float64) (st State, err error, ok bool, beyo
 	if !good {
 		return State{}, nil, false, nil
 	}
-	ok, why := k.solidAt(sp.T, sp.P)
+	ok, why := k.solidAt(&sp)
 	switch {
 	case ok:
 		st, err := k.wantedState(solidState(&sp))
@@ -887,8 +887,17 @@ func (k *call) hsSolid(h, s, hd, sd float64) (st State, err error, ok bool, beyo
 // the Gibbs energies of the solid and the fluid (on a curve, within
 // gibbsTol, it coexists with the fluid and counts as solid). why explains
 // a (T, p) outside the models (above the solid's pressure limit, where
-// placePT's Solid means other ices, or below the vapour floor).
-func (k *call) solidAt(T, p float64) (ok bool, why string) {
+// placePT's Solid means other ices, or below the vapour floor). Below the
+// vapour floor a solid whose pressure lies within its backward-residual
+// floor (DESIGN.md: 1e-10·p + 1e-12·ρRT) of the sublimation pressure at
+// the floor counts as at that pressure: a solid's p at given (T, ρ) is
+// fixed only that loosely (ice at 0.16 Pa to about 4e-4 of p).
+func (k *call) solidAt(sp *sublimation.Props) (ok bool, why string) {
+	T, p := sp.T, sp.P
+	n := k.sol.n
+	if pm := n.subPMin(); T < n.subTMin() && p < pm && pm-p <= 1e-10*pm+1e-12*sp.Rho*k.f.GasConstant()*T {
+		p = pm
+	}
 	if p > k.sol.n.solidPMax()*(1+1e-12) {
 		return false, k.beyondWhy(p)
 	}
@@ -949,12 +958,16 @@ func (k *call) solidNewton(a quantity, xa float64, b quantity, xb float64, T, p 
 		if x := math.Abs(dT); x > 0.25*T {
 			sc = 0.25 * T / x
 		}
+		dT, dp = sc*dT, sc*dp
 		if dp < 0 && -dp > 0.9*p {
-			sc = min(sc, 0.9*p/-dp)
+			// At low pressure v and u hardly depend on p, and a step
+			// toward p ≤ 0 is limited on its own (a scale on both would
+			// stall T, which u fixes).
+			dp = -0.9 * p
 		}
-		lastStep = sc * max(math.Abs(dT)/T, math.Abs(dp)/max(p, 1))
-		T = min(max(T+sc*dT, tlo), lim.TCeil)
-		p = min(max(p+sc*dp, pmin), lim.PCeil)
+		lastStep = max(math.Abs(dT)/T, math.Abs(dp)/max(p, 1))
+		T = min(max(T+dT, tlo), lim.TCeil)
+		p = min(max(p+dp, pmin), lim.PCeil)
 	}
 	return sublimation.Props{}, false
 }

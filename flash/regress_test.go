@@ -320,3 +320,81 @@ func TestPHAtTheCeiling(t *testing.T) {
 		t.Errorf("PH(%v, %v) = p %v, h %v", p, h, st.P, st.H)
 	}
 }
+
+// TestDUMetastable: DU with a metastable phase requested refused states
+// that DT returns with the same request (the failure report, item A2,
+// and the sweep): a start from far off stepped over the narrow band of
+// the isochore between its crossing with the saturated phase and the
+// spinodal, and supercooled water's isochore, whose pressure falls below
+// zero as T rises below the density maximum, has its usable states in
+// pieces. Each must come back at the temperature of its DT.
+func TestDUMetastable(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		fluid  string
+		rho, T float64
+		phase  Phase
+	}{
+		{"CO2", 523.7224927396456, 304.0282, Liquid},
+		{"CO2", 433.5617406094637, 304.0282, Vapor},
+		{"water", 355.0426862248298, 646.996, Liquid},
+	} {
+		f := mustFluid(t, c.fluid)
+		opt := Options{Phase: c.phase, AllowMetastable: true}
+		dt, err := DTWith(f, c.rho, c.T, opt)
+		if err != nil {
+			t.Fatal(err)
+		}
+		st, err := DUWith(f, c.rho, dt.U, opt)
+		if err != nil {
+			t.Errorf("%s DU(%v, %v): %v", c.fluid, c.rho, dt.U, err)
+			continue
+		}
+		if st.Phase != c.phase || st.Flags&Metastable == 0 || math.Abs(st.T-c.T) > 1e-9*c.T {
+			t.Errorf("%s DU(%v, %v) = %v at %v K, flags %v; want metastable %v at %v K", c.fluid, c.rho, dt.U,
+				st.Phase, st.T, st.Flags, c.phase, c.T)
+		}
+	}
+	// Supercooled water at 234.4 K and 618 Pa (the sweep).
+	w := mustFluid(t, "water")
+	opt := Options{Phase: Liquid, AllowMetastable: true}
+	pt, err := PTWith(w, 617.77131871, 234.42823529411766, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	st, err := DUWith(w, pt.Rho, pt.U, opt)
+	if err != nil || st.Flags&Metastable == 0 || math.Abs(st.T-pt.T) > 1e-9*pt.T {
+		t.Errorf("DU of supercooled water: %v at %v K, flags %v, %v", st.Phase, st.T, st.Flags, err)
+	}
+}
+
+// TestDUAtTheVapourFloor: solids at the sublimation pressure of the
+// vapour floor (ice below 200 K, and the solid–vapour mixture of CO2 at
+// 150 K) were refused as below the states of the isochore (the failure
+// report, item A6): a solid's pressure at given (ρ, u) is fixed only to
+// its backward-residual floor (ice at 0.16 Pa to about 4e-4 of p), and
+// rounding put it below the floor's pressure; and the Newton iteration
+// on (v, u) stalled where it pressed toward p ≤ 0.
+func TestDUAtTheVapourFloor(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		fluid  string
+		rho, u float64
+		want   Phase
+	}{
+		{"water", 931.4668024384079, -553005.1955311878, Solid},
+		{"water", 926.459666086835, -472284.3576455384, Solid},
+		{"CO2", 0.029782293685102216, -141435.2614772201, SolidVapor},
+	} {
+		f := mustFluid(t, c.fluid)
+		st, err := DU(f, c.rho, c.u)
+		if err != nil || st.Phase != c.want {
+			t.Errorf("%s DU(%v, %v) = %v, %v; want %v", c.fluid, c.rho, c.u, st.Phase, err, c.want)
+			continue
+		}
+		if math.Abs(st.U-c.u) > 1e-10*max(math.Abs(c.u), f.GasConstant()*f.Critical().T) ||
+			math.Abs(st.Rho-c.rho) > 1e-10*c.rho {
+			t.Errorf("%s DU(%v, %v) = rho %v, u %v", c.fluid, c.rho, c.u, st.Rho, st.U)
+		}
+	}
+}

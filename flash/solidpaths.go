@@ -709,7 +709,9 @@ func (k *call) isochoreRoot(rho, u, a, b float64, below bool) (State, error) {
 	if err != nil {
 		return State{}, err
 	}
-	if math.Abs(sa.U-u) <= tol {
+	if math.Abs(sa.U-u) <= tol || sa.U > u && sa.U-u <= qU.floor(k.f, nil, u) {
+		// (At the lowest temperature, u within its backward-residual
+		// floor of the state there: that state, at the end of the models.)
 		return k.wantedState(sa)
 	}
 	if sa.U > u {

@@ -329,6 +329,26 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	}
 	// A single phase first.
 	pr, ok := newton1(f, X, x, T0, rho, true, lim.TFloor, lim.TCeil)
+	if !ok && meta {
+		// A metastable phase lies in a narrow band of the isochore below
+		// its crossing with the saturated phase, between it and the
+		// spinodal, which a start from far off steps over: from the
+		// crossing, downward.
+		var buf [4]fluid.SatEstimate
+		for _, e := range f.SaturationEstimatesAtRho(rho, buf[:0]) {
+			top := e.T + e.Err.T
+			if pr, ok = newton1(f, X, x, top, rho, true, lim.TFloor, top); ok {
+				break
+			}
+		}
+		if !ok {
+			// Where the isochore's usable states come in separate
+			// pieces (supercooled water, whose liquid isochores reach
+			// negative pressures as T rises below its density maximum):
+			// a scan for the piece that holds x.
+			pr, ok = isochoreScan(f, X, x, rho, lim.TFloor, c.T)
+		}
+	}
 	if ok && want != TwoPhase && pr.T < k.sol.tt {
 		// A fluid below the triple point, or a metastable vapour there
 		// with the equilibrium state elsewhere on the isochore.
@@ -507,6 +527,61 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 	}
 	return k.wanted(k.finish(&sp))
+}
+
+// isochoreScan solves X(T, ρ) = x along the isochore rho for T in
+// [lo, hi] where its usable single-phase states (mechanically stable, at
+// positive pressure) come in pieces: a scan of 64 temperatures, each
+// piece's ends between the scan's points found by bisection, for the
+// piece whose X brackets x, then newton1 in it. It is the last resort of
+// a metastable request.
+func isochoreScan(f *fluid.Fluid, X quantity, x, rho, lo, hi float64) (fluid.Props, bool) {
+	usable := func(T float64) (float64, bool) {
+		pr, ok := props(f, T, rho)
+		if !ok || !(pr.P > 0) {
+			return 0, false
+		}
+		return X.of(&pr) - x, true
+	}
+	// edge returns the end of the piece between a usable a and an
+	// unusable b, and X − x there.
+	edge := func(a, b float64) (float64, float64) {
+		ra, _ := usable(a)
+		for j := 0; j < 60 && math.Abs(b-a) > 1e-13*b; j++ {
+			m := 0.5 * (a + b)
+			if r, ok := usable(m); ok {
+				a, ra = m, r
+			} else {
+				b = m
+			}
+		}
+		return a, ra
+	}
+	solve := func(a, b float64) (fluid.Props, bool) {
+		return newton1(f, X, x, 0.5*(a+b), rho, true, min(a, b), max(a, b))
+	}
+	const n = 64
+	prevT, prevR, have := 0.0, 0.0, false
+	for i := 0; i <= n; i++ {
+		T := lo + (hi-lo)*float64(i)/n
+		r, ok := usable(T)
+		switch {
+		case ok && have && (r >= 0) != (prevR >= 0):
+			return solve(prevT, T)
+		case ok && !have && i > 0:
+			// A piece begins between the last point and T.
+			if a, ra := edge(T, T-(hi-lo)/n); (ra >= 0) != (r >= 0) {
+				return solve(a, T)
+			}
+		case !ok && have:
+			// The piece ends between the last point and T.
+			if b, rb := edge(prevT, T); (rb >= 0) != (prevR >= 0) {
+				return solve(prevT, b)
+			}
+		}
+		prevT, prevR, have = T, r, ok
+	}
+	return fluid.Props{}, false
 }
 
 // nearCritDU finishes DU within a millikelvin of Tc, where the
