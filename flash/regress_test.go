@@ -398,3 +398,43 @@ func TestDUAtTheVapourFloor(t *testing.T) {
 		}
 	}
 }
+
+// TestPDTripleWater: PD of water's saturated liquid at the triple point
+// refused it ("no state of water with this pressure and density"; the
+// failure report, item B, and the sweep), and a liquid at the triple-point
+// pressure denser than that liquid — above Tt, below the density maximum
+// (about 277 K) — was not found: the fluid path looked for it below the
+// saturation temperature only. The first must come back as the saturated
+// liquid at the triple point, the second as the liquid of lowest T with
+// that density (IAPWS-95 at 611.654771 Pa: about 274.1 K), and a density
+// above the liquid's maximum there has no state.
+func TestPDTripleWater(t *testing.T) {
+	t.Parallel()
+	w := mustFluid(t, "water")
+	tp := w.Triple()
+	l, err := TQ(w, tp.T, 0) // the models' triple point (Triple() rounds its densities)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, p := range []float64{611.6547710075598, 611.654771} {
+		st, err := PD(w, p, l.Rho)
+		if err != nil || st.Phase != Liquid || math.Abs(st.T-tp.T) > 1e-9*tp.T {
+			t.Errorf("PD(%v, %v) = %v at %v K, %v; want the liquid at Tt", p, l.Rho, st.Phase, st.T, err)
+		}
+	}
+	// The report's PD(611.654765100373, ...) was at the saturated
+	// liquid's own pressure, which TQ then returned: 1e-8 below the
+	// triple point, beyond its precision, where no state is that dense.
+	if _, err := PD(w, 611.654765100373, l.Rho); !errors.Is(err, fluid.ErrOutOfRange) {
+		t.Errorf("PD below the triple line: %v, want ErrOutOfRange", err)
+	}
+	st, err := PD(w, tp.P, 999.85)
+	if err != nil || st.Phase != Liquid || !(st.T > tp.T && st.T < 277) {
+		t.Errorf("PD(%v, 999.85) = %v at %v K, %v; want the liquid between Tt and 277 K", tp.P, st.Phase, st.T, err)
+	} else if math.Abs(st.Rho-999.85) > 1e-10*999.85 || math.Abs(st.P-tp.P) > 1e-10*tp.P+1e-12*st.Rho*w.GasConstant()*st.T {
+		t.Errorf("PD(%v, 999.85) = p %v, rho %v", tp.P, st.P, st.Rho)
+	}
+	if _, err := PD(w, tp.P, 1000.5); err == nil {
+		t.Errorf("PD(%v, 1000.5): a state above the liquid's density maximum", tp.P)
+	}
+}

@@ -406,6 +406,9 @@ func (k *call) tripleVolumes(tp *sublimation.ThreePhase, v float64) (State, bool
 	vs, vl, vv := 1/tp.Solid.Rho, 1/tp.Liquid.Rho, 1/tp.Vapor.Rho
 	var st State
 	switch {
+	case v >= vl && v < vv && vs > vl:
+		// (Water: the saturated liquid itself at v = v′.)
+		fallthrough
 	case v > vl && v < vv:
 		s := tripleSaturation(tp)
 		st = twoPhase(k.f, &s, (v-vl)/(vv-vl))
@@ -839,6 +842,12 @@ func (k *call) pdSolid(p, rho float64) (State, error) {
 		}
 		if st, ok := k.tripleVolumes(tp, v); ok {
 			return k.wantedState(st)
+		}
+		if k.sol.anomalous() && v < 1/tp.Liquid.Rho {
+			// Water denser than its liquid at the triple point: the
+			// liquid above Tt, below its density maximum.
+			k.decide(tp.T)
+			return k.pd(p, rho)
 		}
 		c = sublimation.Coexistence{T: tp.T, P: tp.P, Solid: tp.Solid, Fluid: tp.Vapor}
 		vapour = true

@@ -468,6 +468,11 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 		// Above Tc, where the single-phase attempt failed.
 		pr, ok := newton1(f, X, x, 1.1*c.T, rho, true, c.T, lim.TCeil)
 		if !ok {
+			if top, okt := props(f, lim.TCeil, rho); okt && x > X.of(&top) {
+				// X rises with T along the isochore: beyond its top.
+				return State{}, k.fail(fluid.ErrOutOfRange, "u above the isochore's "+fmtG(top.U)+
+					" J/kg at the accepted "+fmtG(lim.TCeil)+" K")
+			}
 			return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
 		}
 		return k.wanted(k.finish(&pr))
@@ -713,6 +718,12 @@ func (k *call) pd(p, rho float64) (State, error) {
 	f := k.f
 	c := f.Critical()
 	lim := f.Limits()
+	switch {
+	case p > lim.PCeil:
+		return State{}, k.fail(fluid.ErrOutOfRange, "p exceeds the accepted "+fmtG(lim.PCeil)+" Pa")
+	case rho > lim.RhoCeil:
+		return State{}, k.fail(fluid.ErrOutOfRange, "rho exceeds the accepted "+fmtG(lim.RhoCeil)+" kg/m3")
+	}
 	tlo, thi := lim.TFloor, lim.TCeil
 	T0 := p / (rho * f.GasConstant())
 	if p >= c.P {
@@ -728,11 +739,13 @@ func (k *call) pd(p, rho float64) (State, error) {
 	if cached {
 		pl = placeTRho(&e, rho)
 	}
+	tsat := 0.0 // the saturation temperature, where ρ is denser than the saturated liquid
 	switch {
 	case pl == cacheLiquid:
 		// Denser than the saturated liquid by the cached curve: below
 		// its T, from it along the isobar by its expansivity.
 		thi, T0 = e.T+e.Err.T, e.T
+		tsat = e.T - e.Err.T
 		if b := e.Liquid.Expansivity; b > 0 {
 			T0 = e.T - math.Log(rho/e.Liquid.Rho)/b
 		}
@@ -747,6 +760,7 @@ func (k *call) pd(p, rho float64) (State, error) {
 			}
 			if rho >= s.Liquid.Rho {
 				thi, T0 = s.T, s.T*(1-1e-9)
+				tsat = s.T
 			} else {
 				// The vapour, from the saturated vapour's Z.
 				tlo = s.T
@@ -762,6 +776,12 @@ func (k *call) pd(p, rho float64) (State, error) {
 		T0 = g.T
 	}
 	pr, ok := solve1(f, qP, p, min(max(T0, tlo), thi), rho, true, tlo, thi)
+	if !ok && tsat > 0 && k.sol.anomalous() {
+		// Water denser than its saturated liquid at p near its density
+		// maximum lies above the saturation temperature, not below: the
+		// solution of lowest temperature there.
+		pr, ok = solve1(f, qP, p, tsat, rho, true, tsat, min(1.1*tsat, c.T))
+	}
 	if !ok {
 		if k.sol.ok && !k.decided && Tf > lim.TFloor {
 			// The solution may lie where the fluid freezes: the solid paths decide.
