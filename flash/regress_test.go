@@ -438,3 +438,95 @@ func TestPDTripleWater(t *testing.T) {
 		t.Errorf("PD(%v, 1000.5): a state above the liquid's density maximum", tp.P)
 	}
 }
+
+// TestPDNearCritical: next to the critical point the isotherms are nearly
+// flat and the saturated densities fixed only loosely, and PD of a state
+// just outside them looked for it below the saturation temperature only
+// and did not converge (the failure report, item B; the sweep: DT at Tc,
+// PQ of the saturated liquid within 0.1 µK of Tc).
+func TestPDNearCritical(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		fluid  string
+		p, rho float64
+	}{
+		{"CO2", 7.377300000000077e+06, 467.6012745828625},
+		{"CO2", 7.377299982558742e+06, 467.9436635045589},
+		{"R134a", 4.059276373731113e+06, 511.9452673454299},
+		{"R134a", 4.059276364105091e+06, 512.0124593341232},
+	} {
+		f := mustFluid(t, c.fluid)
+		st, err := PD(f, c.p, c.rho)
+		if err != nil {
+			t.Errorf("%s PD(%v, %v): %v", c.fluid, c.p, c.rho, err)
+			continue
+		}
+		if !(math.Abs(st.T-f.Critical().T) < 5e-3) || math.Abs(st.Rho-c.rho) > 1e-10*c.rho ||
+			math.Abs(st.P-c.p) > 1e-10*c.p+1e-12*c.rho*f.GasConstant()*st.T {
+			t.Errorf("%s PD(%v, %v) = T %v, p %v, rho %v", c.fluid, c.p, c.rho, st.T, st.P, st.Rho)
+		}
+	}
+}
+
+// TestAtTheVapourFloor: CO2 at the sublimation pressure of its 150 K
+// vapour floor, which the states there carry to rounding (843.607177066
+// Pa, from the node table, the curve solver and the states built on it):
+// PD of the saturated solid and of a solid–vapour mixture did not
+// converge (the failure report, item B), and PQ a part in 1e9 below the
+// floor returned the floor's state, 10 bounds off in p (item D); it is
+// refused now, as below the floor.
+func TestAtTheVapourFloor(t *testing.T) {
+	t.Parallel()
+	f := mustFluid(t, "CO2")
+	const p = 843.6071770655553
+	for _, rho := range []float64{1617.4954499340759, 0.05956349059202698, 0.029782293685102216} {
+		st, err := PD(f, p, rho)
+		if err != nil || st.T != 150 || math.Abs(st.Rho-rho) > 1e-10*rho {
+			t.Errorf("PD(%v, %v) = %v at %v K, rho %v, %v", p, rho, st.Phase, st.T, st.Rho, err)
+		}
+	}
+	if st, err := PQ(f, 843.6071762227535, 1); !errors.Is(err, fluid.ErrOutOfRange) {
+		t.Errorf("PQ below the floor = %v at %v Pa, %v; want ErrOutOfRange", st.Phase, st.P, err)
+	}
+	for _, q := range []float64{0, 0.5, 1} {
+		st, err := PQ(f, p, q)
+		if err != nil || math.Abs(st.P-p) > 1e-10*p {
+			t.Errorf("PQ(%v, %v) = p %v, %v", p, q, st.P, err)
+		}
+	}
+}
+
+// TestPTAt800MPa: the dry-ice model ends at 800 MPa, and its node table
+// at the melting curve's pressure solved there, 1e-15 below: PT at
+// exactly 800 MPa refused the metastable liquid as beyond the model (the
+// failure report, item D). DESIGN.md rules out states above 800 MPa only.
+func TestPTAt800MPa(t *testing.T) {
+	t.Parallel()
+	f := mustFluid(t, "CO2")
+	st, err := PTWith(f, 8e8, 216.592, Options{Phase: Liquid, AllowMetastable: true})
+	if err != nil || st.Phase != Liquid || st.Flags&Metastable == 0 {
+		t.Errorf("PT(8e8, 216.592, metastable liquid) = %v, %v, %v", st.Phase, st.Flags, err)
+	}
+	st, err = PT(f, 8e8, 216.592)
+	if err != nil || st.Phase != Solid {
+		t.Errorf("PT(8e8, 216.592) = %v, %v; want dry ice", st.Phase, err)
+	}
+}
+
+// TestPQOnTheTripleLine: TQ a part in 1e11 above Tt gives the vapour
+// pressure 1.5e-10 above the models' triple-point pressure, within the
+// triple line's tolerance of the stored constant but not of the models'
+// own pressure, which PQ then returned 1.5 bounds off (the sweep). The
+// line is centred on the models' pressure now.
+func TestPQOnTheTripleLine(t *testing.T) {
+	t.Parallel()
+	f := mustFluid(t, "CO2")
+	v, err := TQ(f, 216.59200000343276, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	st, err := PQ(f, v.P, 1)
+	if err != nil || math.Abs(st.P-v.P) > 1e-10*v.P+1e-12*st.Rho*f.GasConstant()*st.T {
+		t.Errorf("PQ(%v, 1) = p %v, %v", v.P, st.P, err)
+	}
+}

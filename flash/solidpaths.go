@@ -106,7 +106,7 @@ func (k *call) placePT(T, p float64) (placement, fluid.Root, string) {
 		// above the sublimation pressure at the floor, which is above
 		// the sublimation pressure at T.
 		switch {
-		case p < n.subPMin():
+		case n.belowSubPMin(p):
 			return placeBeyond, 0, belowFloor
 		case p > n.solidPMax():
 			return placeBeyond, 0, k.beyondWhy(p)
@@ -261,7 +261,7 @@ func (k *call) isobarSolid(p float64, X quantity, x float64) (State, error) {
 		st.Flags |= Indeterminate
 		return k.wantedState(st)
 	case p < n.pt:
-		if p < n.subPMin() {
+		if n.belowSubPMin(p) {
 			// The vapour down to the vapour floor; the solid is below it.
 			k.decide(lim.TFloor)
 			return k.isobaric(p, X, x)
@@ -852,7 +852,7 @@ func (k *call) pdSolid(p, rho float64) (State, error) {
 		c = sublimation.Coexistence{T: tp.T, P: tp.P, Solid: tp.Solid, Fluid: tp.Vapor}
 		vapour = true
 	case p < n.pt:
-		if p < n.subPMin() {
+		if n.belowSubPMin(p) {
 			k.decide(lim.TFloor)
 			return k.pd(p, rho)
 		}

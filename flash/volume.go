@@ -76,7 +76,7 @@ func (k *call) clearVapour(rho, T float64) bool {
 // density (its compression factor is below 1).
 func (k *call) clearVapourP(p, rho float64) bool {
 	n := k.sol.n
-	if p < n.subPMin() {
+	if n.belowSubPMin(p) {
 		return true
 	}
 	_, hi := n.subTBounds(p)
@@ -781,6 +781,14 @@ func (k *call) pd(p, rho float64) (State, error) {
 		// maximum lies above the saturation temperature, not below: the
 		// solution of lowest temperature there.
 		pr, ok = solve1(f, qP, p, tsat, rho, true, tsat, min(1.1*tsat, c.T))
+	}
+	if !ok && p > c.P*(1-1e-3) && p <= c.P*(1+1e-3) {
+		// Next to the critical point, where the equation fixes the
+		// saturated densities only loosely (fluid.SaturationAtT) and its
+		// isotherms are nearly flat, (p, ρ) just outside the saturated
+		// densities may lie on either side of the saturation
+		// temperature: the single phase within a few millikelvin of Tc.
+		pr, ok = solve1(f, qP, p, c.T, rho, true, max(c.T-5e-3, tlo), min(c.T+5e-3, lim.TCeil))
 	}
 	if !ok {
 		if k.sol.ok && !k.decided && Tf > lim.TFloor {

@@ -496,6 +496,11 @@ func (s Solid) coexistAtP(op string, p, T0, rho0, maxStep float64) (Coexistence,
 		}
 		if math.Abs(dT) <= tolStep*T && math.Abs(dy) <= tolStep {
 			c := s.coexistence(T, fp)
+			if math.Abs(fp.P-p) <= 1e-12*p {
+				// At the given pressure itself: the fluid's own p at the
+				// converged density differs from it by rounding.
+				c.P = p
+			}
 			return c, nil
 		}
 		if lim := 0.05 * T; math.Abs(dT) > lim {
@@ -511,8 +516,11 @@ func (s Solid) coexistAtP(op string, p, T0, rho0, maxStep float64) (Coexistence,
 			if T == floor {
 				// The root lies at the floor to within rounding, or
 				// below it: settle it at the floor.
+				// (To 1e-10 in p, the backward-residual bound of a
+				// state on the curve: the curve's pressure at the floor
+				// from different solves differs by rounding.)
 				c, err := s.coexistAtT(op, floor, rho, maxStep)
-				if err == nil && math.Abs(c.P/p-1) <= 1e-8 {
+				if err == nil && math.Abs(c.P/p-1) <= 1e-10 {
 					return c, nil
 				}
 				return Coexistence{}, fluid.NewError(op, fluid.ErrOutOfRange,
