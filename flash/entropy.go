@@ -255,37 +255,53 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 		return st, err
 	}
 	st, err = k.hsSearch(h, s)
+	if err != nil {
+		if st2, err2, done := k.hsFromTop(h, s); done {
+			return st2, err2
+		}
+	}
 	if err != nil && beyond != nil {
 		return State{}, beyond
-	}
-	if err != nil {
-		if e := k.hsAboveRange(h, s); e != nil {
-			return State{}, e
-		}
 	}
 	return st, err
 }
 
-// hsAboveRange returns an error wrapping fluid.ErrOutOfRange where h lies
-// above the top of the isentrope s in the accepted region: h rises with p
-// along it (dh = dp/ρ), and T with it, so its top is its state at the
-// pressure ceiling, or at the temperature ceiling where that comes first.
-// It returns nil where that top is not above h or cannot be computed.
-func (k *call) hsAboveRange(h, s float64) error {
+// hsFromTop is the last resort of HS, from the top of the isentrope s in
+// the accepted region: h rises with p along it (dh = dp/ρ), and T with
+// it, so its top is its state at the pressure ceiling, or at the
+// temperature ceiling where that comes first. Where h lies above that
+// top, an error wrapping fluid.ErrOutOfRange; else Newton's method on
+// (h, s) from it, for a state in a band of the isentrope next to the
+// ceiling that the search cannot reach across the pressures without a
+// modelled state below it (water above 20 GPa, beyond the ice VII melting
+// curve). done is false where neither applies.
+func (k *call) hsFromTop(h, s float64) (State, error, bool) {
 	f := k.f
 	lim := f.Limits()
 	top, err := PS(f, lim.PCeil, s)
 	if err != nil {
 		if top, err = TS(f, lim.TCeil, s); err != nil {
-			return nil
+			return State{}, nil, false
 		}
 	}
-	if h <= top.H {
-		return nil
+	if h > top.H {
+		return State{}, k.fail(fluid.ErrOutOfRange, "h above the top of the isentrope in the accepted region, h = "+
+			fmtG(top.H)+" J/kg at p = "+fmtG(top.P)+" Pa and T = "+fmtG(top.T)+" K (p <= "+fmtG(lim.PCeil)+
+			" Pa, T <= "+fmtG(lim.TCeil)+" K)"), true
 	}
-	return k.fail(fluid.ErrOutOfRange, "h above the top of the isentrope in the accepted region, h = "+
-		fmtG(top.H)+" J/kg at p = "+fmtG(top.P)+" Pa and T = "+fmtG(top.T)+" K (p <= "+fmtG(lim.PCeil)+
-		" Pa, T <= "+fmtG(lim.TCeil)+" K)")
+	if top.N != 1 || top.Phase == Solid {
+		return State{}, nil, false
+	}
+	pr, ok := hsNewton(f, h, s, top.T, top.Rho, anySide, nil)
+	if !ok {
+		return State{}, nil, false
+	}
+	sn := satNodesFor(f)
+	if sn == nil {
+		return State{}, nil, false
+	}
+	st, err, done := k.hsFluidCheck(sn, &pr)
+	return st, err, done && err == nil
 }
 
 // hsSearch is HS by a search along the isentrope, where the direct

@@ -186,6 +186,9 @@ func (k *call) finish(pr *fluid.Props) (State, error) {
 	}
 	st := single(pr, fluidPhase(k.f, pr.T, pr.P, pr.Rho))
 	st.Flags |= fl
+	if c := k.f.Limits().PCeil; st.P > c && st.P <= c*(1+1e-12) {
+		st.P = c // the ceiling itself, to rounding
+	}
 	return st, nil
 }
 

@@ -1,6 +1,7 @@
 package flash
 
 import (
+	"errors"
 	"math"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
@@ -324,6 +325,9 @@ func (k *call) hsDirect(h, s float64) (st State, err error, done bool, beyond er
 		}
 	}
 	st, err, done = k.hsFluid(sn, h, s, hd, sd, anchor, second, side)
+	if !done && err != nil && beyond == nil {
+		beyond = err
+	}
 	return st, err, done, beyond
 }
 
@@ -370,6 +374,12 @@ func (k *call) hsFluidCheck(sn *satNodes, pr *fluid.Props) (State, error, bool) 
 	st, err := k.finish(pr)
 	if err == errSolid {
 		return State{}, nil, false
+	}
+	if errors.Is(err, fluid.ErrOutOfRange) {
+		// Outside the models (water colder than the melting curve of a
+		// high-pressure ice): (h, s) may have another state, in them,
+		// which the search finds; the error stands if it does not.
+		return State{}, err, false
 	}
 	if err != nil {
 		return State{}, err, true
@@ -882,22 +892,18 @@ func (k *call) hsSolid(h, s, hd, sd float64) (st State, err error, ok bool, beyo
 	return State{}, nil, false, nil
 }
 
-// solidAt reports whether the solid at (T, p) is a state of the model:
-// placed solid by the node tables (placePT), or between their bounds by
-// the Gibbs energies of the solid and the fluid (on a curve, within
-// gibbsTol, it coexists with the fluid and counts as solid). why explains
-// a (T, p) outside the models (above the solid's pressure limit, where
-// placePT's Solid means other ices, or below the vapour floor). Below the
-// vapour floor a solid whose pressure lies within its backward-residual
-// floor (DESIGN.md: 1e-10·p + 1e-12·ρRT) of the sublimation pressure at
-// the floor counts as at that pressure: a solid's p at given (T, ρ) is
-// fixed only that loosely (ice at 0.16 Pa to about 4e-4 of p).
+// solidAt reports whether the solid sp is a state of the model: placed
+// solid by the node tables (placePT), or between their bounds by the
+// Gibbs energies of the solid and the fluid (on a curve, within gibbsTol,
+// it coexists with the fluid and counts as solid). why explains a (T, p)
+// outside the models (above the solid's pressure limit, where placePT's
+// Solid means other ices, or below the vapour floor). Below the vapour
+// floor a solid whose pressure lies below the sublimation pressure at
+// the floor by no more than the inputs fix it is moved up to that
+// pressure first (atFloorP).
 func (k *call) solidAt(sp *sublimation.Props) (ok bool, why string) {
+	k.atFloorP(sp)
 	T, p := sp.T, sp.P
-	n := k.sol.n
-	if pm := n.subPMin(); T < n.subTMin() && p < pm && pm-p <= 1e-10*pm+1e-12*sp.Rho*k.f.GasConstant()*T {
-		p = pm
-	}
 	if p > k.sol.n.solidPMax()*(1+1e-12) {
 		return false, k.beyondWhy(p)
 	}
@@ -912,6 +918,36 @@ func (k *call) solidAt(sp *sublimation.Props) (ok bool, why string) {
 		return false, why
 	}
 	return false, ""
+}
+
+// atFloorP moves the solid sp onto the edge of the model's states where
+// its pressure lies beyond that edge by no more than the inputs fix it:
+// up to the sublimation pressure at the vapour floor (the lowest pressure
+// at which a solid is told from vapour below the floor), and down to the
+// model's pressure limit (the end of its melting curve). A solid's p at
+// given (ρ, u) or (h, s) is fixed only to the backward-residual floors of
+// DESIGN.md, 1e-10·ρ in ρ and 1e-10·max(|h|, R·Tc) in h — ice at 0.16 Pa
+// only to about 1 Pa, since its volume changes by κ_T ≈ 1.2e-10 per Pa,
+// and at 208.566 MPa to about 0.03 Pa. The moved state reproduces the
+// inputs within those floors.
+func (k *call) atFloorP(sp *sublimation.Props) {
+	n := k.sol.n
+	R := k.f.GasConstant()
+	Tc, _ := k.f.Reducing()
+	band := 1e-10*sp.P + 1e-12*sp.Rho*R*sp.T + 1e-10/sp.KappaT +
+		1e-10*max(math.Abs(sp.H), R*Tc)*sp.Rho
+	edge := 0.0
+	switch pm, pM := n.subPMin(), n.solidPMax(); {
+	case sp.T < n.subTMin() && sp.P < pm && pm-sp.P <= band:
+		edge = pm
+	case sp.P > pM && sp.P-pM <= band:
+		edge = pM
+	default:
+		return
+	}
+	if q, err := k.sol.s.Props(sp.T, edge); err == nil {
+		*sp = q
+	}
 }
 
 // solidNewton solves the solid's quantities a and b (solidQ: h, s, u,
