@@ -193,6 +193,21 @@ func (k *call) duMixture(cs []sublimation.Coexistence, vapour bool, rho, u float
 		}
 		prev, prevValid = r, valid
 	}
+	if n := len(cs); prevValid && math.Abs(prev) <= qU.floor(k.f, nil, u) {
+		// At the end of the curve itself (ice Ih at 208.566 MPa, dry
+		// ice at 800 MPa), where no node beyond brackets it: solved from
+		// that node.
+		a, c := &cs[n-2], &cs[n-1]
+		m, ok := k.coexistSolve(mixCond{du: true, a: v, b: u}, c.T, c.Fluid.Rho, vapour, a.T, c.T)
+		if !ok {
+			return State{}, false
+		}
+		xf := (v - 1/m.Solid.Rho) / (1/m.Fluid.Rho - 1/m.Solid.Rho)
+		if !(xf >= 0 && xf <= 1) {
+			return State{}, false
+		}
+		return k.coexistState(&m, vapour, xf), true
+	}
 	return State{}, false
 }
 

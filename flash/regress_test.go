@@ -384,6 +384,7 @@ func TestDUAtTheVapourFloor(t *testing.T) {
 	}{
 		{"water", 931.4668024384079, -553005.1955311878, Solid},
 		{"water", 926.459666086835, -472284.3576455384, Solid},
+		{"water", 931.2250282401106, -548388.4446703828, Solid},
 		{"CO2", 0.029782293685102216, -141435.2614772201, SolidVapor},
 	} {
 		f := mustFluid(t, c.fluid)
@@ -528,5 +529,86 @@ func TestPQOnTheTripleLine(t *testing.T) {
 	st, err := PQ(f, v.P, 1)
 	if err != nil || math.Abs(st.P-v.P) > 1e-10*v.P+1e-12*st.Rho*f.GasConstant()*st.T {
 		t.Errorf("PQ(%v, 1) = p %v, %v", v.P, st.P, err)
+	}
+}
+
+// TestHSHighPressureWater: (h, s) of water at 50 to 100 GPa above 715 K
+// (supercritical, above the end of ice VII's melting curve) has a second
+// solution of the extrapolated equation in the ice VII region, which HS
+// found first and reported as outside the models; and the isentrope
+// crosses a wide band of pressures without a modelled state below it,
+// which the search along it did not get across (the sweep; the failure
+// report, item C: "HS refuses a state that exists"). Ice Ih at exactly
+// 208.566 MPa, the end of its model, came back a rounding above it and
+// was refused. Each must return its state.
+func TestHSHighPressureWater(t *testing.T) {
+	t.Parallel()
+	w := mustFluid(t, "water")
+	for _, c := range []struct {
+		p, T float64
+		want Phase
+	}{
+		{5.350508541873332e+10, 739.4687493128625, Supercritical},
+		{7.314717042971188e+10, 773.0780055336547, Supercritical},
+		{1e11, 739.4687493128625, Supercritical},
+		{2.08566e+08, 141.52770107819362, Solid},
+		{2.08566e+08, 246.07666463765335, Solid},
+	} {
+		pt, err := PT(w, c.p, c.T)
+		if err != nil {
+			t.Fatal(err)
+		}
+		st, err := HS(w, pt.H, pt.S)
+		if err != nil || st.Phase != c.want {
+			t.Errorf("HS of PT(%v, %v) = %v, %v; want %v", c.p, c.T, st.Phase, err, c.want)
+			continue
+		}
+		if math.Abs(st.T-c.T) > 1e-9*c.T || math.Abs(st.P-c.p) > 1e-9*c.p {
+			t.Errorf("HS of PT(%v, %v) = T %v, p %v", c.p, c.T, st.T, st.P)
+		}
+	}
+}
+
+// TestDUEdges: DU at the edges of the three-phase and solid–liquid
+// states. A mixture on an edge of the three-phase triangle (a liquid
+// fraction of 1e-17) came back as Triple without liquid (the failure
+// report, item A4); the ice–liquid mixture at the end of ice Ih's melting
+// curve (208.566 MPa), which no node beyond brackets, was refused as
+// beyond the model (the sweep, from PH at 208.566 MPa).
+func TestDUEdges(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		fluid  string
+		rho, u float64
+		want   Phase
+	}{
+		{"CO2", 43.80600291703943, -471130.4747298289, SolidVapor},
+		{"water", 41.65953252499539, -333143.65705882525, SolidVapor},
+		{"water", 0.07740467563000071, -163598.32781547625, SolidVapor},
+	} {
+		f := mustFluid(t, c.fluid)
+		st, err := DU(f, c.rho, c.u)
+		if err != nil {
+			t.Errorf("%s DU(%v, %v): %v", c.fluid, c.rho, c.u, err)
+			continue
+		}
+		// Triple with all three phases, or the two-phase state of the
+		// edge where a fraction is below rounding.
+		if xl := 1 - st.Solid - st.Quality; st.Phase == Triple && !(st.N == 3 && xl > 0 && st.Phases[1].Fraction > 0) ||
+			st.Phase != Triple && (st.Phase != c.want || st.N != 2) {
+			t.Errorf("%s DU(%v, %v) = %v (N %d, solid %v, vapour %v); want %v or Triple with liquid",
+				c.fluid, c.rho, c.u, st.Phase, st.N, st.Solid, st.Quality, c.want)
+		}
+	}
+	w := mustFluid(t, "water")
+	for _, h := range []float64{100363.73920112042, 16742.707200833283} {
+		ph, err := PH(w, 2.08566e+08, h)
+		if err != nil || ph.Phase != SolidLiquid {
+			t.Fatalf("PH(2.08566e8, %v) = %v, %v", h, ph.Phase, err)
+		}
+		st, err := DU(w, ph.Rho, ph.U)
+		if err != nil || st.Phase != SolidLiquid || math.Abs(st.Solid-ph.Solid) > 1e-8 {
+			t.Errorf("DU of PH(2.08566e8, %v) = %v, solid %v, %v; want SolidLiquid, solid %v", h, st.Phase, st.Solid, err, ph.Solid)
+		}
 	}
 }

@@ -582,6 +582,13 @@ func (k *call) duSolid(rho, u float64) (State, error) {
 		if err != nil {
 			return State{}, k.rewrap(err)
 		}
+		// A fraction at the rounding level of the sum is none: the state
+		// lies on an edge of the three-phase triangle (a two-phase state
+		// at the triple point).
+		xs, xl, xv = dropRounding(xs), dropRounding(xl), dropRounding(xv)
+		if sum := xs + xl + xv; sum > 0 {
+			xs, xl, xv = xs/sum, xl/sum, xv/sum
+		}
 		return k.wantedState(k.tripleState(tp, xs, xl, xv))
 	case u < lo:
 		if st, err, done := k.duHighIce(tp, rho, u); done {
@@ -639,6 +646,17 @@ func (k *call) duSolid(rho, u float64) (State, error) {
 	return k.isochoric(rho, qU, u)
 }
 
+// dropRounding returns 0 for a mass fraction below 1e-15, the rounding
+// of fractions solved from sums of order 1 (a larger one matters: a
+// vapour fraction of 1e-12 changes the density of liquid water at its
+// triple point by 2e-7).
+func dropRounding(x float64) float64 {
+	if x < 1e-15 {
+		return 0
+	}
+	return x
+}
+
 // duHighIce is DU below the triple point on a dense isochore of water
 // that is above the end of ice Ih's melting curve (208.566 MPa) at the
 // triple-point temperature: colder, it stays liquid until it meets the
@@ -652,12 +670,16 @@ func (k *call) duHighIce(tp *sublimation.ThreePhase, rho, u float64) (st State, 
 	if !k.sol.anomalous() || rho <= tp.Liquid.Rho {
 		return State{}, nil, false
 	}
+	// (Above 208.566 MPa by more than rounding, as highIceT: at that
+	// pressure itself ice Ih and its melting curve end, which the ice Ih
+	// paths place.)
+	pHi := n.highPLo * (1 + 1e-9)
 	top, ok := props(k.f, tp.T, rho)
-	if !ok || !(top.P > n.highPLo) {
+	if !ok || !(top.P > pHi) {
 		return State{}, nil, false
 	}
 	pr, ok := newton1(k.f, qU, u, tp.T, rho, true, k.f.Limits().TFloor, tp.T)
-	if !ok || !(pr.P > n.highPLo) {
+	if !ok || !(pr.P > pHi) {
 		return State{}, nil, false
 	}
 	k.decide(0)
