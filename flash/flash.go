@@ -172,7 +172,7 @@ func (k *call) finish(pr *fluid.Props) (State, error) {
 		switch {
 		case v == vOnCurve:
 			fl = Indeterminate | Saturated
-		case v == vSolid && k.metaFluid():
+		case (v == vSolid || v == vBeyond) && k.metaFluid():
 			fl = Metastable
 		case v == vSolid:
 			return State{}, k.solidError(why)
@@ -931,6 +931,13 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 			}
 		}
 	}
+	if !ok && meta {
+		// Deep in the metastable region (supercooled water tens of
+		// kelvin below its melting curve) Newton's method from the
+		// saturated or melting-curve state can step past the spinodal:
+		// a bracketed search along the isobar on the requested root.
+		pr, ok = isobarMeta(f, p, X, x, tlo, thi, rootFor(k.opt.Phase), keep)
+	}
 	if !ok {
 		if meta {
 			return State{}, k.fail(fluid.ErrUnstable, "no metastable "+k.opt.Phase.String()+" state with these inputs before the spinodal")
@@ -954,6 +961,56 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		return State{}, k.notWanted(st.Phase)
 	}
 	return st, nil
+}
+
+// isobarMeta solves X(T, p) = x at fixed p on root (Liquid or Vapor,
+// metastable allowed) for T in [lo, hi], where the root may end at a
+// spinodal temperature inside the interval: the end of the root's
+// temperatures is found by bisection from the usable end of the interval
+// (to the last floating-point temperature), and Newton's method in
+// (T, ρ) on the branch keep starts from the state there — next to a
+// spinodal X(T) at fixed p has an infinite slope and a state may lie
+// within a few ulps of T from its end, where (T, ρ) still resolves it —
+// then isobar searches between it and the interval's usable end.
+func isobarMeta(f *fluid.Fluid, p float64, X quantity, x, lo, hi float64, root fluid.Root, keep branch) (fluid.Props, bool) {
+	usable := func(T float64) bool {
+		_, err := f.PropsTP(T, p, root, 0)
+		return err == nil
+	}
+	a, b := lo, hi
+	edge := 0.0
+	switch ua, ub := usable(a), usable(b); {
+	case ua && ub:
+	case ub:
+		for i := 0; i < 80 && 0.5*(a+b) > a && 0.5*(a+b) < b; i++ {
+			if m := 0.5 * (a + b); usable(m) {
+				b = m
+			} else {
+				a = m
+			}
+		}
+		lo, edge = b, b
+	case ua:
+		for i := 0; i < 80 && 0.5*(a+b) > a && 0.5*(a+b) < b; i++ {
+			if m := 0.5 * (a + b); usable(m) {
+				a = m
+			} else {
+				b = m
+			}
+		}
+		hi, edge = a, a
+	default:
+		return fluid.Props{}, false
+	}
+	if edge > 0 {
+		if pe, err := f.PropsTP(edge, p, root, 0); err == nil {
+			if pr, ok := newton2(f, qP, p, X, x, pe.T, pe.Rho, keep, &pe); ok {
+				return pr, true
+			}
+		}
+	}
+	pr, ok, _, _ := isobar(f, p, X, x, lo, hi, root)
+	return pr, ok
 }
 
 // extrapolate returns a starting (T, ρ) for X = x at the pressure of the

@@ -316,7 +316,7 @@ func (k *call) versus(pr *fluid.Props) (verdict, string) {
 			// curve is not known: see doc.go).
 			return vFluid, ""
 		}
-		if p > n.solidPMax() {
+		if p > n.solidPMax()*(1+1e-12) { // (its end, to rounding)
 			return vBeyond, beyondCO2
 		}
 		lo, hi := n.meltPBounds(T)

@@ -612,3 +612,51 @@ func TestDUEdges(t *testing.T) {
 		}
 	}
 }
+
+// TestMetastableNextToTheSpinodal: PS with a metastable phase requested
+// refused states that DT and PT return with the same request (the
+// sweep): supercooled water 50 K below its melting curve, where Newton's
+// method from the melting curve's liquid steps past the spinodal, and
+// R-134a vapour at 1e-6 of the gap from its spinodal, where s(T) at fixed
+// p has an infinite slope and the state lies within a few ulps of T from
+// the end of the vapour root; and metastable liquid CO2 at 800 MPa, the
+// end of the dry-ice model, which finish sent to the solid paths. Each
+// must come back, flagged Metastable.
+func TestMetastableNextToTheSpinodal(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		fluid string
+		dt    bool // the state from DT(a, b), else PT(a, b)
+		a, b  float64
+		phase Phase
+	}{
+		{"water", false, 9.927578298354734e+07, 217.21411764705883, Liquid},
+		{"water", false, 247648.4027198921, 234.42823529411766, Liquid},
+		{"R134a", true, 3.4698444524519387, 176.77413446050673, Vapor},
+		{"CO2", false, 8e8, 216.592, Liquid},
+	} {
+		f := mustFluid(t, c.fluid)
+		opt := Options{Phase: c.phase, AllowMetastable: true}
+		var st State
+		var err error
+		if c.dt {
+			st, err = DTWith(f, c.a, c.b, opt)
+		} else {
+			st, err = PTWith(f, c.a, c.b, opt)
+		}
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, fl := range []struct {
+			name string
+			x    float64
+			fn   func(*fluid.Fluid, float64, float64, Options) (State, error)
+		}{{"PS", st.S, PSWith}, {"PH", st.H, PHWith}} {
+			got, err := fl.fn(f, st.P, fl.x, opt)
+			if err != nil || got.Phase != c.phase || got.Flags&Metastable == 0 || math.Abs(got.T-st.T) > 1e-9*st.T {
+				t.Errorf("%s %s of %v at %v K: %v at %v K, flags %v, %v", c.fluid, fl.name, c.phase, st.T,
+					got.Phase, got.T, got.Flags, err)
+			}
+		}
+	}
+}

@@ -220,6 +220,9 @@ func (s Solid) MeltingTemperatureFrom(p, T0, rhoL float64) (Coexistence, error) 
 // end points.
 func (s Solid) curveInput(op, name string, x float64, unit string) (fluid.Input, *curveEnds, error) {
 	in := fluid.Input{Name: name, Value: x, Unit: unit}
+	if s.d == nil {
+		return in, nil, s.zero(op, in)
+	}
 	if !finite(x) || x <= 0 {
 		return in, nil, fluid.NewError(op, fluid.ErrInvalidInput, name+" must be finite and positive", in)
 	}
@@ -235,6 +238,9 @@ func (s Solid) curveInput(op, name string, x float64, unit string) (fluid.Input,
 // Gibbs energy. It is computed once per model (it does not depend on the
 // reference state) and agrees with the constants of fluid.Fluid.Triple.
 func (s Solid) Triple() (ThreePhase, error) {
+	if s.d == nil {
+		return ThreePhase{}, s.zero("sublimation.Solid.Triple")
+	}
 	e := s.ends()
 	if e.err != nil {
 		return ThreePhase{}, e.err
@@ -318,6 +324,9 @@ func (tp ThreePhase) fractions(op string, rho, e float64, name, unit string, es,
 // charts. The error wraps fluid.ErrInvalidInput for n < 2 or n > 100000.
 func (s Solid) SublimationCurve(n int) ([]Coexistence, error) {
 	const op = "sublimation.Solid.SublimationCurve"
+	if s.d == nil {
+		return nil, s.zero(op, fluid.Input{Name: "n", Value: float64(n)})
+	}
 	if n < 2 || n > maxCurve {
 		return nil, fluid.NewError(op, fluid.ErrInvalidInput, "need 2 <= n <= 100000",
 			fluid.Input{Name: "n", Value: float64(n)})
@@ -349,6 +358,9 @@ func (s Solid) SublimationCurve(n int) ([]Coexistence, error) {
 // n > 100000.
 func (s Solid) MeltingCurve(n int) ([]Coexistence, error) {
 	const op = "sublimation.Solid.MeltingCurve"
+	if s.d == nil {
+		return nil, s.zero(op, fluid.Input{Name: "n", Value: float64(n)})
+	}
 	if n < 2 || n > maxCurve {
 		return nil, fluid.NewError(op, fluid.ErrInvalidInput, "need 2 <= n <= 100000",
 			fluid.Input{Name: "n", Value: float64(n)})
