@@ -200,7 +200,8 @@ func (k *call) stable(pr *fluid.Props) (bool, Flags) {
 		return st, 0
 	}
 	root, fl, err := k.f.StableRoot(pr.T, pr.P)
-	if err != nil || root == fluid.RootStable {
+	if err != nil || root == fluid.RootStable || fl&Indeterminate != 0 {
+		// (On the vapour-pressure curve to rounding either phase is.)
 		return err == nil, fl
 	}
 	c := k.f.Critical()
@@ -633,6 +634,14 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 	// The lowest fluid temperature at p, a bound from the solid model's
 	// curve nodes (results are placed against the solid in finish).
 	Tf, floor := k.freezeT(p)
+	if k.belowTripleP(p) && k.metaFluid() && want == Liquid && !k.sol.ok {
+		// A metastable liquid below the triple-point pressure (a fluid
+		// without a solid model: above Tt, below the vapour pressure),
+		// from the liquid at Tt stretched to p.
+		if pl, err := f.PropsTP(k.sol.tt, p, fluid.RootLiquid, 0); err == nil {
+			return k.isobarSingle(p, X, x, &pl, liquidSide, k.sol.tt, lim.TCeil, true)
+		}
+	}
 	if p >= c.P || k.belowTripleP(p) {
 		// One fluid phase along the isobar.
 		sd := anySide

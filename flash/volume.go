@@ -190,7 +190,7 @@ func (k *call) satT(T float64) (fluid.Saturation, error) {
 	}
 	s, ok, err := k.satFromCacheT(T)
 	if !ok {
-		if gT, rl, rv, okg := k.guessSat(); okg && math.Abs(gT-T) < 0.1*T {
+		if gT, rl, rv, okg := k.guessSat(); okg && math.Abs(gT-T) < 1e-2*T {
 			s, err = k.f.SaturationAtTFrom(T, rl, rv)
 		} else {
 			s, err = k.f.SaturationAtT(T)
@@ -380,10 +380,10 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	var sat fluid.Saturation
 	var sp fluid.Props
 	inside := false
-	var gl, gv float64 // warm starts of the saturation
-	if gT, rl, rv, okg := k.guessSat(); okg {
-		gl, gv = rl, rv
-		T0 = gT
+	var gT, gl, gv float64 // warm starts of the saturation
+	if T, rl, rv, okg := k.guessSat(); okg {
+		gT, gl, gv = T, rl, rv
+		T0 = T
 	} else if ok && pr.T > k.sol.tt && pr.T < c.T {
 		T0 = pr.T
 	} else {
@@ -412,16 +412,20 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 		}
 		var s fluid.Saturation
 		var err error
-		if gl > 0 {
+		if gl > 0 && math.Abs(T-gT) <= 1e-3*T {
 			s, err = f.SaturationAtTFrom(T, gl, gv)
 		} else {
-			s, err = f.SaturationAtT(T)
+			// A warm start from far along the curve can lead Newton's
+			// method to a spurious solution (water from its triple
+			// point's densities at 617 K: p 20 % low): the cached curve,
+			// or a cold start.
+			s, err = k.satT(T)
 		}
 		if err != nil {
 			failed = err
 			return 0, 1
 		}
-		gl, gv = s.Liquid.Rho, s.Vapor.Rho
+		gT, gl, gv = T, s.Liquid.Rho, s.Vapor.Rho
 		sat = s
 		q, in := qualityOf(rho, &s)
 		inside = in
@@ -538,8 +542,9 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 // [lo, hi] where its usable single-phase states (mechanically stable, at
 // positive pressure) come in pieces: a scan of 64 temperatures, each
 // piece's ends between the scan's points found by bisection, for the
-// piece whose X brackets x, then newton1 in it. It is the last resort of
-// a metastable request.
+// piece whose X brackets x, then newton1 in it; where that finds none,
+// a scan of 512 (supercooled water's usable pieces can be 4 K wide). It
+// is the last resort of a metastable request.
 func isochoreScan(f *fluid.Fluid, X quantity, x, rho, lo, hi float64) (fluid.Props, bool) {
 	usable := func(T float64) (float64, bool) {
 		pr, ok := props(f, T, rho)
@@ -565,26 +570,27 @@ func isochoreScan(f *fluid.Fluid, X quantity, x, rho, lo, hi float64) (fluid.Pro
 	solve := func(a, b float64) (fluid.Props, bool) {
 		return newton1(f, X, x, 0.5*(a+b), rho, true, min(a, b), max(a, b))
 	}
-	const n = 64
-	prevT, prevR, have := 0.0, 0.0, false
-	for i := 0; i <= n; i++ {
-		T := lo + (hi-lo)*float64(i)/n
-		r, ok := usable(T)
-		switch {
-		case ok && have && (r >= 0) != (prevR >= 0):
-			return solve(prevT, T)
-		case ok && !have && i > 0:
-			// A piece begins between the last point and T.
-			if a, ra := edge(T, T-(hi-lo)/n); (ra >= 0) != (r >= 0) {
-				return solve(a, T)
+	for _, n := range [...]int{64, 512} {
+		prevT, prevR, have := 0.0, 0.0, false
+		for i := 0; i <= n; i++ {
+			T := lo + (hi-lo)*float64(i)/float64(n)
+			r, ok := usable(T)
+			switch {
+			case ok && have && (r >= 0) != (prevR >= 0):
+				return solve(prevT, T)
+			case ok && !have && i > 0:
+				// A piece begins between the last point and T.
+				if a, ra := edge(T, T-(hi-lo)/float64(n)); (ra >= 0) != (r >= 0) {
+					return solve(a, T)
+				}
+			case !ok && have:
+				// The piece ends between the last point and T.
+				if b, rb := edge(prevT, T); (rb >= 0) != (prevR >= 0) {
+					return solve(prevT, b)
+				}
 			}
-		case !ok && have:
-			// The piece ends between the last point and T.
-			if b, rb := edge(prevT, T); (rb >= 0) != (prevR >= 0) {
-				return solve(prevT, b)
-			}
+			prevT, prevR, have = T, r, ok
 		}
-		prevT, prevR, have = T, r, ok
 	}
 	return fluid.Props{}, false
 }

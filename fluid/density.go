@@ -281,6 +281,19 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 				fl = Indeterminate
 			}
 			d, _, st := f.solveDelta(&it, pi, b, g)
+			if st != rootFound && (fl != 0 || f.crit.T-T < critBand) {
+				// Within a millikelvin of Tc the saturation pressure is
+				// the near-critical model's (SaturationAtT), which may lie
+				// a rounding beyond the spinodal of the branch it picks:
+				// the other branch, as on the curve either phase is.
+				o := branchLiquid
+				if b == branchLiquid {
+					o = branchVapor
+				}
+				if d2, _, st2 := f.solveDelta(&it, pi, o, 0); st2 == rootFound {
+					return f.rootResult(op, T, p, d2, st2, o, fl)
+				}
+			}
 			return f.rootResult(op, T, p, d, st, b, fl)
 		}
 	}
