@@ -83,7 +83,8 @@ func (m *mixCond) tol(f *fluid.Fluid) float64 {
 // ∂g_s = v_s dp. It converges to 1e-13 in F1 (the curves of package
 // sublimation are solved to a few 1e-12) and 1/100 of the floor of h or
 // u. The mixture's T lies between the nodes' Ta and Tb: an iterate that
-// leaves that interval by its width, or 16 iterations, end the attempt.
+// leaves that interval by its width, or 16 iterations, end the attempt;
+// a solution beyond the triple point (the curves' common end) is none.
 func (k *call) coexistSolve(m mixCond, T, rho float64, vapour bool, Ta, Tb float64) (sublimation.Coexistence, bool) {
 	f := k.f
 	sol := k.sol.s
@@ -148,6 +149,12 @@ func (k *call) coexistSolve(m mixCond, T, rho float64, vapour bool, Ta, Tb float
 		T, y = T+sc*dT, y+sc*dy
 	}
 	if !converged {
+		return sublimation.Coexistence{}, false
+	}
+	if vapour && T > k.sol.tt*(1+tripleTolT) || !vapour && k.belowTripleP(fp.P) {
+		// Beyond the triple point, where the curve ends: the equations
+		// have a solution there (the curves extrapolate smoothly), but
+		// it is no state.
 		return sublimation.Coexistence{}, false
 	}
 	sp, err := sol.Props(T, fp.P)

@@ -660,3 +660,131 @@ func TestMetastableNextToTheSpinodal(t *testing.T) {
 		}
 	}
 }
+
+// TestDUSpuriousSaturation: DU's iteration through the dome started the
+// saturation at 617 K from the triple point's densities, and Newton's
+// method converged to a spurious solution (p 20 % low); DU returned a
+// mixture at 624 K whose p belonged to 620 K for the saturated vapour at
+// 617 K (the sweep, from TQ(617.0609799196787, 1)). It must return that
+// vapour (or a mixture with a vanishing liquid fraction) at 617 K.
+func TestDUSpuriousSaturation(t *testing.T) {
+	t.Parallel()
+	w := mustFluid(t, "water")
+	for _, q := range []float64{1, 0.999999999} {
+		tq, err := TQ(w, 617.0609799196787, q)
+		if err != nil {
+			t.Fatal(err)
+		}
+		st, err := DU(w, tq.Rho, tq.U)
+		if err != nil || math.Abs(st.T-tq.T) > 1e-9*tq.T || math.Abs(st.P-tq.P) > 1e-9*tq.P || st.Quality < 1-1e-8 {
+			t.Errorf("DU of TQ(617.06, %v) = %v at %v K, %v Pa, q %v, %v; want the vapour at %v K, %v Pa",
+				q, st.Phase, st.T, st.P, st.Quality, err, tq.T, tq.P)
+		}
+	}
+}
+
+// TestNearCriticalSupercritical: PH and PS a few µK above Tc and a few Pa
+// above pc, where cp is so large that the search along the isobar fixed
+// T to its tolerance with h still beyond its floor, did not converge;
+// PT of the saturated phases 3 nK below Tc took the liquid root, which
+// the near-critical model's pressure puts a rounding beyond the liquid
+// spinodal; PD of a mixture 1.4 µK below Tc with 0.5 % vapour (2e-5 in
+// density from the saturated liquid, within the band in which the
+// equation fixes it) returned the liquid; and HS of a liquid 1.5e-8 K
+// above the triple point returned a solid–vapour mixture above it. (All
+// found by the sweep at 2e5 states.)
+func TestNearCriticalSupercritical(t *testing.T) {
+	t.Parallel()
+	f := mustFluid(t, "CO2")
+	for _, c := range [][3]float64{
+		{7.377303565428733e+06, -170407.48613436133, 0},
+		{7.377444405908948e+06, -168738.40248735197, 0},
+		{7.377300000000094e+06, -171514.78495678736, 0},
+		{7.377300181636036e+06, -1293.6337379536153, 1},
+	} {
+		var st State
+		var err error
+		b := 1e-10 * max(math.Abs(c[1]), f.GasConstant()*f.Critical().T)
+		if c[2] == 0 {
+			st, err = PH(f, c[0], c[1])
+			if err == nil && math.Abs(st.H-c[1]) > b {
+				t.Errorf("PH(%v, %v): h = %v", c[0], c[1], st.H)
+			}
+		} else {
+			st, err = PS(f, c[0], c[1])
+			if err == nil && math.Abs(st.S-c[1]) > 1e-10*max(math.Abs(c[1]), f.GasConstant()) {
+				t.Errorf("PS(%v, %v): s = %v", c[0], c[1], st.S)
+			}
+		}
+		if err != nil {
+			t.Errorf("PH/PS(%v, %v): %v", c[0], c[1], err)
+		}
+	}
+	for _, q := range []float64{0, 1} {
+		tq, err := TQ(f, 304.1281999969587, q)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if st, err := PT(f, tq.P, tq.T); err != nil || st.Phase != Liquid && st.Phase != Vapor {
+			t.Errorf("PT of TQ(304.1281999969587, %v) = %v, %v", q, st.Phase, err)
+		}
+	}
+	tq, err := TQ(f, 304.1281985562843, 0.004903329792212769)
+	if err != nil {
+		t.Fatal(err)
+	}
+	st, err := PD(f, tq.P, tq.Rho)
+	if err != nil || math.Abs(st.Rho-tq.Rho) > 1e-10*tq.Rho || math.Abs(st.T-tq.T) > 1e-9*tq.T {
+		t.Errorf("PD of a mixture 1.4 µK below Tc = %v at %v K, rho %v, %v", st.Phase, st.T, st.Rho, err)
+	}
+	pt, err := PT(f, 517964.51339021366, 216.59200001494008)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if st, err := HS(f, pt.H, pt.S); err != nil || st.Phase != Liquid {
+		t.Errorf("HS of the liquid 1.5e-8 K above Tt = %v at %v K, %v", st.Phase, st.T, err)
+	}
+}
+
+// TestMetastableFar: a metastable liquid of R-134a below its triple-point
+// pressure (161.7 Pa at 206 K; PH and PS refused it as solid), supercooled
+// water at 233.5 K whose isochore has usable states only in a 0.4 K piece
+// (cv turns negative below it; DU missed it), and supercooled water at
+// 237.2 K whose density root PT found 1.04 bounds off in p (the sweep at
+// 2e5 states).
+func TestMetastableFar(t *testing.T) {
+	t.Parallel()
+	o := Options{Phase: Liquid, AllowMetastable: true}
+	r := mustFluid(t, "R134a")
+	dt, err := DTWith(r, 1493.127433266497, 206.33752992418945, o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, fl := range []struct {
+		name string
+		x    float64
+		fn   func(*fluid.Fluid, float64, float64, Options) (State, error)
+	}{{"PH", dt.H, PHWith}, {"PS", dt.S, PSWith}} {
+		st, err := fl.fn(r, dt.P, fl.x, o)
+		if err != nil || st.Flags&Metastable == 0 || math.Abs(st.T-dt.T) > 1e-9*dt.T {
+			t.Errorf("R-134a %s of the metastable liquid at %v Pa: %v at %v K, %v", fl.name, dt.P, st.Phase, st.T, err)
+		}
+	}
+	w := mustFluid(t, "water")
+	pt, err := PTWith(w, 401235.83877461235, 233.48000000000002, o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if st, err := DUWith(w, pt.Rho, pt.U, o); err != nil || math.Abs(st.T-pt.T) > 1e-9*pt.T {
+		t.Errorf("DU of supercooled water at 233.48 K: %v at %v K, %v", st.Phase, st.T, err)
+	}
+	const p = 71347.78977709032
+	st, err := PTWith(w, p, 237.20000000000002, o)
+	if err != nil || st.P != p {
+		t.Errorf("PT(%v, 237.2) = p %v, %v", p, st.P, err)
+	}
+	if pr, err := w.PropsTP(237.20000000000002, p, fluid.RootLiquid, 0); err != nil ||
+		math.Abs(pr.P-p) > 1e-10*p+1e-12*pr.Rho*w.GasConstant()*pr.T {
+		t.Errorf("PropsTP(237.2, %v) = p %v, %v", p, pr.P, err)
+	}
+}

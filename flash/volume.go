@@ -543,7 +543,8 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 // positive pressure) come in pieces: a scan of 64 temperatures, each
 // piece's ends between the scan's points found by bisection, for the
 // piece whose X brackets x, then newton1 in it; where that finds none,
-// a scan of 512 (supercooled water's usable pieces can be 4 K wide). It
+// scans of 512 and 4096 (supercooled water's usable pieces can be
+// 4 K wide, and 0.4 K where its cv turns negative below 233 K). It
 // is the last resort of a metastable request.
 func isochoreScan(f *fluid.Fluid, X quantity, x, rho, lo, hi float64) (fluid.Props, bool) {
 	usable := func(T float64) (float64, bool) {
@@ -570,7 +571,7 @@ func isochoreScan(f *fluid.Fluid, X quantity, x, rho, lo, hi float64) (fluid.Pro
 	solve := func(a, b float64) (fluid.Props, bool) {
 		return newton1(f, X, x, 0.5*(a+b), rho, true, min(a, b), max(a, b))
 	}
-	for _, n := range [...]int{64, 512} {
+	for _, n := range [...]int{64, 512, 4096} {
 		prevT, prevR, have := 0.0, 0.0, false
 		for i := 0; i <= n; i++ {
 			T := lo + (hi-lo)*float64(i)/float64(n)

@@ -497,6 +497,19 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64) (float
 					}
 					return x, r, rootNoConvergence
 				}
+				if math.Abs(res) > 1e-13*x {
+					// A dense liquid's p scatters by about 1e-13·ρRT
+					// between neighbouring densities: the last step, or
+					// the next density toward it, where that is closer.
+					xn := x + step
+					if xn == x {
+						xn = math.Nextafter(x, x+math.Copysign(1, step))
+					}
+					rn := it.eval(xn)
+					if math.Abs(xn*(1+xn*rn.D)-pi) < math.Abs(res) {
+						return xn, rn, rootFound
+					}
+				}
 				return x, r, rootFound
 			}
 			xn := x + step
@@ -530,8 +543,15 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64) (float
 		return x, r, rootAboveCeil
 	}
 	if hi-lo <= 4e-16*hi {
-		// The bracket closed on the root at rounding level.
+		// The bracket closed on the root at rounding level: the end
+		// whose p is closer (a dense liquid's scatters by 1e-13·ρRT).
 		r = it.eval(hi)
+		if lo > 0 {
+			rl := it.eval(lo)
+			if math.Abs(lo*(1+lo*rl.D)-pi) < math.Abs(hi*(1+hi*r.D)-pi) && 1+2*lo*rl.D+lo*lo*rl.DD > 0 {
+				return lo, rl, rootFound
+			}
+		}
 		return hi, r, rootFound
 	}
 	return x, r, rootNoConvergence
