@@ -464,6 +464,10 @@ func hsNewton(f *fluid.Fluid, h, s, T, rho float64, sd side, first *fluid.Props)
 	lim := f.Limits()
 	br := onBranch(f, sd, lim.TFloor, lim.TCeil)
 	tolH, tolS := qH.tol(f, nil, h), qS.tol(f, nil, s)
+	// A start extrapolated beyond the accepted range (a state at the
+	// temperature ceiling) starts at its edge, as the iterates do.
+	T = min(max(T, lim.TFloor), lim.TCeil)
+	rho = min(rho, lim.RhoCeil)
 	var prev fluid.Props
 	havePrev := false
 	w := watch{best: math.Inf(1)}
