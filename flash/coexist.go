@@ -187,16 +187,7 @@ func (k *call) duMixture(cs []sublimation.Coexistence, vapour bool, rho, u float
 		if i > 0 && (valid || prevValid) && (r >= 0) != (prev >= 0) {
 			a := &cs[i-1]
 			t := prev / (prev - r)
-			T := lerp(a.T, c.T, t)
-			m, ok := k.coexistSolve(mixCond{du: true, a: v, b: u}, T, nodeRho(cs, i-1, t), vapour, a.T, c.T)
-			if !ok {
-				return State{}, false
-			}
-			xf := (v - 1/m.Solid.Rho) / (1/m.Fluid.Rho - 1/m.Solid.Rho)
-			if !(xf >= 0 && xf <= 1) {
-				return State{}, false
-			}
-			return k.coexistState(&m, vapour, xf), true
+			return k.duMixtureAt(v, u, lerp(a.T, c.T, t), nodeRho(cs, i-1, t), vapour, a.T, c.T)
 		}
 		prev, prevValid = r, valid
 	}
@@ -205,17 +196,25 @@ func (k *call) duMixture(cs []sublimation.Coexistence, vapour bool, rho, u float
 		// ice at 800 MPa), where no node beyond brackets it: solved from
 		// that node.
 		a, c := &cs[n-2], &cs[n-1]
-		m, ok := k.coexistSolve(mixCond{du: true, a: v, b: u}, c.T, c.Fluid.Rho, vapour, a.T, c.T)
-		if !ok {
-			return State{}, false
-		}
-		xf := (v - 1/m.Solid.Rho) / (1/m.Fluid.Rho - 1/m.Solid.Rho)
-		if !(xf >= 0 && xf <= 1) {
-			return State{}, false
-		}
-		return k.coexistState(&m, vapour, xf), true
+		return k.duMixtureAt(v, u, c.T, c.Fluid.Rho, vapour, a.T, c.T)
 	}
 	return State{}, false
+}
+
+// duMixtureAt solves the mixture of specific volume v and internal
+// energy u from (T, ρ) between the nodes' Ta and Tb (coexistSolve) and
+// builds its state; ok is false where it fails or v lies outside the
+// phases' volumes.
+func (k *call) duMixtureAt(v, u, T, rho float64, vapour bool, Ta, Tb float64) (State, bool) {
+	m, ok := k.coexistSolve(mixCond{du: true, a: v, b: u}, T, rho, vapour, Ta, Tb)
+	if !ok {
+		return State{}, false
+	}
+	xf := (v - 1/m.Solid.Rho) / (1/m.Fluid.Rho - 1/m.Solid.Rho)
+	if !(xf >= 0 && xf <= 1) {
+		return State{}, false
+	}
+	return k.coexistState(&m, vapour, xf), true
 }
 
 // duSolidPhase is DU for a single solid phase: Newton's method in (T, p)

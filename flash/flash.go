@@ -986,28 +986,31 @@ func isobarMeta(f *fluid.Fluid, p float64, X quantity, x, lo, hi float64, root f
 		_, err := f.PropsTP(T, p, root, 0)
 		return err == nil
 	}
-	a, b := lo, hi
+	// lastUsable bisects between the usable good and the unusable bad to
+	// the last floating-point temperature on good's side.
+	lastUsable := func(good, bad float64) float64 {
+		for i := 0; i < 80; i++ {
+			m := 0.5 * (good + bad)
+			if m == good || m == bad {
+				break
+			}
+			if usable(m) {
+				good = m
+			} else {
+				bad = m
+			}
+		}
+		return good
+	}
 	edge := 0.0
-	switch ua, ub := usable(a), usable(b); {
+	switch ua, ub := usable(lo), usable(hi); {
 	case ua && ub:
 	case ub:
-		for i := 0; i < 80 && 0.5*(a+b) > a && 0.5*(a+b) < b; i++ {
-			if m := 0.5 * (a + b); usable(m) {
-				b = m
-			} else {
-				a = m
-			}
-		}
-		lo, edge = b, b
+		lo = lastUsable(hi, lo)
+		edge = lo
 	case ua:
-		for i := 0; i < 80 && 0.5*(a+b) > a && 0.5*(a+b) < b; i++ {
-			if m := 0.5 * (a + b); usable(m) {
-				a = m
-			} else {
-				b = m
-			}
-		}
-		hi, edge = a, a
+		hi = lastUsable(lo, hi)
+		edge = hi
 	default:
 		return fluid.Props{}, false
 	}
