@@ -54,13 +54,15 @@ func fluidPhase(f *fluid.Fluid, T, p, rho float64) Phase {
 // with cv = cp = +Inf and w = 0 where the equation has nonanalytic terms.
 func twoPhase(f *fluid.Fluid, s *fluid.Saturation, q float64) State {
 	l, v := &s.Liquid, &s.Vapor
-	if q <= 0 {
+	if q <= 0 || q >= 1 {
+		// The saturated phase at the saturation pressure: a dense
+		// liquid's own p at its density scatters by about 1e-13·ρ′RT
+		// (4e-8·p for water at its triple point), the vapour's does not.
 		st := single(l, Liquid)
-		st.Flags |= Saturated | s.Flags&AtCritical
-		return st
-	}
-	if q >= 1 {
-		st := single(v, Vapor)
+		if q >= 1 {
+			st = single(v, Vapor)
+		}
+		st.P = s.P
 		st.Flags |= Saturated | s.Flags&AtCritical
 		return st
 	}

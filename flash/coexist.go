@@ -83,7 +83,8 @@ func (m *mixCond) tol(f *fluid.Fluid) float64 {
 // ∂g_s = v_s dp. It converges to 1e-13 in F1 (the curves of package
 // sublimation are solved to a few 1e-12) and 1/100 of the floor of h or
 // u. The mixture's T lies between the nodes' Ta and Tb: an iterate that
-// leaves that interval by its width, or 16 iterations, end the attempt.
+// leaves that interval by its width, or 16 iterations, end the attempt;
+// a solution beyond the triple point (the curves' common end) is none.
 func (k *call) coexistSolve(m mixCond, T, rho float64, vapour bool, Ta, Tb float64) (sublimation.Coexistence, bool) {
 	f := k.f
 	sol := k.sol.s
@@ -150,6 +151,12 @@ func (k *call) coexistSolve(m mixCond, T, rho float64, vapour bool, Ta, Tb float
 	if !converged {
 		return sublimation.Coexistence{}, false
 	}
+	if vapour && T > k.sol.tt*(1+tripleTolT) || !vapour && k.belowTripleP(fp.P) {
+		// Beyond the triple point, where the curve ends: the equations
+		// have a solution there (the curves extrapolate smoothly), but
+		// it is no state.
+		return sublimation.Coexistence{}, false
+	}
 	sp, err := sol.Props(T, fp.P)
 	if err != nil {
 		return sublimation.Coexistence{}, false
@@ -180,20 +187,34 @@ func (k *call) duMixture(cs []sublimation.Coexistence, vapour bool, rho, u float
 		if i > 0 && (valid || prevValid) && (r >= 0) != (prev >= 0) {
 			a := &cs[i-1]
 			t := prev / (prev - r)
-			T := lerp(a.T, c.T, t)
-			m, ok := k.coexistSolve(mixCond{du: true, a: v, b: u}, T, nodeRho(cs, i-1, t), vapour, a.T, c.T)
-			if !ok {
-				return State{}, false
-			}
-			xf := (v - 1/m.Solid.Rho) / (1/m.Fluid.Rho - 1/m.Solid.Rho)
-			if !(xf >= 0 && xf <= 1) {
-				return State{}, false
-			}
-			return k.coexistState(&m, vapour, xf), true
+			return k.duMixtureAt(v, u, lerp(a.T, c.T, t), nodeRho(cs, i-1, t), vapour, a.T, c.T)
 		}
 		prev, prevValid = r, valid
 	}
+	if n := len(cs); prevValid && math.Abs(prev) <= qU.floor(k.f, nil, u) {
+		// At the end of the curve itself (ice Ih at 208.566 MPa, dry
+		// ice at 800 MPa), where no node beyond brackets it: solved from
+		// that node.
+		a, c := &cs[n-2], &cs[n-1]
+		return k.duMixtureAt(v, u, c.T, c.Fluid.Rho, vapour, a.T, c.T)
+	}
 	return State{}, false
+}
+
+// duMixtureAt solves the mixture of specific volume v and internal
+// energy u from (T, ρ) between the nodes' Ta and Tb (coexistSolve) and
+// builds its state; ok is false where it fails or v lies outside the
+// phases' volumes.
+func (k *call) duMixtureAt(v, u, T, rho float64, vapour bool, Ta, Tb float64) (State, bool) {
+	m, ok := k.coexistSolve(mixCond{du: true, a: v, b: u}, T, rho, vapour, Ta, Tb)
+	if !ok {
+		return State{}, false
+	}
+	xf := (v - 1/m.Solid.Rho) / (1/m.Fluid.Rho - 1/m.Solid.Rho)
+	if !(xf >= 0 && xf <= 1) {
+		return State{}, false
+	}
+	return k.coexistState(&m, vapour, xf), true
 }
 
 // duSolidPhase is DU for a single solid phase: Newton's method in (T, p)
@@ -219,7 +240,7 @@ func (k *call) duSolidPhase(rho, u float64) (State, bool) {
 	if !ok {
 		return State{}, false
 	}
-	if ok, _ := k.solidAt(sp.T, sp.P); !ok {
+	if ok, _ := k.solidAt(&sp); !ok {
 		return State{}, false
 	}
 	return solidState(&sp), true

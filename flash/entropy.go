@@ -41,6 +41,9 @@ func TSWith(f *fluid.Fluid, T, s float64, opt Options) (State, error) {
 		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
+	if lim := f.Limits(); T > lim.TCeil {
+		return State{}, k.fail(fluid.ErrOutOfRange, "T exceeds the accepted "+fmtG(lim.TCeil)+" K")
+	}
 	if k.sol.ok && !k.metaFluid() && (k.onTripleT(T) || k.belowTripleT(T) || k.belowMeltS(T, s)) {
 		return k.done(k.tsSolid(T, s))
 	}
@@ -218,7 +221,10 @@ func nodeRhoV(n *satNodes, i int, t float64) float64 {
 // Special cases are:
 //
 //	h or s NaN or ±Inf: ErrInvalidInput
-//	no state with these h and s: ErrOutOfRange or ErrNoConvergence
+//	h above the top of the isentrope s in the accepted region (its
+//	  state at the pressure or temperature ceiling), or an isentrope
+//	  with no state at any accepted pressure: ErrOutOfRange
+//	no state found otherwise: ErrNoConvergence
 //	water beyond the melting curves of ices III, V, VI and VII, or with
 //	  ice Ih above 208.566 MPa: ErrOutOfRange naming the ice
 func HS(f *fluid.Fluid, h, s float64) (State, error) { return HSWith(f, h, s, Options{}) }
@@ -249,10 +255,53 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 		return st, err
 	}
 	st, err = k.hsSearch(h, s)
+	if err != nil {
+		if st2, err2, done := k.hsFromTop(h, s); done {
+			return st2, err2
+		}
+	}
 	if err != nil && beyond != nil {
 		return State{}, beyond
 	}
 	return st, err
+}
+
+// hsFromTop is the last resort of HS, from the top of the isentrope s in
+// the accepted region: h rises with p along it (dh = dp/ρ), and T with
+// it, so its top is its state at the pressure ceiling, or at the
+// temperature ceiling where that comes first. Where h lies above that
+// top, an error wrapping fluid.ErrOutOfRange; else Newton's method on
+// (h, s) from it, for a state in a band of the isentrope next to the
+// ceiling that the search cannot reach across the pressures without a
+// modelled state below it (water above 20 GPa, beyond the ice VII melting
+// curve). done is false where neither applies.
+func (k *call) hsFromTop(h, s float64) (State, error, bool) {
+	f := k.f
+	lim := f.Limits()
+	top, err := PS(f, lim.PCeil, s)
+	if err != nil {
+		if top, err = TS(f, lim.TCeil, s); err != nil {
+			return State{}, nil, false
+		}
+	}
+	if h > top.H {
+		return State{}, k.fail(fluid.ErrOutOfRange, "h above the top of the isentrope in the accepted region, h = "+
+			fmtG(top.H)+" J/kg at p = "+fmtG(top.P)+" Pa and T = "+fmtG(top.T)+" K (p <= "+fmtG(lim.PCeil)+
+			" Pa, T <= "+fmtG(lim.TCeil)+" K)"), true
+	}
+	if top.N != 1 || top.Phase == Solid {
+		return State{}, nil, false
+	}
+	pr, ok := hsNewton(f, h, s, top.T, top.Rho, anySide, nil)
+	if !ok {
+		return State{}, nil, false
+	}
+	sn := satNodesFor(f)
+	if sn == nil {
+		return State{}, nil, false
+	}
+	st, err, done := k.hsFluidCheck(sn, &pr)
+	return st, err, done && err == nil
 }
 
 // hsSearch is HS by a search along the isentrope, where the direct
@@ -292,7 +341,8 @@ func (k *call) hsSearch(h, s float64) (State, error) {
 		}
 	}
 	if !have {
-		return State{}, k.fail(fluid.ErrOutOfRange, "no state with these h and s")
+		return State{}, k.fail(fluid.ErrOutOfRange, "no state on this isentrope at any pressure up to the accepted "+
+			fmtG(lim.PCeil)+" Pa within "+fmtG(lim.TFloor)+" <= T <= "+fmtG(lim.TCeil)+" K")
 	}
 	tolH := qH.tol(f, nil, h)
 	// A budget of PS calls bounds the search where (h, s) has no state.

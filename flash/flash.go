@@ -172,7 +172,7 @@ func (k *call) finish(pr *fluid.Props) (State, error) {
 		switch {
 		case v == vOnCurve:
 			fl = Indeterminate | Saturated
-		case v == vSolid && k.metaFluid():
+		case (v == vSolid || v == vBeyond) && k.metaFluid():
 			fl = Metastable
 		case v == vSolid:
 			return State{}, k.solidError(why)
@@ -186,6 +186,9 @@ func (k *call) finish(pr *fluid.Props) (State, error) {
 	}
 	st := single(pr, fluidPhase(k.f, pr.T, pr.P, pr.Rho))
 	st.Flags |= fl
+	if c := k.f.Limits().PCeil; st.P > c && st.P <= c*(1+1e-12) {
+		st.P = c // the ceiling itself, to rounding
+	}
 	return st, nil
 }
 
@@ -197,7 +200,8 @@ func (k *call) stable(pr *fluid.Props) (bool, Flags) {
 		return st, 0
 	}
 	root, fl, err := k.f.StableRoot(pr.T, pr.P)
-	if err != nil || root == fluid.RootStable {
+	if err != nil || root == fluid.RootStable || fl&Indeterminate != 0 {
+		// (On the vapour-pressure curve to rounding either phase is.)
 		return err == nil, fl
 	}
 	c := k.f.Critical()
@@ -279,6 +283,27 @@ func PT(f *fluid.Fluid, p, T float64) (State, error) { return PTWith(f, p, T, Op
 // mixture (TwoPhase, SolidVapor, SolidLiquid, Triple) cannot be
 // requested: ErrInvalidInput.
 func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
+	return atInputP(f, p)(ptWith(f, p, T, opt))
+}
+
+// atInputP returns a function that gives a single-phase fluid state of
+// a flash at pressure p that pressure itself: its P, from the equation
+// at the solved density, differs from p by rounding (within the
+// backward-residual floor: in a dense liquid up to about 1e-13·ρRT, 4e-8
+// of p for water at its triple point), and a state that keeps its input
+// exactly can be fed to the next flash without landing on the other side
+// of a phase boundary that rounding put it on.
+func atInputP(f *fluid.Fluid, p float64) func(State, error) (State, error) {
+	return func(st State, err error) (State, error) {
+		if err == nil && st.N == 1 && (st.Phase == Liquid || st.Phase == Vapor || st.Phase == Supercritical) &&
+			math.Abs(st.P-p) <= 1e-10*p+1e-12*st.Rho*f.GasConstant()*st.T {
+			st.P = p
+		}
+		return st, err
+	}
+}
+
+func ptWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	var k call
 	if err := k.init(f, "flash.PT", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
 		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt, 3); err != nil {
@@ -294,6 +319,7 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 		// the vapour-pressure curve.
 		tp, _ := k.triple()
 		st := single(&tp.Liquid, Liquid)
+		st.P = tp.P // the triple point's, not the liquid's own (see twoPhase)
 		st.Flags |= Indeterminate | Saturated
 		return k.wanted(st, nil)
 	}
@@ -327,6 +353,12 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 		return State{}, k.rewrap(err)
 	}
 	if pr.Flags&Metastable != 0 && !k.opt.AllowMetastable {
+		if pl == placeNear && !meta && k.opt.Phase != Vapor && k.opt.Phase != Liquid {
+			// Beside the sublimation curve the vapour root is metastable
+			// against the liquid: below the triple point the liquid lies
+			// above the solid in Gibbs energy, so the solid is stable.
+			return k.done(k.ptSolid(p, T, pl, why, nil))
+		}
 		ph := Liquid
 		if pr.Rho > f.Critical().Rho {
 			ph = Vapor
@@ -446,6 +478,11 @@ func (k *call) satP(p float64) (fluid.Saturation, error) {
 			s, err = k.f.SaturationAtP(p)
 		}
 	}
+	if err != nil && k.onTripleP(p) {
+		// On the triple line below the vapour pressure at Tt, to within
+		// its precision: the saturation at Tt.
+		return k.satT(k.sol.tt)
+	}
 	if err != nil {
 		return s, k.rewrap(err)
 	}
@@ -512,7 +549,7 @@ func PHWith(f *fluid.Fluid, p, h float64, opt Options) (State, error) {
 		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	return k.done(k.isobaricAll(p, qH, h))
+	return atInputP(f, p)(k.done(k.isobaricAll(p, qH, h)))
 }
 
 // PS returns the state of f at pressure p in Pa and specific entropy s
@@ -526,7 +563,7 @@ func PSWith(f *fluid.Fluid, p, s float64, opt Options) (State, error) {
 		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	return k.done(k.isobaricAll(p, qS, s))
+	return atInputP(f, p)(k.done(k.isobaricAll(p, qS, s)))
 }
 
 // dXdT returns (∂X/∂T)_p at pr: cp for h, cp/T for s.
@@ -597,12 +634,20 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 	// The lowest fluid temperature at p, a bound from the solid model's
 	// curve nodes (results are placed against the solid in finish).
 	Tf, floor := k.freezeT(p)
-	if p >= c.P || p < k.sol.pt {
+	if k.belowTripleP(p) && k.metaFluid() && want == Liquid && !k.sol.ok {
+		// A metastable liquid below the triple-point pressure (a fluid
+		// without a solid model: above Tt, below the vapour pressure),
+		// from the liquid at Tt stretched to p.
+		if pl, err := f.PropsTP(k.sol.tt, p, fluid.RootLiquid, 0); err == nil {
+			return k.isobarSingle(p, X, x, &pl, liquidSide, k.sol.tt, lim.TCeil, true)
+		}
+	}
+	if p >= c.P || k.belowTripleP(p) {
 		// One fluid phase along the isobar.
 		sd := anySide
 		root := fluid.RootStable
 		T0 := c.T
-		if p < k.sol.pt {
+		if k.belowTripleP(p) {
 			root, T0, sd = fluid.RootVapor, Tf, vaporSide
 		} else if ls, ok := k.liquidStart(p, X, x, 0); ok {
 			// Above pc, liquid-like below Tc by the cached curve.
@@ -637,7 +682,7 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 		if err != nil {
 			return State{}, k.rewrap(err)
 		}
-		if p < k.sol.pt && x < X.of(&pr0)-X.tol(f, &pr0, x) {
+		if k.belowTripleP(p) && x < X.of(&pr0)-X.tol(f, &pr0, x) {
 			return State{}, k.lowError(floor)
 		}
 		return k.isobarSingle(p, X, x, &pr0, sd, Tf, lim.TCeil, false)
@@ -669,6 +714,12 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 		// pressure at Tt: the equation's saturation.
 		s, err = f.SaturationAtP(p)
 	}
+	if err != nil && k.onTripleP(p) {
+		// On the triple line, below the vapour pressure at Tt to within
+		// its precision (a fluid without a solid model): the saturation
+		// at Tt.
+		s, err = k.satT(k.sol.tt)
+	}
 	if err != nil {
 		if errors.Is(err, fluid.ErrOutOfRange) && p < k.sol.pt*1.01 {
 			// Between the stored triple-point pressure and the
@@ -694,6 +745,11 @@ func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation
 	want := k.opt.Phase
 	xl, xv := X.of(&s.Liquid), X.of(&s.Vapor)
 	Tf, _ := k.freezeT(p)
+	if k.onTripleT(s.T) && x < xl && xl-x <= X.floor(f, &s.Liquid, x) {
+		// The liquid at the triple point, to the floor of x: no colder
+		// liquid to solve for (a fluid without a solid model).
+		return k.finishSat(s, 0)
+	}
 	switch {
 	case x < xl:
 		return k.isobarSingle(p, X, x, &s.Liquid, liquidSide, Tf, s.T, false)
@@ -884,6 +940,13 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 			}
 		}
 	}
+	if !ok && meta {
+		// Deep in the metastable region (supercooled water tens of
+		// kelvin below its melting curve) Newton's method from the
+		// saturated or melting-curve state can step past the spinodal:
+		// a bracketed search along the isobar on the requested root.
+		pr, ok = isobarMeta(f, p, X, x, tlo, thi, rootFor(k.opt.Phase), keep)
+	}
 	if !ok {
 		if meta {
 			return State{}, k.fail(fluid.ErrUnstable, "no metastable "+k.opt.Phase.String()+" state with these inputs before the spinodal")
@@ -907,6 +970,59 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		return State{}, k.notWanted(st.Phase)
 	}
 	return st, nil
+}
+
+// isobarMeta solves X(T, p) = x at fixed p on root (Liquid or Vapor,
+// metastable allowed) for T in [lo, hi], where the root may end at a
+// spinodal temperature inside the interval: the end of the root's
+// temperatures is found by bisection from the usable end of the interval
+// (to the last floating-point temperature), and Newton's method in
+// (T, ρ) on the branch keep starts from the state there — next to a
+// spinodal X(T) at fixed p has an infinite slope and a state may lie
+// within a few ulps of T from its end, where (T, ρ) still resolves it —
+// then isobar searches between it and the interval's usable end.
+func isobarMeta(f *fluid.Fluid, p float64, X quantity, x, lo, hi float64, root fluid.Root, keep branch) (fluid.Props, bool) {
+	usable := func(T float64) bool {
+		_, err := f.PropsTP(T, p, root, 0)
+		return err == nil
+	}
+	// lastUsable bisects between the usable good and the unusable bad to
+	// the last floating-point temperature on good's side.
+	lastUsable := func(good, bad float64) float64 {
+		for i := 0; i < 80; i++ {
+			m := 0.5 * (good + bad)
+			if m == good || m == bad {
+				break
+			}
+			if usable(m) {
+				good = m
+			} else {
+				bad = m
+			}
+		}
+		return good
+	}
+	edge := 0.0
+	switch ua, ub := usable(lo), usable(hi); {
+	case ua && ub:
+	case ub:
+		lo = lastUsable(hi, lo)
+		edge = lo
+	case ua:
+		hi = lastUsable(lo, hi)
+		edge = hi
+	default:
+		return fluid.Props{}, false
+	}
+	if edge > 0 {
+		if pe, err := f.PropsTP(edge, p, root, 0); err == nil {
+			if pr, ok := newton2(f, qP, p, X, x, pe.T, pe.Rho, keep, &pe); ok {
+				return pr, true
+			}
+		}
+	}
+	pr, ok, _, _ := isobar(f, p, X, x, lo, hi, root)
+	return pr, ok
 }
 
 // extrapolate returns a starting (T, ρ) for X = x at the pressure of the

@@ -1,6 +1,7 @@
 package flash
 
 import (
+	"errors"
 	"math"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
@@ -116,8 +117,10 @@ func placeLV(n *satNodes, hd, sd float64) tiePlace {
 			return tiePlace{kind: tieNone}
 		}
 	}
-	// The first node with φ ≥ 0 in (0, top]: φ rises on [0, il].
-	a, b := 0, top
+	// The first node with φ ≥ 0 in (0, top]: φ rises on [0, il]. With
+	// φ(0) = 0 exactly ((h, s) on the tie line of the first node, the
+	// triple point's, and s at its liquid's) the interval is the first.
+	a, b := 0, max(top, 1)
 	for b-a > 1 {
 		m := (a + b) / 2
 		if phi(m) < 0 {
@@ -127,7 +130,10 @@ func placeLV(n *satNodes, hd, sd float64) tiePlace {
 		}
 	}
 	fa, fb := phi(a), phi(b)
-	t := fa / (fa - fb)
+	t := 0.0
+	if fa != fb {
+		t = fa / (fa - fb)
+	}
 	sl := lerp(n.liq[a].S, n.liq[b].S, t)
 	sv := lerp(n.vap[a].S, n.vap[b].S, t)
 	x := 0.5
@@ -319,6 +325,9 @@ func (k *call) hsDirect(h, s float64) (st State, err error, done bool, beyond er
 		}
 	}
 	st, err, done = k.hsFluid(sn, h, s, hd, sd, anchor, second, side)
+	if !done && err != nil && beyond == nil {
+		beyond = err
+	}
 	return st, err, done, beyond
 }
 
@@ -365,6 +374,12 @@ func (k *call) hsFluidCheck(sn *satNodes, pr *fluid.Props) (State, error, bool) 
 	st, err := k.finish(pr)
 	if err == errSolid {
 		return State{}, nil, false
+	}
+	if errors.Is(err, fluid.ErrOutOfRange) {
+		// Outside the models (water colder than the melting curve of a
+		// high-pressure ice): (h, s) may have another state, in them,
+		// which the search finds; the error stands if it does not.
+		return State{}, err, false
 	}
 	if err != nil {
 		return State{}, err, true
@@ -449,6 +464,10 @@ func hsNewton(f *fluid.Fluid, h, s, T, rho float64, sd side, first *fluid.Props)
 	lim := f.Limits()
 	br := onBranch(f, sd, lim.TFloor, lim.TCeil)
 	tolH, tolS := qH.tol(f, nil, h), qS.tol(f, nil, s)
+	// A start extrapolated beyond the accepted range (a state at the
+	// temperature ceiling) starts at its edge, as the iterates do.
+	T = min(max(T, lim.TFloor), lim.TCeil)
+	rho = min(rho, lim.RhoCeil)
 	var prev fluid.Props
 	havePrev := false
 	w := watch{best: math.Inf(1)}
@@ -520,18 +539,61 @@ func (k *call) hsSat(n *satNodes, h, s float64, lv *tiePlace) (fluid.Saturation,
 	return k.hsSatBracket(n, h, s, lv)
 }
 
-// hsSatNewton is the Newton iteration of hsSat. The tolerances are those
+// hsSatNewton is the Newton iteration of hsSat (lvMixNewton with the
+// condition h − T s = g′).
+func hsSatNewton(f *fluid.Fluid, h, s, T, rl, rv, Ta, Tb float64) (fluid.Saturation, bool) {
+	return lvMixNewton(f, mixCond{a: h, b: s}, T, rl, rv, Ta, Tb)
+}
+
+// lvResidual returns the condition's residual for a liquid–vapour
+// mixture of the saturated phases l and v at their T, in units of RT, and
+// its derivatives in T (at fixed densities), ln ρ′ and ln ρ″:
+//
+//	HS: F = (h − T s − g′)/RT,  ∂g′/∂T = −s′ + (∂p/∂T)_ρ′/ρ′,
+//	    ∂g′/∂ln ρ′ = (∂p/∂ρ)_T′;
+//	DU: F = (u_mix − u)/RT, u_mix = u′ + x (u″ − u′),
+//	    x = (v − v′)/(v″ − v′), ∂x/∂ln ρ′ = (1 − x) v′/(v″ − v′),
+//	    ∂x/∂ln ρ″ = x v″/(v″ − v′), ∂u/∂T = cv,
+//	    ∂u/∂ln ρ = (p − T(∂p/∂T)_ρ)/ρ.
+func (m *mixCond) lvResidual(l, v *fluid.Props, rt float64) (F, dT, dl, dv float64) {
+	T := l.T
+	if !m.du {
+		h, s := m.a, m.b
+		return (h - T*s - l.G) / rt, (-s + l.S - l.DpDT/l.Rho) / rt, -l.DpDrho / rt, 0
+	}
+	vm, u := m.a, m.b
+	vl, vv := 1/l.Rho, 1/v.Rho
+	x := (vm - vl) / (vv - vl)
+	du := v.U - l.U
+	F = (l.U + x*du - u) / rt
+	dT = ((1-x)*l.Cv + x*v.Cv) / rt
+	dl = ((1-x)*(l.P-T*l.DpDT)/l.Rho + du*(1-x)*vl/(vv-vl)) / rt
+	dv = (x*(v.P-T*v.DpDT)/v.Rho + du*x*vv/(vv-vl)) / rt
+	return F, dT, dl, dv
+}
+
+// lvMixNewton solves the liquid–vapour mixture with the condition m (h
+// and s, or specific volume and u) by Newton's method in
+// (T, ln ρ′, ln ρ″) on
+//
+//	F1 = (p′ − p″)/(ρr R T),  F2 = (g′ − g″)/(RT),  F3 = m's residual
+//
+// (ρr the reducing density), from (T, ρ′, ρ″). The tolerances are those
 // of fluid.SaturationAtT for F1 and F2 (the rounding level of the
 // equation: 1e-14(δ′τ⁴ + |P|) and 1e-14τ⁴ in reduced units) and 1/100 of
-// the backward-residual floor of h for F3. The root lies between the
-// nodes' temperatures Ta and Tb: an iterate that leaves that interval by
-// its width, or 16 iterations, end the attempt (where (h, s) lies beside
-// the dome there may be no root at all).
-func hsSatNewton(f *fluid.Fluid, h, s, T, rl, rv, Ta, Tb float64) (fluid.Saturation, bool) {
+// the backward-residual floor of h or u for F3. Within a millikelvin of
+// Tc, where the equation fixes the saturated densities only loosely
+// (fluid.SaturationAtT: rounding leaves F1 and F2 above their
+// tolerances in a band of densities), a point of that band is accepted
+// once F3 meets its tolerance with F1 and F2 within 100 times theirs.
+// The root lies between Ta and Tb: an iterate that leaves that interval
+// by its width, or 16 iterations, end the attempt (where the inputs lie
+// beside the dome there may be no root at all).
+func lvMixNewton(f *fluid.Fluid, m mixCond, T, rl, rv, Ta, Tb float64) (fluid.Saturation, bool) {
 	Tr, rhor := f.Reducing()
 	R := f.GasConstant()
 	c := f.Critical()
-	tolH := qH.tol(f, nil, h)
+	tol3 := m.tol(f)
 	yl, yv := math.Log(rl), math.Log(rv)
 	var l, v fluid.Props
 	good := false
@@ -560,10 +622,16 @@ func hsSatNewton(f *fluid.Fluid, h, s, T, rl, rv, Ta, Tb float64) (fluid.Saturat
 		P := v.P / (rhor * rt)
 		F1 := (l.P - v.P) / (rhor * rt)
 		F2 := (l.G - v.G) / rt
-		F3 := (h - T*s - l.G) / rt
-		res := max(math.Abs(F1)/(1e-14*(l.Rho/rhor*t4+math.Abs(P))), math.Abs(F2)/(1e-14*t4), math.Abs(F3)*rt/tolH)
+		F3, a31, a32, a33 := m.lvResidual(&l, &v, rt)
+		res12 := max(math.Abs(F1)/(1e-14*(l.Rho/rhor*t4+math.Abs(P))), math.Abs(F2)/(1e-14*t4))
+		res := max(res12, math.Abs(F3)*rt/tol3)
+		near := c.T-T < 1e-3
+		if near && res12 <= 100 && math.Abs(F3)*rt <= tol3 {
+			converged = true
+			break
+		}
 		if w.check(res, lastStep) {
-			if res > 5 && !(math.Abs(F3)*rt <= 100*tolH && res <= 100) {
+			if res > 5 && !(math.Abs(F3)*rt <= 100*tol3 && res <= 100) {
 				return fluid.Saturation{}, false
 			}
 			converged = true
@@ -572,12 +640,17 @@ func hsSatNewton(f *fluid.Fluid, h, s, T, rl, rv, Ta, Tb float64) (fluid.Saturat
 		// Rows: ∂/∂T at fixed ρ, ∂/∂ln ρ′, ∂/∂ln ρ″.
 		a11, a12, a13 := (l.DpDT-v.DpDT)/(rhor*rt), l.Rho*l.DpDrho/(rhor*rt), -v.Rho*v.DpDrho/(rhor*rt)
 		a21, a22, a23 := (-l.S+l.DpDT/l.Rho+v.S-v.DpDT/v.Rho)/rt, l.DpDrho/rt, -v.DpDrho/rt
-		a31, a32 := (-s+l.S-l.DpDT/l.Rho)/rt, -l.DpDrho/rt
-		// Solve J d = −F with a33 = 0, by Cramer's rule.
-		det := a11*(a22*0-a23*a32) - a12*(a21*0-a23*a31) + a13*(a21*a32-a22*a31)
+		// Solve J d = −F by Cramer's rule.
+		det := a11*(a22*a33-a23*a32) - a12*(a21*a33-a23*a31) + a13*(a21*a32-a22*a31)
 		b1, b2, b3 := -F1, -F2, -F3
-		dT := (b1*(a22*0-a23*a32) - a12*(b2*0-a23*b3) + a13*(b2*a32-a22*b3)) / det
-		dl := (a11*(b2*0-a23*b3) - b1*(a21*0-a23*a31) + a13*(a21*b3-b2*a31)) / det
+		if near && res12 <= 10 {
+			// F1 and F2 at the equation's rounding noise: a step along
+			// the coexistence curve for F3 alone, which does not chase
+			// that noise.
+			b1, b2 = 0, 0
+		}
+		dT := (b1*(a22*a33-a23*a32) - a12*(b2*a33-a23*b3) + a13*(b2*a32-a22*b3)) / det
+		dl := (a11*(b2*a33-a23*b3) - b1*(a21*a33-a23*a31) + a13*(a21*b3-b2*a31)) / det
 		dv := (a11*(a22*b3-b2*a32) - a12*(a21*b3-b2*a31) + b1*(a21*a32-a22*a31)) / det
 		if !isFinite(dT) || !isFinite(dl) || !isFinite(dv) {
 			return fluid.Saturation{}, false
@@ -812,7 +885,7 @@ func (k *call) hsSolid(h, s, hd, sd float64) (st State, err error, ok bool, beyo
 	if !good {
 		return State{}, nil, false, nil
 	}
-	ok, why := k.solidAt(sp.T, sp.P)
+	ok, why := k.solidAt(&sp)
 	switch {
 	case ok:
 		st, err := k.wantedState(solidState(&sp))
@@ -823,13 +896,18 @@ func (k *call) hsSolid(h, s, hd, sd float64) (st State, err error, ok bool, beyo
 	return State{}, nil, false, nil
 }
 
-// solidAt reports whether the solid at (T, p) is a state of the model:
-// placed solid by the node tables (placePT), or between their bounds by
-// the Gibbs energies of the solid and the fluid (on a curve, within
-// gibbsTol, it coexists with the fluid and counts as solid). why explains
-// a (T, p) outside the models (above the solid's pressure limit, where
-// placePT's Solid means other ices, or below the vapour floor).
-func (k *call) solidAt(T, p float64) (ok bool, why string) {
+// solidAt reports whether the solid sp is a state of the model: placed
+// solid by the node tables (placePT), or between their bounds by the
+// Gibbs energies of the solid and the fluid (on a curve, within gibbsTol,
+// it coexists with the fluid and counts as solid). why explains a (T, p)
+// outside the models (above the solid's pressure limit, where placePT's
+// Solid means other ices, or below the vapour floor). Below the vapour
+// floor a solid whose pressure lies below the sublimation pressure at
+// the floor by no more than the inputs fix it is moved up to that
+// pressure first (atFloorP).
+func (k *call) solidAt(sp *sublimation.Props) (ok bool, why string) {
+	k.atFloorP(sp)
+	T, p := sp.T, sp.P
 	if p > k.sol.n.solidPMax()*(1+1e-12) {
 		return false, k.beyondWhy(p)
 	}
@@ -844,6 +922,36 @@ func (k *call) solidAt(T, p float64) (ok bool, why string) {
 		return false, why
 	}
 	return false, ""
+}
+
+// atFloorP moves the solid sp onto the edge of the model's states where
+// its pressure lies beyond that edge by no more than the inputs fix it:
+// up to the sublimation pressure at the vapour floor (the lowest pressure
+// at which a solid is told from vapour below the floor), and down to the
+// model's pressure limit (the end of its melting curve). A solid's p at
+// given (ρ, u) or (h, s) is fixed only to the backward-residual floors of
+// DESIGN.md, 1e-10·ρ in ρ and 1e-10·max(|h|, R·Tc) in h — ice at 0.16 Pa
+// only to about 1 Pa, since its volume changes by κ_T ≈ 1.2e-10 per Pa,
+// and at 208.566 MPa to about 0.03 Pa. The moved state reproduces the
+// inputs within those floors.
+func (k *call) atFloorP(sp *sublimation.Props) {
+	n := k.sol.n
+	R := k.f.GasConstant()
+	Tc, _ := k.f.Reducing()
+	band := 1e-10*sp.P + 1e-12*sp.Rho*R*sp.T + 1e-10/sp.KappaT +
+		1e-10*max(math.Abs(sp.H), R*Tc)*sp.Rho
+	edge := 0.0
+	switch pm, pM := n.subPMin(), n.solidPMax(); {
+	case sp.T < n.subTMin() && sp.P < pm && pm-sp.P <= band:
+		edge = pm
+	case sp.P > pM && sp.P-pM <= band:
+		edge = pM
+	default:
+		return
+	}
+	if q, err := k.sol.s.Props(sp.T, edge); err == nil {
+		*sp = q
+	}
 }
 
 // solidNewton solves the solid's quantities a and b (solidQ: h, s, u,
@@ -890,12 +998,16 @@ func (k *call) solidNewton(a quantity, xa float64, b quantity, xb float64, T, p 
 		if x := math.Abs(dT); x > 0.25*T {
 			sc = 0.25 * T / x
 		}
+		dT, dp = sc*dT, sc*dp
 		if dp < 0 && -dp > 0.9*p {
-			sc = min(sc, 0.9*p/-dp)
+			// At low pressure v and u hardly depend on p, and a step
+			// toward p ≤ 0 is limited on its own (a scale on both would
+			// stall T, which u fixes).
+			dp = -0.9 * p
 		}
-		lastStep = sc * max(math.Abs(dT)/T, math.Abs(dp)/max(p, 1))
-		T = min(max(T+sc*dT, tlo), lim.TCeil)
-		p = min(max(p+sc*dp, pmin), lim.PCeil)
+		lastStep = max(math.Abs(dT)/T, math.Abs(dp)/max(p, 1))
+		T = min(max(T+dT, tlo), lim.TCeil)
+		p = min(max(p+dp, pmin), lim.PCeil)
 	}
 	return sublimation.Props{}, false
 }

@@ -78,6 +78,11 @@ type curveNodes struct {
 func (n *curveNodes) subTMin() float64 { return n.subT[0] }
 func (n *curveNodes) subPMin() float64 { return n.subP[0] }
 
+// belowSubPMin reports whether p lies below the sublimation pressure at the
+// vapour floor by more than its precision, 1e-10 relative (the curve's
+// pressure there, solved on different paths, differs by rounding).
+func (n *curveNodes) belowSubPMin(p float64) bool { return p < n.subP[0]*(1-1e-10) }
+
 // solidPMax is the highest pressure of a solid state of the model: the
 // end of its melting curve. meltEndT is the melting temperature there.
 func (n *curveNodes) solidPMax() float64 { return n.meltP[len(n.meltP)-1] }
@@ -88,6 +93,23 @@ var (
 	co2Nodes   = sync.OnceValue(func() *curveNodes { return buildNodes("CO2") })
 	waterNodes = sync.OnceValue(func() *curveNodes { return buildNodes("water") })
 )
+
+// lvTriplePressure holds, for each registered fluid without a solid
+// model, its equation's own vapour pressure at the triple-point
+// temperature, in Pa, computed once.
+var lvTriplePressure = sync.OnceValue(func() map[string]float64 {
+	m := map[string]float64{}
+	for _, name := range fluid.Names() {
+		f, err := fluid.Lookup(name)
+		if err != nil || f.Triple().RhoSolid > 0 {
+			continue
+		}
+		if s, err := f.SaturationAtT(f.Triple().T); err == nil {
+			m[name] = s.P
+		}
+	}
+	return m
+})
 
 func nodesFor(f *fluid.Fluid) *curveNodes {
 	switch f.Name() {
@@ -214,6 +236,7 @@ type solidSide struct {
 	s      sublimation.Solid
 	n      *curveNodes
 	tt, pt float64 // the fluid's stored triple point (every fluid)
+	ptLine float64 // the centre of the triple line in p (pt, or the models' own)
 	tp     sublimation.ThreePhase
 	haveTP bool
 }
@@ -221,8 +244,16 @@ type solidSide struct {
 func (b *solidSide) init(f *fluid.Fluid) {
 	t := f.Triple()
 	b.tt, b.pt = t.T, t.P
+	b.ptLine = b.pt
 	if t.RhoSolid <= 0 {
-		return // no solid model: sublimation.For would only say so
+		// No solid model (sublimation.For would only say so): the
+		// liquid–vapour states end where the equation's own vapour
+		// pressure curve does, at Tt, whatever the published triple-point
+		// pressure Triple().P (R-134a: 389.5638 Pa against 389.6 Pa).
+		if p, ok := lvTriplePressure()[f.Name()]; ok {
+			b.pt, b.ptLine = p, p
+		}
+		return
 	}
 	n := nodesFor(f)
 	if n == nil || n.err != nil {
@@ -233,6 +264,10 @@ func (b *solidSide) init(f *fluid.Fluid) {
 		return
 	}
 	b.ok, b.s, b.n = true, s, n
+	// The triple line in p is centred on the models' own triple-point
+	// pressure, which the states on it carry; the stored constant agrees
+	// with it to within the line's tolerance (about 7e-11).
+	b.ptLine = n.pt
 }
 
 // anomalous reports whether the melting temperature falls with pressure
@@ -241,10 +276,12 @@ func (b *solidSide) anomalous() bool { return b.ok && !b.n.meltRising }
 
 // onTripleT and onTripleP report whether T or p lies on the triple line;
 // belowTripleT and belowTripleP whether it lies below it.
-func (k *call) onTripleT(T float64) bool    { return math.Abs(T-k.sol.tt) <= tripleTolT*k.sol.tt }
-func (k *call) onTripleP(p float64) bool    { return math.Abs(p-k.sol.pt) <= tripleTolP*k.sol.pt }
+func (k *call) onTripleT(T float64) bool { return math.Abs(T-k.sol.tt) <= tripleTolT*k.sol.tt }
+func (k *call) onTripleP(p float64) bool {
+	return math.Abs(p-k.sol.ptLine) <= tripleTolP*k.sol.ptLine
+}
 func (k *call) belowTripleT(T float64) bool { return T < k.sol.tt*(1-tripleTolT) }
-func (k *call) belowTripleP(p float64) bool { return p < k.sol.pt*(1-tripleTolP) }
+func (k *call) belowTripleP(p float64) bool { return p < k.sol.ptLine*(1-tripleTolP) }
 
 // verdict is the outcome of placing a fluid state against the solid.
 type verdict int8
@@ -279,7 +316,7 @@ func (k *call) versus(pr *fluid.Props) (verdict, string) {
 			// curve is not known: see doc.go).
 			return vFluid, ""
 		}
-		if p > n.solidPMax() {
+		if p > n.solidPMax()*(1+1e-12) { // (its end, to rounding)
 			return vBeyond, beyondCO2
 		}
 		lo, hi := n.meltPBounds(T)
@@ -445,7 +482,7 @@ func (k *call) freezeT(p float64) (T float64, floor bool) {
 	n := b.n
 	switch {
 	case p < n.pt:
-		if p < n.subPMin() {
+		if n.belowSubPMin(p) {
 			return lim.TFloor, true
 		}
 		lo, _ := n.subTBounds(p)

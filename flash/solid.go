@@ -111,6 +111,7 @@ func (k *call) coexistState(c *sublimation.Coexistence, vapour bool, xf float64)
 	}
 	if xf >= 1 {
 		st := single(fp, fph)
+		st.P = c.P // the curve's (see twoPhase)
 		st.Flags |= Saturated
 		return st
 	}

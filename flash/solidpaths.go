@@ -106,7 +106,7 @@ func (k *call) placePT(T, p float64) (placement, fluid.Root, string) {
 		// above the sublimation pressure at the floor, which is above
 		// the sublimation pressure at T.
 		switch {
-		case p < n.subPMin():
+		case n.belowSubPMin(p):
 			return placeBeyond, 0, belowFloor
 		case p > n.solidPMax():
 			return placeBeyond, 0, k.beyondWhy(p)
@@ -261,7 +261,7 @@ func (k *call) isobarSolid(p float64, X quantity, x float64) (State, error) {
 		st.Flags |= Indeterminate
 		return k.wantedState(st)
 	case p < n.pt:
-		if p < n.subPMin() {
+		if n.belowSubPMin(p) {
 			// The vapour down to the vapour floor; the solid is below it.
 			k.decide(lim.TFloor)
 			return k.isobaric(p, X, x)
@@ -406,6 +406,9 @@ func (k *call) tripleVolumes(tp *sublimation.ThreePhase, v float64) (State, bool
 	vs, vl, vv := 1/tp.Solid.Rho, 1/tp.Liquid.Rho, 1/tp.Vapor.Rho
 	var st State
 	switch {
+	case v >= vl && v < vv && vs > vl:
+		// (Water: the saturated liquid itself at v = v′.)
+		fallthrough
 	case v > vl && v < vv:
 		s := tripleSaturation(tp)
 		st = twoPhase(k.f, &s, (v-vl)/(vv-vl))
@@ -579,6 +582,13 @@ func (k *call) duSolid(rho, u float64) (State, error) {
 		if err != nil {
 			return State{}, k.rewrap(err)
 		}
+		// A fraction at the rounding level of the sum is none: the state
+		// lies on an edge of the three-phase triangle (a two-phase state
+		// at the triple point).
+		xs, xl, xv = dropRounding(xs), dropRounding(xl), dropRounding(xv)
+		if sum := xs + xl + xv; sum > 0 {
+			xs, xl, xv = xs/sum, xl/sum, xv/sum
+		}
 		return k.wantedState(k.tripleState(tp, xs, xl, xv))
 	case u < lo:
 		if st, err, done := k.duHighIce(tp, rho, u); done {
@@ -636,6 +646,17 @@ func (k *call) duSolid(rho, u float64) (State, error) {
 	return k.isochoric(rho, qU, u)
 }
 
+// dropRounding returns 0 for a mass fraction below 1e-15, the rounding
+// of fractions solved from sums of order 1 (a larger one matters: a
+// vapour fraction of 1e-12 changes the density of liquid water at its
+// triple point by 2e-7).
+func dropRounding(x float64) float64 {
+	if x < 1e-15 {
+		return 0
+	}
+	return x
+}
+
 // duHighIce is DU below the triple point on a dense isochore of water
 // that is above the end of ice Ih's melting curve (208.566 MPa) at the
 // triple-point temperature: colder, it stays liquid until it meets the
@@ -649,12 +670,16 @@ func (k *call) duHighIce(tp *sublimation.ThreePhase, rho, u float64) (st State, 
 	if !k.sol.anomalous() || rho <= tp.Liquid.Rho {
 		return State{}, nil, false
 	}
+	// (Above 208.566 MPa by more than rounding, as highIceT: at that
+	// pressure itself ice Ih and its melting curve end, which the ice Ih
+	// paths place.)
+	pHi := n.highPLo * (1 + 1e-9)
 	top, ok := props(k.f, tp.T, rho)
-	if !ok || !(top.P > n.highPLo) {
+	if !ok || !(top.P > pHi) {
 		return State{}, nil, false
 	}
 	pr, ok := newton1(k.f, qU, u, tp.T, rho, true, k.f.Limits().TFloor, tp.T)
-	if !ok || !(pr.P > n.highPLo) {
+	if !ok || !(pr.P > pHi) {
 		return State{}, nil, false
 	}
 	k.decide(0)
@@ -709,7 +734,9 @@ func (k *call) isochoreRoot(rho, u, a, b float64, below bool) (State, error) {
 	if err != nil {
 		return State{}, err
 	}
-	if math.Abs(sa.U-u) <= tol {
+	if math.Abs(sa.U-u) <= tol || sa.U > u && sa.U-u <= qU.floor(k.f, nil, u) {
+		// (At the lowest temperature, u within its backward-residual
+		// floor of the state there: that state, at the end of the models.)
 		return k.wantedState(sa)
 	}
 	if sa.U > u {
@@ -838,10 +865,16 @@ func (k *call) pdSolid(p, rho float64) (State, error) {
 		if st, ok := k.tripleVolumes(tp, v); ok {
 			return k.wantedState(st)
 		}
+		if k.sol.anomalous() && v < 1/tp.Liquid.Rho {
+			// Water denser than its liquid at the triple point: the
+			// liquid above Tt, below its density maximum.
+			k.decide(tp.T)
+			return k.pd(p, rho)
+		}
 		c = sublimation.Coexistence{T: tp.T, P: tp.P, Solid: tp.Solid, Fluid: tp.Vapor}
 		vapour = true
 	case p < n.pt:
-		if p < n.subPMin() {
+		if n.belowSubPMin(p) {
 			k.decide(lim.TFloor)
 			return k.pd(p, rho)
 		}

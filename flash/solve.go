@@ -376,6 +376,21 @@ func isobar(f *fluid.Fluid, p float64, X quantity, x, lo, hi float64, root fluid
 	if !okc {
 		return pr, false, false, false
 	}
+	// Next to the critical point X(T) is so steep (cp grows without
+	// bound) that the bracket's tolerance in T leaves X beyond its floor:
+	// a few Newton steps with (∂X/∂T)_p, kept in the bracket.
+	for i := 0; i < 4 && math.Abs(X.of(&pr)-x) > X.tol(f, &pr, x); i++ {
+		d := dXdT(X, &pr)
+		Tn := pr.T - (X.of(&pr)-x)/d
+		if !(d > 0) || !(Tn >= lo && Tn <= hi) || Tn == pr.T {
+			break
+		}
+		pn, okn := eval(Tn)
+		if !okn || math.Abs(X.of(&pn)-x) >= math.Abs(X.of(&pr)-x) {
+			break
+		}
+		pr = pn
+	}
 	return pr, math.Abs(X.of(&pr)-x) <= X.floor(f, &pr, x), false, false
 }
 

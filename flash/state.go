@@ -95,7 +95,13 @@ type State struct {
 // the flash returns an error wrapping fluid.ErrOutOfRange, unless
 // AllowMetastable is set and a metastable state of that phase exists
 // (up to the spinodal; a fluid phase, also against the solid): then it is
-// returned, flagged Metastable.
+// returned, flagged Metastable. Next to the spinodal the inverse problems
+// are ill-conditioned ((∂p/∂ρ)_T → 0, and h and s grow without bound in
+// their slope along an isobar); they are solved in (T, ρ), which still
+// resolves them there (tested to 1e-6 of the way from the saturated phase
+// to the spinodal). At the spinodal itself, where (∂p/∂ρ)_T = 0, the root
+// is double, and a flash other than DT may refuse it with
+// fluid.ErrUnstable.
 type Options struct {
 	Guess           *State
 	Phase           Phase

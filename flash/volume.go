@@ -76,7 +76,7 @@ func (k *call) clearVapour(rho, T float64) bool {
 // density (its compression factor is below 1).
 func (k *call) clearVapourP(p, rho float64) bool {
 	n := k.sol.n
-	if p < n.subPMin() {
+	if n.belowSubPMin(p) {
 		return true
 	}
 	_, hi := n.subTBounds(p)
@@ -181,11 +181,16 @@ func qualityOf(rho float64, s *fluid.Saturation) (float64, bool) {
 }
 
 // satT returns the saturation at T, started from the cached curve, else
-// from the guess.
+// from the guess. On the triple line below the stored triple-point
+// temperature (within tripleTolT, the precision of that constant) it is
+// the saturation at the triple point.
 func (k *call) satT(T float64) (fluid.Saturation, error) {
+	if T < k.sol.tt && k.onTripleT(T) {
+		T = k.sol.tt
+	}
 	s, ok, err := k.satFromCacheT(T)
 	if !ok {
-		if gT, rl, rv, okg := k.guessSat(); okg && math.Abs(gT-T) < 0.1*T {
+		if gT, rl, rv, okg := k.guessSat(); okg && math.Abs(gT-T) < 1e-2*T {
 			s, err = k.f.SaturationAtTFrom(T, rl, rv)
 		} else {
 			s, err = k.f.SaturationAtT(T)
@@ -217,6 +222,16 @@ func (k *call) satT(T float64) (fluid.Saturation, error) {
 // their mixture cv), and for dense CO2 above the triple point along the
 // melting curve. A vessel cooled or vented through the triple point thus
 // passes through Triple states and continues as solid–vapour.
+//
+// Within a millikelvin of Tc the equation fixes the saturated densities
+// only to about 3e-5 relative (fluid.SaturationAtT), and the mixture's u
+// computed from the saturation at each T scatters by more than the
+// backward-residual floor between neighbouring temperatures: there the
+// mixture is solved within that band (Newton's method on the phases'
+// equilibrium and u together), so that ρ and u are still reproduced to
+// the floors of DESIGN.md with the phases in equilibrium to 1e-12·RT; a
+// state within the band of a saturated density may come back as that
+// single phase instead of a mixture with a vanishing fraction.
 //
 // Special cases are:
 //
@@ -314,6 +329,26 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	}
 	// A single phase first.
 	pr, ok := newton1(f, X, x, T0, rho, true, lim.TFloor, lim.TCeil)
+	if !ok && meta {
+		// A metastable phase lies in a narrow band of the isochore below
+		// its crossing with the saturated phase, between it and the
+		// spinodal, which a start from far off steps over: from the
+		// crossing, downward.
+		var buf [4]fluid.SatEstimate
+		for _, e := range f.SaturationEstimatesAtRho(rho, buf[:0]) {
+			top := e.T + e.Err.T
+			if pr, ok = newton1(f, X, x, top, rho, true, lim.TFloor, top); ok {
+				break
+			}
+		}
+		if !ok {
+			// Where the isochore's usable states come in separate
+			// pieces (supercooled water, whose liquid isochores reach
+			// negative pressures as T rises below its density maximum):
+			// a scan for the piece that holds x.
+			pr, ok = isochoreScan(f, X, x, rho, lim.TFloor, c.T)
+		}
+	}
 	if ok && want != TwoPhase && pr.T < k.sol.tt {
 		// A fluid below the triple point, or a metastable vapour there
 		// with the equilibrium state elsewhere on the isochore.
@@ -345,10 +380,10 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	var sat fluid.Saturation
 	var sp fluid.Props
 	inside := false
-	var gl, gv float64 // warm starts of the saturation
-	if gT, rl, rv, okg := k.guessSat(); okg {
-		gl, gv = rl, rv
-		T0 = gT
+	var gT, gl, gv float64 // warm starts of the saturation
+	if T, rl, rv, okg := k.guessSat(); okg {
+		gT, gl, gv = T, rl, rv
+		T0 = T
 	} else if ok && pr.T > k.sol.tt && pr.T < c.T {
 		T0 = pr.T
 	} else {
@@ -377,16 +412,20 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 		}
 		var s fluid.Saturation
 		var err error
-		if gl > 0 {
+		if gl > 0 && math.Abs(T-gT) <= 1e-3*T {
 			s, err = f.SaturationAtTFrom(T, gl, gv)
 		} else {
-			s, err = f.SaturationAtT(T)
+			// A warm start from far along the curve can lead Newton's
+			// method to a spurious solution (water from its triple
+			// point's densities at 617 K: p 20 % low): the cached curve,
+			// or a cold start.
+			s, err = k.satT(T)
 		}
 		if err != nil {
 			failed = err
 			return 0, 1
 		}
-		gl, gv = s.Liquid.Rho, s.Vapor.Rho
+		gT, gl, gv = T, s.Liquid.Rho, s.Vapor.Rho
 		sat = s
 		q, in := qualityOf(rho, &s)
 		inside = in
@@ -433,6 +472,11 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 		// Above Tc, where the single-phase attempt failed.
 		pr, ok := newton1(f, X, x, 1.1*c.T, rho, true, c.T, lim.TCeil)
 		if !ok {
+			if top, okt := props(f, lim.TCeil, rho); okt && x > X.of(&top) {
+				// X rises with T along the isochore: beyond its top.
+				return State{}, k.fail(fluid.ErrOutOfRange, "u above the isochore's "+fmtG(top.U)+
+					" J/kg at the accepted "+fmtG(lim.TCeil)+" K")
+			}
 			return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
 		}
 		return k.wanted(k.finish(&pr))
@@ -457,9 +501,13 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 			// T is fixed to rounding. Within a millikelvin of Tc the
 			// equation fixes the saturated densities only loosely
 			// (fluid.SaturationAtT), and the mixture's u jumps between
-			// neighbouring temperatures by more than the floor: the
-			// state is then as determined as the equation allows.
-			converged = math.Abs(r) <= X.floor(f, ref, x) || inside && c.T-T < 1e-3
+			// neighbouring temperatures by more than the floor: there
+			// the state is solved within that band (nearCritDU).
+			if math.Abs(r) <= X.floor(f, ref, x) {
+				converged = true
+			} else if c.T-T < 1e-3 {
+				return k.nearCritDU(rho, x, T, &sat, inside)
+			}
 			break
 		}
 		if r > 0 {
@@ -488,6 +536,123 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 		return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 	}
 	return k.wanted(k.finish(&sp))
+}
+
+// isochoreScan solves X(T, ρ) = x along the isochore rho for T in
+// [lo, hi] where its usable single-phase states (mechanically stable, at
+// positive pressure) come in pieces: a scan of 64 temperatures, each
+// piece's ends between the scan's points found by bisection, for the
+// piece whose X brackets x, then newton1 in it; where that finds none,
+// scans of 512 and 4096 (supercooled water's usable pieces can be
+// 4 K wide, and 0.4 K where its cv turns negative below 233 K). It
+// is the last resort of a metastable request.
+func isochoreScan(f *fluid.Fluid, X quantity, x, rho, lo, hi float64) (fluid.Props, bool) {
+	usable := func(T float64) (float64, bool) {
+		pr, ok := props(f, T, rho)
+		if !ok || !(pr.P > 0) {
+			return 0, false
+		}
+		return X.of(&pr) - x, true
+	}
+	// edge returns the end of the piece between a usable a and an
+	// unusable b, and X − x there.
+	edge := func(a, b float64) (float64, float64) {
+		ra, _ := usable(a)
+		for j := 0; j < 60 && math.Abs(b-a) > 1e-13*b; j++ {
+			m := 0.5 * (a + b)
+			if r, ok := usable(m); ok {
+				a, ra = m, r
+			} else {
+				b = m
+			}
+		}
+		return a, ra
+	}
+	solve := func(a, b float64) (fluid.Props, bool) {
+		return newton1(f, X, x, 0.5*(a+b), rho, true, min(a, b), max(a, b))
+	}
+	for _, n := range [...]int{64, 512, 4096} {
+		prevT, prevR, have := 0.0, 0.0, false
+		for i := 0; i <= n; i++ {
+			T := lo + (hi-lo)*float64(i)/float64(n)
+			r, ok := usable(T)
+			switch {
+			case ok && have && (r >= 0) != (prevR >= 0):
+				return solve(prevT, T)
+			case ok && !have && i > 0:
+				// A piece begins between the last point and T.
+				if a, ra := edge(T, T-(hi-lo)/float64(n)); (ra >= 0) != (r >= 0) {
+					return solve(a, T)
+				}
+			case !ok && have:
+				// The piece ends between the last point and T.
+				if b, rb := edge(prevT, T); (rb >= 0) != (prevR >= 0) {
+					return solve(prevT, b)
+				}
+			}
+			prevT, prevR, have = T, r, ok
+		}
+	}
+	return fluid.Props{}, false
+}
+
+// nearCritDU finishes DU within a millikelvin of Tc, where the
+// iteration along the isochore has fixed T to rounding without meeting
+// u: there the equation fixes the saturated densities only to about
+// 3e-5 relative (fluid.SaturationAtT), and the mixture's u, computed
+// from the saturation at each T, scatters between neighbouring
+// temperatures by more than the backward-residual floor. The state is
+// solved within that band instead: the mixture of the saturated phases
+// by Newton's method in (T, ln ρ′, ln ρ″) with u_mix = u (lvMixNewton),
+// or the single phase at (T, ρ) with u(T) = u where ρ lies outside the
+// saturated densities at T, or inside them by less than the band; the
+// side of the saturation sat at T (inside) is tried first.
+func (k *call) nearCritDU(rho, u, T float64, sat *fluid.Saturation, inside bool) (State, error) {
+	f := k.f
+	c := f.Critical()
+	mixture := func() (State, bool) {
+		if sat.T == 0 {
+			return State{}, false
+		}
+		s, ok := lvMixNewton(f, mixCond{du: true, a: 1 / rho, b: u}, T, sat.Liquid.Rho, sat.Vapor.Rho, c.T-2e-3, c.T)
+		if !ok {
+			return State{}, false
+		}
+		q, in := qualityOf(rho, &s)
+		if !in || math.Abs(twoPhase(f, &s, q).U-u) > qU.floor(f, nil, u) {
+			return State{}, false
+		}
+		st, err := k.finishSat(&s, q)
+		return st, err == nil
+	}
+	single := func() (State, bool) {
+		pr, ok := newton1(f, qU, u, T, rho, true, T*(1-1e-6), min(T*(1+1e-6), c.T))
+		if !ok || pr.T >= c.T {
+			return State{}, false
+		}
+		if s, err := f.SaturationAtT(pr.T); err == nil {
+			const band = 3e-5
+			if rho < s.Liquid.Rho*(1-band) && rho > s.Vapor.Rho*(1+band) {
+				return State{}, false // inside the dome beyond the band
+			}
+		}
+		st, err := k.finish(&pr)
+		if err != nil || !satisfies(k.opt.Phase, st.Phase) {
+			return State{}, false
+		}
+		return st, true
+	}
+	first, second := single, mixture
+	if inside {
+		first, second = mixture, single
+	}
+	if st, ok := first(); ok {
+		return st, nil
+	}
+	if st, ok := second(); ok {
+		return st, nil
+	}
+	return State{}, k.fail(fluid.ErrNoConvergence, "the iteration along the isochore did not converge")
 }
 
 // belowTriple finishes a single-phase state below the triple-point
@@ -560,6 +725,12 @@ func (k *call) pd(p, rho float64) (State, error) {
 	f := k.f
 	c := f.Critical()
 	lim := f.Limits()
+	switch {
+	case p > lim.PCeil:
+		return State{}, k.fail(fluid.ErrOutOfRange, "p exceeds the accepted "+fmtG(lim.PCeil)+" Pa")
+	case rho > lim.RhoCeil:
+		return State{}, k.fail(fluid.ErrOutOfRange, "rho exceeds the accepted "+fmtG(lim.RhoCeil)+" kg/m3")
+	}
 	tlo, thi := lim.TFloor, lim.TCeil
 	T0 := p / (rho * f.GasConstant())
 	if p >= c.P {
@@ -575,18 +746,20 @@ func (k *call) pd(p, rho float64) (State, error) {
 	if cached {
 		pl = placeTRho(&e, rho)
 	}
+	tsat := 0.0 // the saturation temperature, where ρ is denser than the saturated liquid
 	switch {
 	case pl == cacheLiquid:
 		// Denser than the saturated liquid by the cached curve: below
 		// its T, from it along the isobar by its expansivity.
 		thi, T0 = e.T+e.Err.T, e.T
+		tsat = e.T - e.Err.T
 		if b := e.Liquid.Expansivity; b > 0 {
 			T0 = e.T - math.Log(rho/e.Liquid.Rho)/b
 		}
 	case pl == cacheVapor:
 		tlo = e.T - e.Err.T
 		T0 = max(e.T, p/(rho*f.GasConstant()*e.Vapor.Z))
-	case p < c.P && p >= k.sol.pt:
+	case p < c.P && !k.belowTripleP(p):
 		s, err := k.satP(p)
 		if err == nil {
 			if q, in := qualityOf(rho, &s); in {
@@ -594,6 +767,7 @@ func (k *call) pd(p, rho float64) (State, error) {
 			}
 			if rho >= s.Liquid.Rho {
 				thi, T0 = s.T, s.T*(1-1e-9)
+				tsat = s.T
 			} else {
 				// The vapour, from the saturated vapour's Z.
 				tlo = s.T
@@ -609,6 +783,20 @@ func (k *call) pd(p, rho float64) (State, error) {
 		T0 = g.T
 	}
 	pr, ok := solve1(f, qP, p, min(max(T0, tlo), thi), rho, true, tlo, thi)
+	if !ok && tsat > 0 && k.sol.anomalous() {
+		// Water denser than its saturated liquid at p near its density
+		// maximum lies above the saturation temperature, not below: the
+		// solution of lowest temperature there.
+		pr, ok = solve1(f, qP, p, tsat, rho, true, tsat, min(1.1*tsat, c.T))
+	}
+	if !ok && p > c.P*(1-1e-3) && p <= c.P*(1+1e-3) {
+		// Next to the critical point, where the equation fixes the
+		// saturated densities only loosely (fluid.SaturationAtT) and its
+		// isotherms are nearly flat, (p, ρ) just outside the saturated
+		// densities may lie on either side of the saturation
+		// temperature: the single phase within a few millikelvin of Tc.
+		pr, ok = solve1(f, qP, p, c.T, rho, true, max(c.T-5e-3, tlo), min(c.T+5e-3, lim.TCeil))
+	}
 	if !ok {
 		if k.sol.ok && !k.decided && Tf > lim.TFloor {
 			// The solution may lie where the fluid freezes: the solid paths decide.

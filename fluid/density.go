@@ -128,6 +128,13 @@ func (f *Fluid) PropsTP(T, p float64, root Root, rhoGuess float64) (Props, error
 	}
 	pr := f.props(T, rho)
 	pr.Flags |= fl
+	if c := f.limits.PCeil; pr.P > c && pr.P-p <= 1e-10*p+1e-12*pr.Rho*f.r*T {
+		// p within the ceiling, reproduced at the root to rounding (the
+		// backward-residual floor of DESIGN.md), which lands above it.
+		chk := pr
+		chk.P = c
+		return pr, f.checkProps("fluid.PropsTP", &chk)
+	}
 	return pr, f.checkProps("fluid.PropsTP", &pr)
 }
 
@@ -155,7 +162,7 @@ func (f *Fluid) StableRoot(T, p float64) (root Root, flags Flags, err error) {
 	if T >= f.triple.T {
 		if s, ok := f.satT(tau); ok {
 			ps := s.pi()
-			if math.Abs(pi-ps) <= 4e-16*ps {
+			if onVapourCurve(pi, ps, tau) {
 				return RootLiquid, Indeterminate, nil
 			}
 			if pi > ps {
@@ -171,6 +178,17 @@ func (f *Fluid) StableRoot(T, p float64) (root Root, flags Flags, err error) {
 		return RootLiquid, 0, nil
 	}
 	return rootOf(f.stableBranch(&it, T, pi, branchVapor, d, &r)), 0, nil
+}
+
+// onVapourCurve reports whether the reduced pressure pi lies on the
+// vapour-pressure curve at ps to rounding: within the precision to which
+// the saturation fixes ps, satTolG(τ)·ps (equal Gibbs energies to
+// satTolG in units of RT put p on the curve to that fraction, since
+// d(g′ − g″) = (v′ − v″) dp and p v″ ≈ RT), so that a vapour pressure
+// computed on one path (the cached curve, a warm start) is on the curve
+// for every other.
+func onVapourCurve(pi, ps, tau float64) bool {
+	return math.Abs(pi-ps) <= satTolG(tau)*ps
 }
 
 func rootOf(b branch) Root {
@@ -257,12 +275,25 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 				b = branchLiquid
 			}
 			var fl Flags
-			if math.Abs(pi-ps) <= 4e-16*ps {
+			if onVapourCurve(pi, ps, tau) {
 				// On the vapour-pressure curve to rounding: the inputs
 				// do not fix the phase.
 				fl = Indeterminate
 			}
 			d, _, st := f.solveDelta(&it, pi, b, g)
+			if st != rootFound && (fl != 0 || f.crit.T-T < critBand) {
+				// Within a millikelvin of Tc the saturation pressure is
+				// the near-critical model's (SaturationAtT), which may lie
+				// a rounding beyond the spinodal of the branch it picks:
+				// the other branch, as on the curve either phase is.
+				o := branchLiquid
+				if b == branchLiquid {
+					o = branchVapor
+				}
+				if d2, _, st2 := f.solveDelta(&it, pi, o, 0); st2 == rootFound {
+					return f.rootResult(op, T, p, d2, st2, o, fl)
+				}
+			}
 			return f.rootResult(op, T, p, d, st, b, fl)
 		}
 	}
@@ -455,6 +486,30 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64) (float
 		if stable {
 			step := -res / dP
 			if math.Abs(step) <= rhoStepTol*x {
+				if math.Abs(res) > 1e-6*math.Abs(pi)+1e-10*x {
+					// A root that double precision cannot resolve: far
+					// below Tc the nonanalytic terms of IAPWS-95 make
+					// p(ρ) rise by 1e25 Pa per kg/m³ next to ρc, where p
+					// jumps by orders of magnitude between neighbouring
+					// densities. Not a state of the fluid.
+					if b == branchVapor {
+						return x, r, rootBeyondSpinodal
+					}
+					return x, r, rootNoConvergence
+				}
+				if math.Abs(res) > 1e-13*x {
+					// A dense liquid's p scatters by about 1e-13·ρRT
+					// between neighbouring densities: the last step, or
+					// the next density toward it, where that is closer.
+					xn := x + step
+					if xn == x {
+						xn = math.Nextafter(x, x+math.Copysign(1, step))
+					}
+					rn := it.eval(xn)
+					if math.Abs(xn*(1+xn*rn.D)-pi) < math.Abs(res) {
+						return xn, rn, rootFound
+					}
+				}
 				return x, r, rootFound
 			}
 			xn := x + step
@@ -488,8 +543,15 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64) (float
 		return x, r, rootAboveCeil
 	}
 	if hi-lo <= 4e-16*hi {
-		// The bracket closed on the root at rounding level.
+		// The bracket closed on the root at rounding level: the end
+		// whose p is closer (a dense liquid's scatters by 1e-13·ρRT).
 		r = it.eval(hi)
+		if lo > 0 {
+			rl := it.eval(lo)
+			if math.Abs(lo*(1+lo*rl.D)-pi) < math.Abs(hi*(1+hi*r.D)-pi) && 1+2*lo*rl.D+lo*lo*rl.DD > 0 {
+				return lo, rl, rootFound
+			}
+		}
 		return hi, r, rootFound
 	}
 	return x, r, rootNoConvergence

@@ -220,6 +220,9 @@ func (s Solid) MeltingTemperatureFrom(p, T0, rhoL float64) (Coexistence, error) 
 // end points.
 func (s Solid) curveInput(op, name string, x float64, unit string) (fluid.Input, *curveEnds, error) {
 	in := fluid.Input{Name: name, Value: x, Unit: unit}
+	if s.d == nil {
+		return in, nil, s.zero(op, in)
+	}
 	if !finite(x) || x <= 0 {
 		return in, nil, fluid.NewError(op, fluid.ErrInvalidInput, name+" must be finite and positive", in)
 	}
@@ -235,6 +238,9 @@ func (s Solid) curveInput(op, name string, x float64, unit string) (fluid.Input,
 // Gibbs energy. It is computed once per model (it does not depend on the
 // reference state) and agrees with the constants of fluid.Fluid.Triple.
 func (s Solid) Triple() (ThreePhase, error) {
+	if s.d == nil {
+		return ThreePhase{}, s.zero("sublimation.Solid.Triple")
+	}
 	e := s.ends()
 	if e.err != nil {
 		return ThreePhase{}, e.err
@@ -318,6 +324,9 @@ func (tp ThreePhase) fractions(op string, rho, e float64, name, unit string, es,
 // charts. The error wraps fluid.ErrInvalidInput for n < 2 or n > 100000.
 func (s Solid) SublimationCurve(n int) ([]Coexistence, error) {
 	const op = "sublimation.Solid.SublimationCurve"
+	if s.d == nil {
+		return nil, s.zero(op, fluid.Input{Name: "n", Value: float64(n)})
+	}
 	if n < 2 || n > maxCurve {
 		return nil, fluid.NewError(op, fluid.ErrInvalidInput, "need 2 <= n <= 100000",
 			fluid.Input{Name: "n", Value: float64(n)})
@@ -349,6 +358,9 @@ func (s Solid) SublimationCurve(n int) ([]Coexistence, error) {
 // n > 100000.
 func (s Solid) MeltingCurve(n int) ([]Coexistence, error) {
 	const op = "sublimation.Solid.MeltingCurve"
+	if s.d == nil {
+		return nil, s.zero(op, fluid.Input{Name: "n", Value: float64(n)})
+	}
 	if n < 2 || n > maxCurve {
 		return nil, fluid.NewError(op, fluid.ErrInvalidInput, "need 2 <= n <= 100000",
 			fluid.Input{Name: "n", Value: float64(n)})
@@ -496,6 +508,11 @@ func (s Solid) coexistAtP(op string, p, T0, rho0, maxStep float64) (Coexistence,
 		}
 		if math.Abs(dT) <= tolStep*T && math.Abs(dy) <= tolStep {
 			c := s.coexistence(T, fp)
+			if math.Abs(fp.P-p) <= 1e-12*p {
+				// At the given pressure itself: the fluid's own p at the
+				// converged density differs from it by rounding.
+				c.P = p
+			}
 			return c, nil
 		}
 		if lim := 0.05 * T; math.Abs(dT) > lim {
@@ -511,8 +528,11 @@ func (s Solid) coexistAtP(op string, p, T0, rho0, maxStep float64) (Coexistence,
 			if T == floor {
 				// The root lies at the floor to within rounding, or
 				// below it: settle it at the floor.
+				// (To 1e-10 in p, the backward-residual bound of a
+				// state on the curve: the curve's pressure at the floor
+				// from different solves differs by rounding.)
 				c, err := s.coexistAtT(op, floor, rho, maxStep)
-				if err == nil && math.Abs(c.P/p-1) <= 1e-8 {
+				if err == nil && math.Abs(c.P/p-1) <= 1e-10 {
 					return c, nil
 				}
 				return Coexistence{}, fluid.NewError(op, fluid.ErrOutOfRange,

@@ -128,3 +128,45 @@ func TestErrorCatalogue(t *testing.T) {
 		t.Errorf("only %d cases", len(cs))
 	}
 }
+
+// TestZeroSolid: the zero Solid (not obtained from For) panicked with a
+// nil pointer in every method (the failure report of the reliability
+// sweep, item F). Each method that returns an error must return one
+// wrapping fluid.ErrInvalidInput that says how to get a Solid, naming
+// the operation and its input; the others must return their zero values
+// (NaN for Derivs).
+func TestZeroSolid(t *testing.T) {
+	t.Parallel()
+	var z sublimation.Solid
+	in := errcheck.In
+	var cs []errcheck.Case
+	add := func(op string, inputs []fluid.Input, call func() error) {
+		cs = append(cs, errcheck.Case{Name: "zero Solid " + op, Op: "sublimation.Solid." + op, Want: fluid.ErrInvalidInput,
+			Mention: "sublimation.For", Inputs: inputs, Call: call})
+	}
+	Tp := []fluid.Input{in("T", 250, "K"), in("p", 1e5, "Pa")}
+	add("Props", Tp, func() error { _, err := z.Props(250, 1e5); return err })
+	add("SublimationPressure", []fluid.Input{in("T", 250, "K")}, func() error { _, err := z.SublimationPressure(250); return err })
+	add("SublimationPressure", []fluid.Input{in("T", 250, "K")}, func() error { _, err := z.SublimationPressureFrom(250, 1); return err })
+	add("SublimationTemperature", []fluid.Input{in("p", 100, "Pa")}, func() error { _, err := z.SublimationTemperature(100); return err })
+	add("SublimationTemperature", []fluid.Input{in("p", 100, "Pa")}, func() error { _, err := z.SublimationTemperatureFrom(100, 250, 1); return err })
+	add("MeltingPressure", []fluid.Input{in("T", 250, "K")}, func() error { _, err := z.MeltingPressure(250); return err })
+	add("MeltingPressure", []fluid.Input{in("T", 250, "K")}, func() error { _, err := z.MeltingPressureFrom(250, 1000); return err })
+	add("MeltingTemperature", []fluid.Input{in("p", 1e7, "Pa")}, func() error { _, err := z.MeltingTemperature(1e7); return err })
+	add("MeltingTemperature", []fluid.Input{in("p", 1e7, "Pa")}, func() error { _, err := z.MeltingTemperatureFrom(1e7, 250, 1000); return err })
+	add("Triple", nil, func() error { _, err := z.Triple(); return err })
+	add("SublimationCurve", []fluid.Input{in("n", 10, "")}, func() error { _, err := z.SublimationCurve(10); return err })
+	add("MeltingCurve", []fluid.Input{in("n", 10, "")}, func() error { _, err := z.MeltingCurve(10); return err })
+	add("HighIceMeltingPressure", []fluid.Input{in("T", 300, "K")}, func() error { _, err := z.HighIceMeltingPressure(300); return err })
+	add("HighIceMeltingTemperature", []fluid.Input{in("p", 1e9, "Pa")}, func() error { _, err := z.HighIceMeltingTemperature(1e9); return err })
+	errcheck.Run(t, cs, nil)
+	if z.Name() != "" || z.Fluid() != nil || z.Limits() != (sublimation.Limits{}) {
+		t.Errorf("zero Solid: Name %q, Fluid %v, Limits %+v", z.Name(), z.Fluid(), z.Limits())
+	}
+	if a, b, c, d := z.HighIceRange(); a != 0 || b != 0 || c != 0 || d != 0 {
+		t.Errorf("zero Solid: HighIceRange %v %v %v %v", a, b, c, d)
+	}
+	if g := z.Derivs(250, 1e5); !math.IsNaN(g.G) || !math.IsNaN(g.GPP) {
+		t.Errorf("zero Solid: Derivs %+v", g)
+	}
+}

@@ -122,6 +122,9 @@ type IceMelting struct {
 // ice VII curve of IAPWS R14-08). It returns zeros for dry ice, whose
 // model has no other solid phase in its range.
 func (s Solid) HighIceRange() (tLo, tHi, pLo, pHi float64) {
+	if s.d == nil {
+		return 0, 0, 0, 0
+	}
 	c := s.d.high
 	if len(c) == 0 {
 		return 0, 0, 0, 0
@@ -194,6 +197,9 @@ func (s Solid) HighIceMeltingTemperature(p float64) (IceMelting, error) {
 // highInput checks the input of the high-pressure ice curves: finite
 // and positive, a model with such ices, and within [lo, hi].
 func (s Solid) highInput(op string, in fluid.Input, lo, hi float64) error {
+	if s.d == nil {
+		return s.zero(op, in)
+	}
 	if !finite(in.Value) || in.Value <= 0 {
 		return fluid.NewError(op, fluid.ErrInvalidInput, in.Name+" must be finite and positive", in)
 	}

@@ -61,7 +61,10 @@ type solidData struct {
 // Solid is the solid phase of a fluid: a Gibbs-energy model g(T, p) with
 // the fluid's reference-state offsets, and the fluid it coexists with. It
 // is a small value, cheap to copy, immutable and safe for concurrent use;
-// obtain one from For. Its zero value is not usable.
+// obtain one from For. The zero Solid is not a model: its methods that
+// return an error return one wrapping fluid.ErrInvalidInput ("zero Solid;
+// obtain one from sublimation.For"), Name returns "", Limits and
+// HighIceRange zeros, and Derivs NaN; none panics.
 type Solid struct {
 	f      *fluid.Fluid
 	d      *solidData
@@ -95,14 +98,33 @@ func For(f *fluid.Fluid) (Solid, error) {
 	return Solid{f: f, d: d, dh: dh, ds: ds}, nil
 }
 
-// Name names the solid phase, e.g. "ice Ih" or "dry ice".
-func (s Solid) Name() string { return s.d.name }
+// Name names the solid phase, e.g. "ice Ih" or "dry ice"; "" for the
+// zero Solid.
+func (s Solid) Name() string {
+	if s.d == nil {
+		return ""
+	}
+	return s.d.name
+}
 
-// Fluid returns the fluid whose solid phase s is.
+// Fluid returns the fluid whose solid phase s is (nil for the zero Solid).
 func (s Solid) Fluid() *fluid.Fluid { return s.f }
 
-// Limits returns the range of the solid model.
-func (s Solid) Limits() Limits { return s.d.limits }
+// Limits returns the range of the solid model (zero for the zero Solid).
+func (s Solid) Limits() Limits {
+	if s.d == nil {
+		return Limits{}
+	}
+	return s.d.limits
+}
+
+// zero returns the error of operation op for the zero Solid (not
+// obtained from For), wrapping fluid.ErrInvalidInput. Every method that
+// returns an error starts with a test of s.d, so that a zero Solid never
+// panics (and the test allocates nothing).
+func (s Solid) zero(op string, in ...fluid.Input) error {
+	return fluid.NewError(op, fluid.ErrInvalidInput, "zero Solid; obtain one from sublimation.For", in...)
+}
 
 // Props are the properties of a solid phase at one (T, p), in SI units.
 type Props struct {
@@ -130,7 +152,12 @@ type Props struct {
 // Derivs returns g(T, p) and its derivatives, with the reference-state
 // offsets of s's fluid (G gains Δh − TΔs, GT gains −Δs), without range
 // checks. It is for tripoint's solvers, which build Jacobians from it.
+// For the zero Solid every derivative is NaN.
 func (s Solid) Derivs(T, p float64) Gibbs {
+	if s.d == nil {
+		nan := math.NaN()
+		return Gibbs{nan, nan, nan, nan, nan, nan}
+	}
 	g := s.d.m.gibbs(T, p)
 	g.G += s.dh - T*s.ds
 	g.GT -= s.ds
@@ -156,6 +183,10 @@ func (s Solid) Derivs(T, p float64) Gibbs {
 //
 // Props allocates nothing unless it returns an error.
 func (s Solid) Props(T, p float64) (Props, error) {
+	if s.d == nil {
+		return Props{}, s.zero("sublimation.Solid.Props", fluid.Input{Name: "T", Value: T, Unit: "K"},
+			fluid.Input{Name: "p", Value: p, Unit: "Pa"})
+	}
 	if err := s.check("sublimation.Solid.Props", T, p); err != nil {
 		return Props{}, err
 	}

@@ -264,7 +264,9 @@ func fluidJacobian(op string, f *fluid.Fluid, st *flash.State, ph flash.Phase) (
 		// a little inside its own spinodal is taken as it is.)
 		return Jacobian{}, rewrap(op, st, err)
 	}
-	j := Jacobian{phase: ph, t: pr.T, p: pr.P, v: 1 / pr.Rho, s: pr.S}
+	// p is the state's own (a flash at given p keeps it: flash.PT), which
+	// differs from the equation's at (T, ρ) by rounding only.
+	j := Jacobian{phase: ph, t: pr.T, p: st.P, v: 1 / pr.Rho, s: pr.S}
 	j.dT = row{x: 1}
 	j.dv = row{y: 1}
 	j.dp = row{x: pr.DpDT, y: -pr.Rho * pr.Rho * pr.DpDrho}

@@ -35,8 +35,9 @@
 // that applies — PH, PS, DU, HS, DT, TS, PD, and PT, TQ, PQ where they
 // fix the state — is run from the state's own values and judged by the
 // same bounds and by its phase. The consistency checks follow: for each
-// fluid phase, fourth-order central differences of fluid.Props against
-// its analytic derivatives (the Maxwell relation (∂s/∂ρ)_T =
+// fluid phase, fourth-order differences of fluid.Props (with steps h and
+// h/2, Richardson-extrapolated: next to a spinodal a fixed step is too
+// coarse) against its analytic derivatives (the Maxwell relation (∂s/∂ρ)_T =
 // −(∂p/∂T)_ρ/ρ², the energy equation (∂u/∂ρ)_T = (p − T(∂p/∂T)_ρ)/ρ²,
 // cv = (∂u/∂T)_ρ, (∂p/∂ρ)_T) and the identity cp − cv = T v β²/κ_T; for
 // each solid phase the Maxwell relation (∂s/∂p)_T = −(∂v/∂T)_p and

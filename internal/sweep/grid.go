@@ -335,7 +335,11 @@ func (s *setup) metastableGrid(out []tcase, m float64) []tcase {
 		share = 0.7
 	}
 	nT := max(int(m*share/float64(2*nx)), 4)
-	xs := linspace(0, 1, nx-4)[1:]
+	// Up to 1e-6 of the gap from the spinodal, not on it: at the
+	// spinodal itself (∂p/∂ρ)_T = 0, and the inverse flashes have a
+	// double root there (flash: metastable states up to the spinodal,
+	// which is refused with ErrUnstable).
+	xs := linspace(0, 1, nx-4)[1 : nx-5]
 	xs = append(xs, 1-1e-2, 1-1e-3, 1-1e-4, 1-1e-6, 1e-4)
 	for _, T := range linspace(tp.T, c.T-0.1, nT) {
 		sat, err := s.f.SaturationAtT(T)

@@ -168,15 +168,28 @@ func (s *setup) judgePT(p, T float64, c *tcase) verdict {
 	return verdict{must: mustRefuse}
 }
 
-// satBand returns the relative band around a saturated density within
-// which DT may return either side: 1e-9, or 3e-5 within 1 mK of Tc,
-// where the equation fixes the saturated densities only that loosely
-// (fluid.SaturationAtT).
-func (s *setup) satBand(T float64) float64 {
+// satBand returns the relative band around the saturated density of the
+// phase sp (at saturation pressure p) within which DT may return either
+// side: 1e-9, or 1e-4 within 1 mK of Tc, where the equation fixes the
+// saturated densities only to about 3e-5 (fluid.SaturationAtT) and the
+// flashes' saturations from T and from p, and at temperatures 0.04 nK
+// apart, differ by that much (CO2 at Tc − 1.4 µK: ρ′ 468.7191 from T,
+// 468.7077 from p, 468.7251 at 3.5e-11 K above), so that a state 2e-5
+// from ρ′ may be placed on either side; and at
+// least the band in which the phase's own pressure stays within 1e-12·p
+// of p, p/(ρ(∂p/∂ρ)_T)·1e-12, since the flashes place a state against the
+// vapour pressure to 1e-14·p (fluid.StableRoot) and the saturation fixes
+// that pressure to about the same: next to the critical point, where
+// (∂p/∂ρ)_T vanishes, that band widens smoothly into the millikelvin's.
+func (s *setup) satBand(T float64, sp *fluid.Props, p float64) float64 {
+	b := 1e-9
 	if s.crit.T-T < 1e-3 {
-		return 3e-5
+		b = 1e-4
 	}
-	return 1e-9
+	if k := sp.Rho * sp.DpDrho; k > 0 {
+		b = max(b, 1e-12*p/k)
+	}
+	return b
 }
 
 // judgeDT judges DT(ρ, T) of a fluid state from fluid.Props and the
@@ -207,28 +220,42 @@ func (s *setup) judgeDT(rho, T float64, c *tcase) verdict {
 	if serr != nil {
 		return verdict{must: mayRefuse}
 	}
-	b := s.satBand(T)
+	bl, bv := s.satBand(T, &sat.Liquid, sat.P), s.satBand(T, &sat.Vapor, sat.P)
 	rl, rv := sat.Liquid.Rho, sat.Vapor.Rho
+	// Every phase that a condition allows: the single phase of a side
+	// beyond its band, the mixture between the bands, either within a
+	// band (next to Tc the bands of both sides may meet).
 	var want phaseSet
-	switch {
-	case rho > rl*(1+b):
-		want = phases(flash.Liquid)
-	case rho >= rl*(1-b):
-		want = phases(flash.Liquid, flash.TwoPhase)
-	case rho > rv*(1+b):
-		want = phases(flash.TwoPhase)
-	case rho >= rv*(1-b):
-		want = phases(flash.Vapor, flash.TwoPhase)
-	default:
-		want = phases(flash.Vapor)
+	if rho > rl*(1+bl) {
+		want |= phases(flash.Liquid)
 	}
-	if s.hasSolid && want.has(flash.Liquid) && rho > rl*(1+b) {
+	if rho < rv*(1-bv) {
+		want |= phases(flash.Vapor)
+	}
+	if rho < rl*(1-bl) && rho > rv*(1+bv) {
+		want |= phases(flash.TwoPhase)
+	}
+	if math.Abs(rho-rl) <= bl*rl {
+		want |= phases(flash.Liquid, flash.TwoPhase)
+	}
+	if math.Abs(rho-rv) <= bv*rv {
+		want |= phases(flash.Vapor, flash.TwoPhase)
+	}
+	if s.hasSolid && want.has(flash.Liquid) && rho > rl*(1+bl) {
 		// A dense liquid may lie beyond the melting curve.
 		want |= phases(flash.Solid, flash.SolidLiquid)
 	}
 	v := verdict{must: mustState, want: want, fluid: true}
 	if err != nil && !errors.Is(err, fluid.ErrUnstable) && rho > rl {
 		// A liquid isochore so dense that the equation gives p > PCeil.
+		v.must = mayRefuse
+	}
+	if s.hasSolid && pr.P > s.meltPMax*(1-1e-9) && rho > rl {
+		// Beyond the end of the solid model's melting curve (water above
+		// 208.566 MPa, colder than the melting curves of the
+		// high-pressure ices; dry ice above 800 MPa) the flashes may
+		// refuse, as for PT (package flash: "Solid regions and their
+		// limits"; DT's special cases).
 		v.must = mayRefuse
 	}
 	return v

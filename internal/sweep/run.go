@@ -90,9 +90,10 @@ var measureNames = [nMeasures]string{
 }
 
 // measureBounds: a value beyond is a failure. The difference checks are
-// fourth-order central differences with steps of 1e-3 of the variable:
-// truncation and rounding stay well below 1e-6 away from the critical
-// point (within 1e-3 of it in reduced (δ, τ) they are not made); the
+// fourth-order differences with steps of 1e-3 of the variable and half
+// that, Richardson-extrapolated (deriv): truncation and rounding stay well
+// below 1e-6 away from the critical point, next to the spinodals too
+// (within 1e-3 of it in reduced (δ, τ) they are not made); the
 // identity cp − cv is algebra in double precision (1e-12); Gibbs
 // equality: the saturation solver claims 1e-12 (its last millikelvin
 // below Tc included) and the solid curves a few 1e-12, so 1e-11; pressure
