@@ -329,13 +329,14 @@ func (k *call) hsDirect(h, s float64) (st State, err error, done bool, beyond er
 // Tc by the saturation pressure at its T.
 func (k *call) hsFluid(sn *satNodes, h, s, hd, sd float64, anchor, second *fluid.Props, sd2 side) (State, error, bool) {
 	f := k.f
-	T0, rho0 := extrapolateHS(anchor, hd, sd)
+	lim := f.Limits()
+	T0, rho0 := extrapolateHS(anchor, hd, sd, lim.TFloor, lim.TCeil)
 	var first *fluid.Props
 	var a, b fluid.Props
 	if second != nil {
 		// The start nearer in h and s; its evaluation is the first of
 		// the iteration's.
-		T1, rho1 := extrapolateHS(second, hd, sd)
+		T1, rho1 := extrapolateHS(second, hd, sd, lim.TFloor, lim.TCeil)
 		var oka, okb bool
 		a, oka = props(f, T0, rho0)
 		b, okb = props(f, T1, rho1)
@@ -409,14 +410,24 @@ func (k *call) lvStable(sn *satNodes, pr *fluid.Props) (stable, known bool) {
 }
 
 // extrapolateHS returns a start (T, ρ) for h and s (default reference)
-// from the anchor state a by one linear step in (T, ln ρ), bounded.
-func extrapolateHS(a *fluid.Props, hd, sd float64) (T, rho float64) {
+// from the anchor state a by one linear step in (T, ln ρ), bounded, and
+// shortened as a whole where it would leave the accepted temperatures
+// tlo..thi (a start at the limit with the density of the longer step
+// lies far from the state: R-134a at its ceiling of 455 K and 24 MPa).
+func extrapolateHS(a *fluid.Props, hd, sd, tlo, thi float64) (T, rho float64) {
 	dT, dy, ok := stepHS(a, hd-a.H, sd-a.S)
 	if !ok {
 		return a.T, a.Rho
 	}
 	dT = max(min(dT, 0.5*a.T), -0.3*a.T)
 	dy = max(min(dy, 3), -3)
+	if T := a.T + dT; (T > thi || T < tlo) && a.T >= tlo && a.T <= thi {
+		sc := (thi - a.T) / dT
+		if T < tlo {
+			sc = (tlo - a.T) / dT
+		}
+		dT, dy = sc*dT, sc*dy
+	}
 	return a.T + dT, a.Rho * math.Exp(dy)
 }
 
@@ -444,15 +455,20 @@ func solve2(a11, a12, a21, a22, b1, b2 float64) (x1, x2 float64, ok bool) {
 // unstable state or (below Tc) cross to the other side of ρc than the
 // branch sd. It converges to 1/100 of the backward-residual floors, or
 // to the floors where rounding stalls it. first, if not nil, is the
-// state already evaluated at the start.
+// state already evaluated at the start. A start outside the accepted
+// temperatures or above the accepted density is moved to their limit; an
+// iteration held at an end of the accepted temperatures and sent beyond
+// it by more than 1e-6·T three times in a row stops (the solution lies
+// beyond, as in newton2).
 func hsNewton(f *fluid.Fluid, h, s, T, rho float64, sd side, first *fluid.Props) (fluid.Props, bool) {
 	lim := f.Limits()
 	br := onBranch(f, sd, lim.TFloor, lim.TCeil)
 	tolH, tolS := qH.tol(f, nil, h), qS.tol(f, nil, s)
+	T, rho = min(max(T, lim.TFloor), lim.TCeil), min(rho, lim.RhoCeil)
 	var prev fluid.Props
 	havePrev := false
 	w := watch{best: math.Inf(1)}
-	backs := 0
+	backs, pinned := 0, 0
 	lastStep := math.Inf(1)
 	for it := 0; it < 60; it++ {
 		var pr fluid.Props
@@ -484,6 +500,13 @@ func hsNewton(f *fluid.Fluid, h, s, T, rho float64, sd side, first *fluid.Props)
 		}
 		if a := math.Abs(dy); a > 1 {
 			sc = min(sc, 1/a)
+		}
+		if T == lim.TCeil && dT > 1e-6*T || T == lim.TFloor && dT < -1e-6*T {
+			if pinned++; pinned >= 3 {
+				return pr, false
+			}
+		} else {
+			pinned = 0
 		}
 		prev, havePrev = pr, true
 		lastStep = sc * max(math.Abs(dT)/T, math.Abs(dy))
