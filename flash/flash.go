@@ -309,12 +309,14 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	if pl == placeFluid && root == fluid.RootStable && p <= f.Limits().PCeil {
 		// Below Tc the cached curve places (T, p) on a branch where p
 		// lies outside its bound of the vapour pressure.
-		if e, ok := f.SaturationEstimateAtT(T); ok && math.Abs(p-e.P) > e.Err.P {
-			liquid := p > e.P
-			// (At the pressure ceiling a root whose pressure rounds above
-			// it is left to fluid.PropsTP, which says so.)
-			if pr, ok := k.densityOn(T, p, &e, liquid, k.guessRho(root)); ok && pr.P <= f.Limits().PCeil {
-				return k.wanted(single(&pr, fluidPhase(f, T, p, pr.Rho)), nil)
+		if sp, ok := f.SaturationPointAtT(T); ok {
+			if ps, errP, _ := sp.Pressure(); math.Abs(p-ps) > errP {
+				// (At the pressure ceiling a root whose pressure rounds
+				// above it is left to fluid.PropsTP, which says so.)
+				pr, ok := k.densityOn(T, p, &sp, ps, p > ps, k.guessRho(root))
+				if ok && pr.P <= f.Limits().PCeil {
+					return k.wanted(single(&pr, fluidPhase(f, T, p, pr.Rho)), nil)
+				}
 			}
 		}
 	}
@@ -646,23 +648,25 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 	// curve where x lies outside its bounds.
 	var s fluid.Saturation
 	var err error
-	if e, ok := f.SaturationEstimateAtP(p); ok {
+	if sp, ok := f.SaturationPointAtP(p); ok {
+		Ts, errT := sp.Temperature()
 		if want != TwoPhase {
-			switch placeX(&e, X, x) {
+			switch placeX(&sp, X, x) {
 			case cacheVapor:
-				return k.isobarSingle(p, X, x, &e.Vapor, vaporSide, e.T-e.Err.T, lim.TCeil, false)
+				v := sp.Vapor()
+				return k.isobarSingle(p, X, x, &v, vaporSide, Ts-errT, lim.TCeil, false)
 			case cacheLiquid:
-				start := e.Liquid
+				start := sp.Liquid()
 				if X == qH || X == qS {
-					T0, _ := extrapolate(X, x, &e.Liquid, liquidSide, Tf, e.T)
+					T0, _ := extrapolate(X, x, &start, liquidSide, Tf, Ts)
 					if ls, ok := k.liquidStart(p, X, x, T0); ok {
 						start = ls
 					}
 				}
-				return k.isobarSingle(p, X, x, &start, liquidSide, Tf, e.T+e.Err.T, false)
+				return k.isobarSingle(p, X, x, &start, liquidSide, Tf, Ts+errT, false)
 			}
 		}
-		s, err = f.SaturationAtPFrom(p, e.T, e.Liquid.Rho, e.Vapor.Rho)
+		s, err = k.satFromPoint(&sp, p)
 	} else {
 		// Within a millikelvin of the critical point, or between the
 		// stored triple-point pressure and the equation's vapour

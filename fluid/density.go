@@ -122,8 +122,14 @@ func (f *Fluid) Density(T, p float64, root Root) (float64, error) {
 // Props(T, ρ) would give them. Special cases are those of Density and
 // Props.
 func (f *Fluid) PropsTP(T, p float64, root Root, rhoGuess float64) (Props, error) {
+	return f.propsTP("fluid.PropsTP", T, p, root, rhoGuess, true)
+}
+
+// propsTP is PropsTP (wantMeta: flag a root that is not the stable
+// phase Metastable) and PropsTPOnBranch, for the operation op.
+func (f *Fluid) propsTP(op string, T, p float64, root Root, rhoGuess float64, wantMeta bool) (Props, error) {
 	var fr fullRoot
-	rho, fl, err := f.densityTP("fluid.PropsTP", T, p, root, rhoGuess, true, &fr)
+	rho, fl, err := f.densityTP(op, T, p, root, rhoGuess, wantMeta, &fr)
 	if err != nil {
 		return Props{}, err
 	}
@@ -135,7 +141,19 @@ func (f *Fluid) PropsTP(T, p float64, root Root, rhoGuess float64) (Props, error
 		pr = f.props(T, rho)
 	}
 	pr.Flags |= fl
-	return pr, f.checkProps("fluid.PropsTP", &pr)
+	return pr, f.checkProps(op, &pr)
+}
+
+// PropsTPOnBranch is PropsTP on the liquid (root RootLiquid) or the
+// vapour (RootVapor) root, for a caller that has placed (T, p) against
+// the vapour pressure itself (package flash, by the cached saturation
+// curve): it does not judge which phase is stable there, so that it
+// solves no saturation and flags no state Metastable, and it costs the
+// root's Newton iterations alone (the last a full evaluation, see
+// PropsTP). With RootStable it is PropsTP. Special cases are those of
+// Density and Props.
+func (f *Fluid) PropsTPOnBranch(T, p float64, root Root, rhoGuess float64) (Props, error) {
+	return f.propsTP("fluid.PropsTPOnBranch", T, p, root, rhoGuess, root == RootStable)
 }
 
 // fullRoot receives the full evaluation of a root that solveDelta was
