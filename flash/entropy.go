@@ -235,7 +235,7 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 	if k.hsTriple(h, s) {
 		// On the triple line: PS at the triple-point pressure returns
 		// its documented choice, flagged Indeterminate.
-		st, err := PSWith(f, k.sol.tp.P, s, k.opt)
+		st, err := PSWith(f, k.sol.n.tp.P, s, k.opt)
 		if err == nil && math.Abs(st.H-h) <= qH.floor(f, nil, h) {
 			return st, nil
 		}

@@ -61,6 +61,19 @@ func (k *call) done(st State, err error) (State, error) {
 	return st, err
 }
 
+// doneTo is done for a flash whose state is st: it returns the error
+// done returns, and leaves st zero where that is not nil.
+func (k *call) doneTo(st *State, err error) error {
+	if err == nil {
+		return nil
+	}
+	*st = State{}
+	if err == errSolid {
+		return k.fail(fluid.ErrNoConvergence, "the solid-region iteration did not converge")
+	}
+	return err
+}
+
 func (k *call) fail(sentinel error, why string) error {
 	return fluid.NewError(k.op, sentinel, why, k.in[0], k.in[1])
 }
@@ -155,17 +168,17 @@ func (k *call) notWanted(got Phase) error {
 // or, where a metastable fluid was asked for, the state flagged
 // Metastable; exactly on a solid–fluid curve it is flagged Indeterminate
 // and Saturated.
-func (k *call) finish(pr *fluid.Props) (State, error) {
+func (k *call) finishTo(pr *fluid.Props, st *State) error {
 	if lim := k.f.Limits(); pr.P > lim.PCeil*(1+1e-9) {
-		return State{}, k.fail(fluid.ErrOutOfRange, "p = "+fmtG(pr.P)+" Pa exceeds the accepted "+
+		return k.fail(fluid.ErrOutOfRange, "p = "+fmtG(pr.P)+" Pa exceeds the accepted "+
 			fmtG(lim.PCeil)+" Pa of "+k.f.Name())
 	} else if !(pr.P > 0) {
-		return State{}, k.fail(fluid.ErrOutOfRange, "the equation gives p = "+fmtG(pr.P)+
+		return k.fail(fluid.ErrOutOfRange, "the equation gives p = "+fmtG(pr.P)+
 			" Pa there: no fluid state")
 	}
 	fl, err := k.highIce(pr)
 	if err != nil {
-		return State{}, err
+		return err
 	}
 	if !k.decided {
 		v, why := k.versus(pr)
@@ -175,18 +188,25 @@ func (k *call) finish(pr *fluid.Props) (State, error) {
 		case v == vSolid && k.metaFluid():
 			fl = Metastable
 		case v == vSolid:
-			return State{}, k.solidError(why)
+			return k.solidError(why)
 		case v == vBeyond:
 			// The fluid's pressure at a solid's density or entropy says
 			// nothing: the solid paths decide.
-			return State{}, errSolid
+			return errSolid
 		}
 	} else if k.fixedTlo > 0 && pr.T < k.fixedTlo*(1-1e-11) && !k.metaFluid() {
-		return State{}, errSolid
+		return errSolid
 	}
-	st := single(pr, fluidPhase(k.f, pr.T, pr.P, pr.Rho))
+	setSingle(st, pr, fluidPhase(k.f, pr.T, pr.P, pr.Rho))
 	st.Flags |= fl
-	return st, nil
+	return nil
+}
+
+// finish is finishTo, returning the state.
+func (k *call) finish(pr *fluid.Props) (State, error) {
+	var st State
+	err := k.finishTo(pr, &st)
+	return st, err
 }
 
 // stable reports whether a single-phase result pr on its branch is the
@@ -278,7 +298,7 @@ func PT(f *fluid.Fluid, p, T float64) (State, error) { return PTWith(f, p, T, Op
 // supersaturated CO2 vapour). opt.Phase Solid asks for a solid state. A
 // mixture (TwoPhase, SolidVapor, SolidLiquid, Triple) cannot be
 // requested: ErrInvalidInput.
-func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
+func PTWith(f *fluid.Fluid, p, T float64, opt Options) (st State, err error) {
 	var k call
 	if err := k.init(f, "flash.PT", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
 		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt, 3); err != nil {
@@ -292,7 +312,8 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	if k.sol.ok && k.onTripleT(T) && k.onTripleP(p) && k.opt.Phase != Solid && !meta {
 		// The triple point: the saturated liquid (without solid), as on
 		// the vapour-pressure curve.
-		tp, _ := k.triple()
+		tpv, _ := k.triple()
+		tp := &tpv
 		st := single(&tp.Liquid, Liquid)
 		st.Flags |= Indeterminate | Saturated
 		return k.wanted(st, nil)
@@ -315,18 +336,20 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 				// above it is left to fluid.PropsTP, which says so.)
 				pr, ok := k.densityOn(T, p, &sp, ps, p > ps, k.guessRho(root))
 				if ok && pr.P <= f.Limits().PCeil {
-					return k.wanted(single(&pr, fluidPhase(f, T, p, pr.Rho)), nil)
+					setSingle(&st, &pr, fluidPhase(f, T, p, pr.Rho))
+					err = k.wantedTo(&st)
+					return
 				}
 			}
 		}
 	}
-	pr, err := f.PropsTP(T, p, root, k.guessRho(root))
-	if err != nil {
+	pr, perr := f.PropsTP(T, p, root, k.guessRho(root))
+	if perr != nil {
 		if pl == placeNear && !meta {
 			// No fluid root beside the curve: the solid.
 			return k.done(k.ptSolid(p, T, pl, why, nil))
 		}
-		return State{}, k.rewrap(err)
+		return State{}, k.rewrap(perr)
 	}
 	if pr.Flags&Metastable != 0 && !k.opt.AllowMetastable {
 		ph := Liquid
@@ -338,14 +361,15 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	if pl == placeNear && !meta {
 		return k.done(k.ptSolid(p, T, pl, why, &pr))
 	}
-	st := single(&pr, fluidPhase(f, T, p, pr.Rho))
+	setSingle(&st, &pr, fluidPhase(f, T, p, pr.Rho))
 	if meta && (pl == placeSolid || pl == placeNear && k.byGibbs(&pr) == vSolid) {
 		st.Flags |= Metastable // against the solid
 	}
 	if st.Flags&Indeterminate != 0 {
 		st.Flags |= Saturated // on a coexistence curve
 	}
-	return k.wanted(st, nil)
+	err = k.wantedTo(&st)
+	return
 }
 
 // TQ returns the saturation state of f at temperature T in K and vapour
@@ -371,7 +395,7 @@ func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 func TQ(f *fluid.Fluid, T, q float64) (State, error) { return TQWith(f, T, q, Options{}) }
 
 // TQWith is TQ with a warm start from opt.Guess (a two-phase state).
-func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
+func TQWith(f *fluid.Fluid, T, q float64, opt Options) (st State, err error) {
 	var k call
 	if err := k.init(f, "flash.TQ", fluid.Input{Name: "T", Value: T, Unit: "K"},
 		fluid.Input{Name: "q", Value: q}, &opt, 1); err != nil {
@@ -393,7 +417,10 @@ func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
 	if err != nil {
 		return State{}, err
 	}
-	return k.finishSat(&s, q)
+	if err = k.finishSatTo(&s, q, &st); err != nil {
+		return State{}, err
+	}
+	return
 }
 
 // PQ returns the saturation state of f at pressure p in Pa and vapour
@@ -412,7 +439,7 @@ func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
 func PQ(f *fluid.Fluid, p, q float64) (State, error) { return PQWith(f, p, q, Options{}) }
 
 // PQWith is PQ with a warm start from opt.Guess (a two-phase state).
-func PQWith(f *fluid.Fluid, p, q float64, opt Options) (State, error) {
+func PQWith(f *fluid.Fluid, p, q float64, opt Options) (st State, err error) {
 	var k call
 	if err := k.init(f, "flash.PQ", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
 		fluid.Input{Name: "q", Value: q}, &opt, 1); err != nil {
@@ -434,7 +461,10 @@ func PQWith(f *fluid.Fluid, p, q float64, opt Options) (State, error) {
 		}
 		return State{}, err
 	}
-	return k.finishSat(&s, q)
+	if err = k.finishSatTo(&s, q, &st); err != nil {
+		return State{}, err
+	}
+	return
 }
 
 // satP returns the saturation at p, started from the cached curve, else
@@ -456,14 +486,23 @@ func (k *call) satP(p float64) (fluid.Saturation, error) {
 
 // finishSat builds the state of saturation s at quality q, with the
 // request checked and the triple point flagged.
-func (k *call) finishSat(s *fluid.Saturation, q float64) (State, error) {
-	st := twoPhase(k.f, s, q)
+func (k *call) finishSatTo(s *fluid.Saturation, q float64, st *State) error {
+	setTwoPhase(k.f, s, q, st)
 	if k.onTripleT(s.T) && q < 1 {
 		// On the triple line: the state without solid.
 		st.Flags |= Indeterminate
 	}
 	if !satisfies(k.opt.Phase, st.Phase) {
-		return State{}, k.notWanted(st.Phase)
+		return k.notWanted(st.Phase)
+	}
+	return nil
+}
+
+// finishSat is finishSatTo, returning the state.
+func (k *call) finishSat(s *fluid.Saturation, q float64) (State, error) {
+	var st State
+	if err := k.finishSatTo(s, q, &st); err != nil {
+		return State{}, err
 	}
 	return st, nil
 }
@@ -508,13 +547,14 @@ func PH(f *fluid.Fluid, p, h float64) (State, error) { return PHWith(f, p, h, Op
 
 // PHWith is PH with options (see Options): a warm start from opt.Guess,
 // a requested phase, and metastable states up to the spinodal.
-func PHWith(f *fluid.Fluid, p, h float64, opt Options) (State, error) {
+func PHWith(f *fluid.Fluid, p, h float64, opt Options) (st State, err error) {
 	var k call
 	if err := k.init(f, "flash.PH", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
 		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	return k.done(k.isobaricAll(p, qH, h))
+	err = k.doneTo(&st, k.isobaricAll(p, qH, h, &st))
+	return
 }
 
 // PS returns the state of f at pressure p in Pa and specific entropy s
@@ -522,13 +562,14 @@ func PHWith(f *fluid.Fluid, p, h float64, opt Options) (State, error) {
 func PS(f *fluid.Fluid, p, s float64) (State, error) { return PSWith(f, p, s, Options{}) }
 
 // PSWith is PS with options (see Options).
-func PSWith(f *fluid.Fluid, p, s float64, opt Options) (State, error) {
+func PSWith(f *fluid.Fluid, p, s float64, opt Options) (st State, err error) {
 	var k call
 	if err := k.init(f, "flash.PS", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
 		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	return k.done(k.isobaricAll(p, qS, s))
+	err = k.doneTo(&st, k.isobaricAll(p, qS, s, &st))
+	return
 }
 
 // dXdT returns (∂X/∂T)_p at pr: cp for h, cp/T for s.
@@ -563,38 +604,38 @@ func sideOf(liquid bool) side {
 
 // isobaricAll is PH (X = h) and PS (X = s): below and on the triple line
 // by the solid paths, above it the fluid first.
-func (k *call) isobaricAll(p float64, X quantity, x float64) (State, error) {
+func (k *call) isobaricAll(p float64, X quantity, x float64, st *State) error {
 	if k.sol.ok && (k.belowTripleP(p) || k.onTripleP(p)) {
 		if k.fluidGuess() && k.belowTripleP(p) {
 			// A vapour from a warm start, placed against the solid by
 			// finish, before the sublimation curve is solved for.
-			if st, ok := k.isobaricWarm(p, X, x); ok {
-				return st, nil
+			if k.isobaricWarm(p, X, x, st) {
+				return nil
 			}
 		}
-		return k.isobarSolid(p, X, x)
+		return k.isobarSolid(p, X, x, st)
 	}
-	if st, err, done := k.isobarMelt(p, X, x); done {
-		return st, err
+	if err, done := k.isobarMelt(p, X, x, st); done {
+		return err
 	}
-	st, err := k.isobaric(p, X, x)
+	err := k.isobaric(p, X, x, st)
 	if err == errSolid && !k.decided {
-		return k.isobarSolid(p, X, x)
+		return k.isobarSolid(p, X, x, st)
 	}
-	return st, err
+	return err
 }
 
 // isobaric is the fluid path of PH (X = h) and PS (X = s).
-func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
+func (k *call) isobaric(p float64, X quantity, x float64, st *State) error {
 	f := k.f
 	c := f.Critical()
 	lim := f.Limits()
 	if p > lim.PCeil {
-		return State{}, k.fail(fluid.ErrOutOfRange, "p exceeds the accepted "+fmtG(lim.PCeil)+" Pa")
+		return k.fail(fluid.ErrOutOfRange, "p exceeds the accepted "+fmtG(lim.PCeil)+" Pa")
 	}
 	want := k.opt.Phase
-	if st, ok := k.isobaricWarm(p, X, x); ok {
-		return st, nil
+	if k.isobaricWarm(p, X, x, st) {
+		return nil
 	}
 	// The lowest fluid temperature at p, a bound from the solid model's
 	// curve nodes (results are placed against the solid in finish).
@@ -608,7 +649,7 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 			root, T0, sd = fluid.RootVapor, Tf, vaporSide
 		} else if ls, ok := k.liquidStart(p, X, x, 0); ok {
 			// Above pc, liquid-like below Tc by the cached curve.
-			return k.isobarSingle(p, X, x, &ls, anySide, Tf, lim.TCeil, false)
+			return k.isobarSingle(p, X, x, &ls, anySide, Tf, lim.TCeil, false, st)
 		} else if _, tEnd := f.SaturationEstimateRange(); tEnd > 0 {
 			// Above the liquid at the end of the cached curve: gas-like,
 			// by Newton's method in (T, ρ) from the ideal gas at 1.5 Tc
@@ -616,7 +657,7 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 			e, _ := f.SaturationEstimateAtT(tEnd)
 			T0 = min(1.5*c.T, 0.5*(c.T+lim.TCeil))
 			k.at = [2]float64{T0, p / (f.GasConstant() * T0)}
-			return k.isobarSingle(p, X, x, &e.Vapor, sd, Tf, lim.TCeil, false)
+			return k.isobarSingle(p, X, x, &e.Vapor, sd, Tf, lim.TCeil, false, st)
 		} else if pcr, ok := props(f, c.T, c.Rho); ok || pcr.H != 0 {
 			// Above pc: start from the liquid at the triple-point
 			// temperature or a gas well above Tc, whichever side of the
@@ -629,7 +670,7 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 				// Gas-like: Newton's method in (T, ρ) from the ideal
 				// gas at T0 (the critical state to fall back toward).
 				k.at = [2]float64{T0, p / (f.GasConstant() * T0)}
-				return k.isobarSingle(p, X, x, &pcr, sd, Tf, lim.TCeil, false)
+				return k.isobarSingle(p, X, x, &pcr, sd, Tf, lim.TCeil, false, st)
 			}
 		}
 		pr0, err := f.PropsTP(T0, p, root, 0)
@@ -637,12 +678,12 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 			pr0, err = f.PropsTP(c.T, p, root, 0)
 		}
 		if err != nil {
-			return State{}, k.rewrap(err)
+			return k.rewrap(err)
 		}
 		if p < k.sol.pt && x < X.of(&pr0)-X.tol(f, &pr0, x) {
-			return State{}, k.lowError(floor)
+			return k.lowError(floor)
 		}
-		return k.isobarSingle(p, X, x, &pr0, sd, Tf, lim.TCeil, false)
+		return k.isobarSingle(p, X, x, &pr0, sd, Tf, lim.TCeil, false, st)
 	}
 	// pt <= p < pc: place x against the saturated phases, by the cached
 	// curve where x lies outside its bounds.
@@ -654,16 +695,15 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 			switch placeX(&sp, X, x) {
 			case cacheVapor:
 				v := sp.Vapor()
-				return k.isobarSingle(p, X, x, &v, vaporSide, Ts-errT, lim.TCeil, false)
+				return k.isobarSingle(p, X, x, &v, vaporSide, Ts-errT, lim.TCeil, false, st)
 			case cacheLiquid:
 				start := sp.Liquid()
 				if X == qH || X == qS {
-					T0, _ := extrapolate(X, x, &start, liquidSide, Tf, Ts)
-					if ls, ok := k.liquidStart(p, X, x, T0); ok {
+					if ls, ok := k.liquidStart(p, X, x, 0); ok {
 						start = ls
 					}
 				}
-				return k.isobarSingle(p, X, x, &start, liquidSide, Tf, Ts+errT, false)
+				return k.isobarSingle(p, X, x, &start, liquidSide, Tf, Ts+errT, false, st)
 			}
 		}
 		s, err = k.satFromPoint(&sp, p)
@@ -679,20 +719,20 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 			// equation's vapour pressure at Tt: vapour only.
 			pr0, err := f.PropsTP(max(Tf, k.sol.tt), p, fluid.RootVapor, 0)
 			if err != nil {
-				return State{}, k.rewrap(err)
+				return k.rewrap(err)
 			}
 			if x < X.of(&pr0) {
-				return State{}, k.solidError("below the triple-point temperature")
+				return k.solidError("below the triple-point temperature")
 			}
-			return k.isobarSingle(p, X, x, &pr0, vaporSide, pr0.T, lim.TCeil, false)
+			return k.isobarSingle(p, X, x, &pr0, vaporSide, pr0.T, lim.TCeil, false, st)
 		}
-		return State{}, k.rewrap(err)
+		return k.rewrap(err)
 	}
-	return k.isobaricSat(p, X, x, &s)
+	return k.isobaricSat(p, X, x, &s, st)
 }
 
 // isobaricSat finishes PH/PS with the equation's saturation s at p.
-func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation) (State, error) {
+func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation, st *State) error {
 	f := k.f
 	lim := f.Limits()
 	want := k.opt.Phase
@@ -700,48 +740,47 @@ func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation
 	Tf, _ := k.freezeT(p)
 	switch {
 	case x < xl:
-		return k.isobarSingle(p, X, x, &s.Liquid, liquidSide, Tf, s.T, false)
+		return k.isobarSingle(p, X, x, &s.Liquid, liquidSide, Tf, s.T, false, st)
 	case x > xv:
-		return k.isobarSingle(p, X, x, &s.Vapor, vaporSide, s.T, lim.TCeil, false)
+		return k.isobarSingle(p, X, x, &s.Vapor, vaporSide, s.T, lim.TCeil, false, st)
 	}
 	if (want == Liquid || want == Vapor) && k.opt.AllowMetastable {
 		start := &s.Liquid
 		if want == Vapor {
 			start = &s.Vapor
 		}
-		return k.isobarSingle(p, X, x, start, sideOf(want == Liquid), Tf, lim.TCeil, true)
+		return k.isobarSingle(p, X, x, start, sideOf(want == Liquid), Tf, lim.TCeil, true, st)
 	}
 	q := (x - xl) / (xv - xl)
 	if xv == xl {
 		q = 0.5
 	}
-	return k.finishSat(s, q)
+	return k.finishSatTo(s, q, st)
 }
 
 // isobaricWarm tries the warm start of PH/PS.
-func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
+func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) bool {
 	g := k.opt.Guess
 	if g == nil || g.N < 1 || !(g.T > 0) || k.opt.AllowMetastable || k.decided {
-		return State{}, false
+		return false
 	}
 	f := k.f
 	if gT, rl, rv, ok := k.guessSat(); ok {
 		c := f.Critical()
 		if !(p < c.P && p >= k.sol.pt) {
-			return State{}, false
+			return false
 		}
 		s, ok, err := k.satFromCacheP(p)
 		if !ok {
 			s, err = f.SaturationAtPFrom(p, gT, rl, rv)
 		}
 		if err != nil {
-			return State{}, false
+			return false
 		}
-		st, err := k.isobaricSat(p, X, x, &s)
-		return st, err == nil
+		return k.isobaricSat(p, X, x, &s, st) == nil
 	}
 	if !k.fluidGuess() {
-		return State{}, false
+		return false
 	}
 	liquid := g.Rho > f.Critical().Rho
 	lim := f.Limits()
@@ -753,16 +792,15 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
 	from := fluid.Props{T: g.T, Rho: g.Rho}
 	pr, ok := newton2(f, qP, p, X, x, T0, rho0, onBranch(f, sd, lim.TFloor, lim.TCeil), &from)
 	if !ok {
-		return State{}, false
+		return false
 	}
-	if st, _ := k.stable(&pr); !st {
-		return State{}, false
+	if stable, _ := k.stable(&pr); !stable {
+		return false
 	}
-	st, err := k.finish(&pr)
-	if err != nil || !satisfies(k.opt.Phase, st.Phase) {
-		return State{}, false
+	if err := k.finishTo(&pr, st); err != nil || !satisfies(k.opt.Phase, st.Phase) {
+		return false
 	}
-	return st, true
+	return true
 }
 
 // predict returns the start of a warm-started PH (X = h) or PS (X = s)
@@ -805,7 +843,7 @@ func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
 // far end of the bracket (near the critical point the start's cp
 // misleads), then a bracketed search along the isobar, between the
 // equation's own saturation temperature and the far end below pc.
-func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props, sd side, tlo, thi float64, meta bool) (State, error) {
+func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props, sd side, tlo, thi float64, meta bool, st *State) error {
 	f := k.f
 	c := f.Critical()
 	lim := f.Limits()
@@ -823,7 +861,7 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		// By the start's slope the state lies near or below where the
 		// liquid freezes, and it is below the liquid there: the solid
 		// paths decide.
-		return State{}, errSolid
+		return errSolid
 	}
 	T0, rho0 := extrapolate(X, x, start, sd, tlo, thi)
 	if at[0] > 0 {
@@ -833,7 +871,7 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 	if !ok && mayFreeze && k.belowFreezing(p, X, x) {
 		// Below the liquid where it may freeze: the solid paths decide,
 		// without the fallbacks' search along the isobar.
-		return State{}, errSolid
+		return errSolid
 	}
 	if !ok && !meta {
 		// From the far end of the bracket.
@@ -875,32 +913,31 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 					xl, xv := X.of(&s.Liquid), X.of(&s.Vapor)
 					if x >= xl && x <= xv {
 						q := (x - xl) / (xv - xl)
-						return k.finishSat(&s, q)
+						return k.finishSatTo(&s, q, st)
 					}
 				}
-				return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
+				return k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
 			case below:
 				_, floor := k.freezeT(p)
-				return State{}, k.lowError(floor || tlo <= lim.TFloor && tlo < k.sol.tt)
+				return k.lowError(floor || tlo <= lim.TFloor && tlo < k.sol.tt)
 			case below || above:
-				return State{}, k.fail(fluid.ErrOutOfRange, "beyond the accepted temperature range "+
+				return k.fail(fluid.ErrOutOfRange, "beyond the accepted temperature range "+
 					fmtG(lim.TFloor)+" <= T <= "+fmtG(lim.TCeil)+" K")
 			}
 		}
 	}
 	if !ok {
 		if meta {
-			return State{}, k.fail(fluid.ErrUnstable, "no metastable "+k.opt.Phase.String()+" state with these inputs before the spinodal")
+			return k.fail(fluid.ErrUnstable, "no metastable "+k.opt.Phase.String()+" state with these inputs before the spinodal")
 		}
-		return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
+		return k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
 	}
 	Tf, floor := k.freezeT(p)
 	if pr.T < Tf*(1-1e-11) && !meta {
-		return State{}, k.lowError(floor)
+		return k.lowError(floor)
 	}
-	st, err := k.finish(&pr)
-	if err != nil {
-		return State{}, err
+	if err := k.finishTo(&pr, st); err != nil {
+		return err
 	}
 	if meta {
 		if ok, _ := k.stable(&pr); !ok {
@@ -908,9 +945,9 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		}
 	}
 	if !satisfies(k.opt.Phase, st.Phase) {
-		return State{}, k.notWanted(st.Phase)
+		return k.notWanted(st.Phase)
 	}
-	return st, nil
+	return nil
 }
 
 // extrapolate returns a starting (T, ρ) for X = x at the pressure of the

@@ -214,8 +214,6 @@ type solidSide struct {
 	s      sublimation.Solid
 	n      *curveNodes
 	tt, pt float64 // the fluid's stored triple point (every fluid)
-	tp     sublimation.ThreePhase
-	haveTP bool
 }
 
 func (b *solidSide) init(f *fluid.Fluid) {

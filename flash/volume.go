@@ -159,7 +159,19 @@ func isRangeErr(err error) bool {
 	return ok && fe.Err == fluid.ErrOutOfRange
 }
 
-// wanted checks a single-phase state against the requested phase.
+// wantedTo checks the state st against the requested phase (st is set
+// to zero where it does not meet it).
+func (k *call) wantedTo(st *State) error {
+	if !satisfies(k.opt.Phase, st.Phase) {
+		err := k.notWanted(st.Phase)
+		*st = State{}
+		return err
+	}
+	return nil
+}
+
+// wanted is wantedTo for a state returned with err (passed on as they
+// are where err is not nil).
 func (k *call) wanted(st State, err error) (State, error) {
 	if err != nil {
 		return st, err
@@ -250,7 +262,8 @@ func duWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 		return State{}, err
 	}
 	if k.sol.ok && !k.metaFluid() && rho <= f.Limits().RhoCeil {
-		tp, _ := k.triple()
+		tpv, _ := k.triple()
+		tp := &tpv
 		_, hi, three := tripleURange(tp, 1/rho)
 		below := three && u <= hi+qU.tol(f, nil, u) // in or below the three-phase mixtures
 		switch {
