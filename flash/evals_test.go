@@ -120,3 +120,26 @@ func TestFlashEvals(t *testing.T) {
 		}
 	}
 }
+
+// TestCeilingEvals holds the cost of PH and PS next to the accepted
+// temperatures' ceiling (TestTemperatureCeiling's cases) to 12
+// evaluations of the equation per call cold and 4 warm-started, beyond
+// the ceiling as inside it.
+func TestCeilingEvals(t *testing.T) {
+	ceilingCases(t, func(f *fluid.Fluid, name string, p float64, st *State, x float64, opt Options, rel float64) {
+		fn := PHWith
+		if name == "s" {
+			fn = PSWith
+		}
+		n0 := evalcount.Load()
+		fn(f, p, x, opt)
+		goal := uint64(12)
+		if opt.Guess != nil {
+			goal = 4
+		}
+		if n := evalcount.Load() - n0; n > goal {
+			t.Errorf("%s P%s at p = %v, %s offset %g from TCeil (warm %v): %d evaluations, goal %d",
+				f.Name(), name, p, name, rel, opt.Guess != nil, n, goal)
+		}
+	})
+}

@@ -609,8 +609,8 @@ func (k *call) isobaricAll(p float64, X quantity, x float64, st *State) error {
 		if k.fluidGuess() && k.belowTripleP(p) {
 			// A vapour from a warm start, placed against the solid by
 			// finish, before the sublimation curve is solved for.
-			if k.isobaricWarm(p, X, x, st) {
-				return nil
+			if done, err := k.isobaricWarm(p, X, x, st); done {
+				return err
 			}
 		}
 		return k.isobarSolid(p, X, x, st)
@@ -634,8 +634,8 @@ func (k *call) isobaric(p float64, X quantity, x float64, st *State) error {
 		return k.fail(fluid.ErrOutOfRange, "p exceeds the accepted "+fmtG(lim.PCeil)+" Pa")
 	}
 	want := k.opt.Phase
-	if k.isobaricWarm(p, X, x, st) {
-		return nil
+	if done, err := k.isobaricWarm(p, X, x, st); done {
+		return err
 	}
 	// The lowest fluid temperature at p, a bound from the solid model's
 	// curve nodes (results are placed against the solid in finish).
@@ -758,29 +758,31 @@ func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation
 	return k.finishSatTo(s, q, st)
 }
 
-// isobaricWarm tries the warm start of PH/PS.
-func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) bool {
+// isobaricWarm tries the warm start of PH/PS: done reports whether it
+// decided the state (err nil) or found it beyond the accepted
+// temperatures (err says so).
+func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) (done bool, err error) {
 	g := k.opt.Guess
 	if g == nil || g.N < 1 || !(g.T > 0) || k.opt.AllowMetastable || k.decided {
-		return false
+		return false, nil
 	}
 	f := k.f
 	if gT, rl, rv, ok := k.guessSat(); ok {
 		c := f.Critical()
 		if !(p < c.P && p >= k.sol.pt) {
-			return false
+			return false, nil
 		}
 		s, ok, err := k.satFromCacheP(p)
 		if !ok {
 			s, err = f.SaturationAtPFrom(p, gT, rl, rv)
 		}
 		if err != nil {
-			return false
+			return false, nil
 		}
-		return k.isobaricSat(p, X, x, &s, st) == nil
+		return k.isobaricSat(p, X, x, &s, st) == nil, nil
 	}
 	if !k.fluidGuess() {
-		return false
+		return false, nil
 	}
 	liquid := g.Rho > f.Critical().Rho
 	lim := f.Limits()
@@ -792,15 +794,18 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) bool {
 	from := fluid.Props{T: g.T, Rho: g.Rho}
 	pr, ok := newton2(f, qP, p, X, x, T0, rho0, onBranch(f, sd, lim.TFloor, lim.TCeil), &from)
 	if !ok {
-		return false
+		if k.aboveTCeil(&pr, p, X, x) {
+			return true, k.rangeTError()
+		}
+		return false, nil
 	}
 	if stable, _ := k.stable(&pr); !stable {
-		return false
+		return false, nil
 	}
 	if err := k.finishTo(&pr, st); err != nil || !satisfies(k.opt.Phase, st.Phase) {
-		return false
+		return false, nil
 	}
-	return true
+	return true, nil
 }
 
 // predict returns the start of a warm-started PH (X = h) or PS (X = s)
@@ -868,6 +873,9 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		T0, rho0 = at[0], at[1]
 	}
 	pr, ok := newton2(f, qP, p, X, x, T0, rho0, keep, start)
+	if !ok && !meta && k.aboveTCeil(&pr, p, X, x) {
+		return k.rangeTError()
+	}
 	if !ok && mayFreeze && k.belowFreezing(p, X, x) {
 		// Below the liquid where it may freeze: the solid paths decide,
 		// without the fallbacks' search along the isobar.
@@ -921,8 +929,7 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 				_, floor := k.freezeT(p)
 				return k.lowError(floor || tlo <= lim.TFloor && tlo < k.sol.tt)
 			case below || above:
-				return k.fail(fluid.ErrOutOfRange, "beyond the accepted temperature range "+
-					fmtG(lim.TFloor)+" <= T <= "+fmtG(lim.TCeil)+" K")
+				return k.rangeTError()
 			}
 		}
 	}
@@ -948,6 +955,29 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		return k.notWanted(st.Phase)
 	}
 	return nil
+}
+
+// aboveTCeil reports whether pr, where a Newton iteration on the isobar
+// p stopped at the accepted temperatures' ceiling (newton2: held there
+// and pressed beyond it, its pressure near p), shows X = x to lie beyond
+// it: X(TCeil, p) < x, with X(TCeil, p) from pr by (∂X/∂p)_T, its
+// correction counted twice against the margin. Above Tc, where the
+// ceiling lies, an isobar has one fluid phase, along which X (h or s)
+// rises with T.
+func (k *call) aboveTCeil(pr *fluid.Props, p float64, X quantity, x float64) bool {
+	lim := k.f.Limits()
+	if pr.T != lim.TCeil || !(lim.TCeil > k.f.Critical().T) || !(math.Abs(pr.P-p) <= 1e-6*p) || !(pr.DpDrho > 0) {
+		return false
+	}
+	_, dXdRho := X.partials(pr)
+	return X.of(pr)+2*math.Abs(dXdRho/pr.DpDrho*(p-pr.P)) < x
+}
+
+// rangeTError is the error for a state beyond the accepted temperatures.
+func (k *call) rangeTError() error {
+	lim := k.f.Limits()
+	return k.fail(fluid.ErrOutOfRange, "beyond the accepted temperature range "+
+		fmtG(lim.TFloor)+" <= T <= "+fmtG(lim.TCeil)+" K")
 }
 
 // extrapolate returns a starting (T, ρ) for X = x at the pressure of the

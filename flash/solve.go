@@ -157,8 +157,9 @@ func (b *branch) keep(pr *fluid.Props) bool {
 // quarter of T and half of ρ and halved back toward the last good point
 // where they leave the accepted region, meet an unstable state or leave
 // the branch br, and stopped where they keep pressing beyond the
-// accepted temperatures. It returns the state and whether it
-// converged (to 1/100 of the floors, or to the floors where rounding
+// accepted temperatures (a start outside them, or above the accepted
+// density, is moved to their limit). It returns the state and whether
+// it converged (to 1/100 of the floors, or to the floors where rounding
 // stalls the iteration).
 //
 // start, if not nil, is a valid state near (T, ρ) to fall back toward if
@@ -166,6 +167,7 @@ func (b *branch) keep(pr *fluid.Props) bool {
 func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, rho float64,
 	br branch, start *fluid.Props) (fluid.Props, bool) {
 	lim := f.Limits()
+	T, rho = min(max(T, lim.TFloor), lim.TCeil), min(rho, lim.RhoCeil)
 	var prev fluid.Props
 	havePrev := false
 	if start != nil {
@@ -173,7 +175,7 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 	}
 	w := watch{best: math.Inf(1)}
 	backs, pinned := 0, 0
-	lastStep := math.Inf(1)
+	lastStep, prevDT := math.Inf(1), 0.0
 	for it := 0; it < 60; it++ {
 		pr, ok := props(f, T, rho)
 		if !ok || !br.keep(&pr) {
@@ -223,12 +225,21 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 			}
 		}
 		// Held at an end of the accepted temperatures and sent beyond it
-		// by more than 1e-6·T three times in a row (a solution at the
-		// end itself draws the steps to nothing): the solution lies
-		// outside them.
-		if T == lim.TCeil && dT > 1e-6*T || T == lim.TFloor && dT < -1e-6*T {
+		// three times in a row by more than 1e-6·T or by a step that
+		// does not shrink (a solution at the end itself draws the steps
+		// to nothing, quadratically): the solution lies outside them.
+		// Meanwhile a pressure (a = p) is solved for at that end, by
+		// Newton's method in ρ alone, so that the state returned shows
+		// where the isobar meets it.
+		press := math.Abs(dT) > 1e-6*T || math.Abs(dT) >= 0.5*math.Abs(prevDT)
+		prevDT = dT
+		if T == lim.TCeil && dT > 0 && press || T == lim.TFloor && dT < 0 && press {
 			if pinned++; pinned >= 3 {
 				return pr, false
+			}
+			if a == qP {
+				dT, s = 0, 1
+				dRho = max(min(-(pr.P-va)/pr.DpDrho, 0.5*rho), -0.5*rho)
 			}
 		} else {
 			pinned = 0
