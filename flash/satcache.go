@@ -4,6 +4,7 @@ import (
 	"math"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
+	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
 // This file places fluid states against the vapour–liquid saturation
@@ -133,7 +134,7 @@ func (k *call) satFromPoint(sp *fluid.SatPoint, p float64) (fluid.Saturation, er
 func taitRho(rho, dpdrho, dp float64) float64 {
 	const kp = 7.0
 	if base := 1 + kp*dp/(rho*dpdrho); base > 0 && isFinite(base) {
-		return rho * math.Exp(math.Log(base)/kp)
+		return rho * elem.Exp(elem.Log(base)/kp)
 	}
 	return rho
 }

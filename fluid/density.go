@@ -4,6 +4,7 @@ import (
 	"math"
 
 	"github.com/tripoint-thermo/tripoint/helmholtz"
+	"github.com/tripoint-thermo/tripoint/internal/elem"
 	"github.com/tripoint-thermo/tripoint/internal/evalcount"
 )
 
@@ -265,6 +266,11 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 	var it isotherm
 	it.set(f, tau)
 	if T >= f.crit.T {
+		if g == 0 {
+			if d := f.denseTable(); d != nil {
+				g, _ = d.start(T, p)
+			}
+		}
 		d, _, st := f.solveDelta(&it, pi, branchSingle, g, fr)
 		return f.rootResult(op, T, p, d, st, branchSingle, 0)
 	}
@@ -440,11 +446,13 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64, fr *fu
 		x = pi // ideal gas
 	case branchLiquid:
 		lo = f.crit.Rho / f.rhoc
-		if f.aux.rhoLiq != nil {
+		switch {
+		case g > 0:
+		case f.aux.rhoLiq != nil:
 			// Below its range the auxiliary equation's extrapolation
 			// can leave the liquid branch: start from its end.
 			x = f.aux.rhoLiq(max(f.tc/tau, f.limits.TMin)) / f.rhoc
-		} else {
+		default:
 			x = f.triple.RhoLiquid / f.rhoc
 		}
 	default:
@@ -529,9 +537,13 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64, fr *fu
 			prevStep = rel
 			xn := x + step
 			switch {
+			case rel <= 1e-4:
+				// Close to the root the forms below differ from the
+				// Newton step by a few times its square, relative: the
+				// Newton step, without their logarithm and exponential.
 			case b != branchLiquid && P > 0 && pi > 0:
 				// Newton in ln ρ on ln p: nearly linear for gases.
-				xn = x * math.Exp(-math.Log(P/pi)*P/(x*dP))
+				xn = x * elem.Exp(-elem.Log(P/pi)*P/(x*dP))
 			case b == branchLiquid:
 				// A Tait-form step, ρ = ρ₀(1 + K′Δp/K)^(1/K′) with the
 				// bulk modulus K = ρ(∂p/∂ρ)_T here and K′ = dK/dp = 7,
@@ -540,7 +552,7 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64, fr *fu
 				// compressed liquid where it is not.
 				const kp = 7.0
 				if base := 1 + kp*(pi-P)/(x*dP); base > 0.25 {
-					xn = x * math.Pow(base, 1/kp)
+					xn = x * elem.Exp(elem.Log(base)/kp)
 				}
 			}
 			x = xn
