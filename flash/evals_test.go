@@ -10,24 +10,6 @@ import (
 	"github.com/tripoint-thermo/tripoint/internal/evalcount"
 )
 
-// isoWeight is what an isotherm evaluation of the equation
-// (evalcount.AddIsotherm: αʳ and two δ-derivatives on a prepared
-// isotherm, the density and saturation solvers' iterations) counts for
-// against a full one (evalcount.Add: every derivative Props needs). In
-// instructions (callgrind, this branch, one liquid state each) an
-// isotherm evaluation costs 0.31 (R-134a: 603 against 1959 of a Props
-// call), 0.39 (water: 1713 against 4450) and 0.42 (CO2: 2019 against
-// 4832) of a Props call; it counts as the upper bound rounded up, 1/2.
-const isoWeight = 0.5
-
-// fullEquivalents returns the evaluations counted since (n0, i0) =
-// (evalcount.Load, evalcount.LoadIsotherm) as full evaluations plus
-// isoWeight times the isotherm ones.
-func fullEquivalents(n0, i0 uint64) float64 {
-	iso := evalcount.LoadIsotherm() - i0
-	return float64(evalcount.Load()-n0-iso) + isoWeight*float64(iso)
-}
-
 // evalsOf returns the median and the largest number of full-evaluation
 // equivalents (fullEquivalents) per call of flash fl over the states sts
 // (as the benchmarks call it, see cases), after one call at each to build

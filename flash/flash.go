@@ -6,6 +6,7 @@ import (
 	"strconv"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
+	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
 // call carries what every flash needs: the fluid, the operation and its
@@ -994,7 +995,7 @@ func extrapolate(X quantity, x float64, start *fluid.Props, sd side, tlo, thi fl
 		T0 = min(max(start.T+dT, tlo), thi)
 	}
 	e := max(min(-start.Expansivity*(T0-start.T), math.Ln2), -math.Ln2)
-	rho0 = start.Rho * math.Exp(e)
+	rho0 = start.Rho * elem.Exp(e)
 	if !isFinite(rho0) || rho0 <= 0 {
 		rho0 = start.Rho
 	}

@@ -376,7 +376,7 @@ func (f *Fluid) stableBranch(it *isotherm, T, pi float64, b branch, d float64, r
 // δαʳ_δ. Differences of it between two densities at one temperature are
 // differences of g/(RT).
 func gibbsReduced(d float64, r *helmholtz.DeltaDerivs) float64 {
-	return math.Log(d) + r.A + d*r.D
+	return elem.Log(d) + r.A + d*r.D
 }
 
 // rootResult turns a solver status into the Density result.

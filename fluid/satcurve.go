@@ -4,6 +4,8 @@ import (
 	"errors"
 	"math"
 	"sync"
+
+	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
 // This file holds a cached representation of a fluid's own vapour–liquid
@@ -341,7 +343,7 @@ func (f *Fluid) satFloor(q int, a, b *satNode) float64 {
 // satValues returns the interpolated quantities of the saturation s.
 func (f *Fluid) satValues(s *Saturation) [nSatQ]float64 {
 	l, v := &s.Liquid, &s.Vapor
-	return [nSatQ]float64{math.Log(s.P), math.Log(l.Rho), math.Log(v.Rho),
+	return [nSatQ]float64{elem.Log(s.P), elem.Log(l.Rho), elem.Log(v.Rho),
 		l.H, v.H, l.S, v.S, l.U, v.U}
 }
 
@@ -391,7 +393,7 @@ func coordOf(k int, T, Tc float64) (u, dudT float64) {
 	case coordY:
 		return 1 / T, -1 / (T * T)
 	case coordX:
-		return math.Log(1 - T/Tc), -1 / (Tc - T)
+		return elem.Log(1 - T/Tc), -1 / (Tc - T)
 	}
 	return T, 1
 }

@@ -55,7 +55,7 @@ func (f *Fluid) SaturationPointAtP(p float64) (sp SatPoint, ok bool) {
 	if c == nil || !(p > 0) {
 		return sp, false
 	}
-	lp := math.Log(p)
+	lp := elem.Log(p)
 	i := c.intervalP(lp)
 	if i < 0 {
 		return sp, false
@@ -385,7 +385,7 @@ func (f *Fluid) SaturationPointsWhere(v SatValue, x float64, dst []SatPoint) []S
 		if !(x > 0) {
 			return dst
 		}
-		target = math.Log(x)
+		target = elem.Log(x)
 	case q == sqSL || q == sqSV:
 		target -= f.sOff
 	default:
