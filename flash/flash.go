@@ -651,14 +651,18 @@ func (k *call) isobaric(p float64, X quantity, x float64, st *State) error {
 		} else if ls, ok := k.liquidStart(p, X, x, 0); ok {
 			// Above pc, liquid-like below Tc by the cached curve.
 			return k.isobarSingle(p, X, x, &ls, anySide, Tf, lim.TCeil, false, st)
-		} else if _, tEnd := f.SaturationEstimateRange(); tEnd > 0 {
-			// Above the liquid at the end of the cached curve: gas-like,
-			// by Newton's method in (T, ρ) from the ideal gas at 1.5 Tc
-			// (the saturated vapour there to fall back toward).
-			e, _ := f.SaturationEstimateAtT(tEnd)
+		} else if sp, ok := f.SaturationPointAtT(satEnd(f)); ok {
+			// Above the liquid at the end of the cached curve: above Tc,
+			// by Newton's method in (T, ρ) from the table of states
+			// above Tc, or from the ideal gas at 1.5 Tc (the saturated
+			// vapour there to fall back toward).
+			v := sp.Vapor()
 			T0 = min(1.5*c.T, 0.5*(c.T+lim.TCeil))
 			k.at = [2]float64{T0, p / (f.GasConstant() * T0)}
-			return k.isobarSingle(p, X, x, &e.Vapor, sd, Tf, lim.TCeil, false, st)
+			if Ta, ra, ok := estimateAboveTc(f, p, X, x); ok {
+				k.at = [2]float64{Ta, ra}
+			}
+			return k.isobarSingle(p, X, x, &v, sd, Tf, lim.TCeil, false, st)
 		} else if pcr, ok := props(f, c.T, c.Rho); ok || pcr.H != 0 {
 			// Above pc: start from the liquid at the triple-point
 			// temperature or a gas well above Tc, whichever side of the
@@ -696,6 +700,10 @@ func (k *call) isobaric(p float64, X quantity, x float64, st *State) error {
 			switch placeX(&sp, X, x) {
 			case cacheVapor:
 				v := sp.Vapor()
+				if Ta, ra, ok := estimateAboveTc(f, p, X, x); ok {
+					// Above Tc: from the table of states there.
+					k.at = [2]float64{Ta, ra}
+				}
 				return k.isobarSingle(p, X, x, &v, vaporSide, Ts-errT, lim.TCeil, false, st)
 			case cacheLiquid:
 				start := sp.Liquid()
@@ -958,6 +966,25 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 	return nil
 }
 
+// satEnd returns the temperature at which the fluid's cached curve ends
+// (Tc − 1 mK), or 0 without one.
+func satEnd(f *fluid.Fluid) float64 {
+	_, hi := f.SaturationEstimateRange()
+	return hi
+}
+
+// estimateAboveTc returns the estimate of (T, ρ) at p with X = x (h or
+// s) above Tc from the fluid's table (fluid.EstimateAboveTcPH, PS).
+func estimateAboveTc(f *fluid.Fluid, p float64, X quantity, x float64) (T, rho float64, ok bool) {
+	switch X {
+	case qH:
+		return f.EstimateAboveTcPH(p, x)
+	case qS:
+		return f.EstimateAboveTcPS(p, x)
+	}
+	return 0, 0, false
+}
+
 // aboveTCeil reports whether pr, where a Newton iteration on the isobar
 // p stopped at the accepted temperatures' ceiling (newton2: held there
 // and pressed beyond it, its pressure near p), shows X = x to lie beyond
@@ -983,11 +1010,22 @@ func (k *call) rangeTError() error {
 
 // extrapolate returns a starting (T, ρ) for X = x at the pressure of the
 // state start, by (∂X/∂T)_p and the expansivity (the ideal gas on the
-// vapour side), T kept in [tlo, thi].
+// vapour side), T kept in [tlo, thi]: at most a quarter of T away, but
+// for a gas (Z > 0.8 on the vapour side), which it takes up to twice T.
 func extrapolate(X quantity, x float64, start *fluid.Props, sd side, tlo, thi float64) (T0, rho0 float64) {
 	d := dXdT(X, start)
 	T0 = start.T
-	if d > 0 && isFinite(d) {
+	gas := sd == vaporSide && start.Z > 0.8
+	switch {
+	case gas && start.Cp > 0 && isFinite(start.Cp):
+		// A gas, whose cp changes slowly along the isobar: h by cp, s by
+		// cp in ln T, up to twice T.
+		r := 1 + (x-X.of(start))/(start.Cp*start.T)
+		if X == qS {
+			r = elem.Exp(max(min((x-X.of(start))/start.Cp, math.Ln2), -math.Ln2))
+		}
+		T0 = min(max(start.T*max(min(r, 2), 0.75), tlo), thi)
+	case d > 0 && isFinite(d):
 		// At most a quarter of T away: cp and the expansivity of the
 		// start (huge near the critical point) say little further out.
 		dT := (x - X.of(start)) / d

@@ -272,6 +272,10 @@ func (k *call) isobarSolid(p float64, X quantity, x float64, st *State) error {
 			_, hi := n.subTBounds(p)
 			return st.set(k.solidIsobar(p, X, x, min(Thi, hi)))
 		}
+		if Tlo, start, ok := k.clearlyVapour(p, X, x, meta); ok {
+			k.decide(Tlo)
+			return k.isobarSingle(p, X, x, &start, vaporSide, Tlo, lim.TCeil, false, st)
+		}
 		c, err := k.subAtP(p)
 		if err != nil {
 			return err
@@ -377,6 +381,46 @@ func (k *call) clearlySolid(cs []sublimation.Coexistence, ps []float64, p float6
 		return max(cs[i].T, cs[i+1].T), true
 	}
 	return 0, false
+}
+
+// clearlyVapour reports whether X = x at pressure p, between the ends of
+// the sublimation curve's node table, lies above the vapour on the curve
+// there by the table: above both neighbouring nodes' vapour plus one step
+// (for where it is not monotone), so that the state is a vapour hotter
+// than where the curve crosses the isobar, without solving for the
+// curve. Tlo is a lower bound of that crossing (the lower of the nodes'
+// temperatures), and start the vapour at the nearer node carried to p as
+// an ideal gas (ρ ∝ p, s less R ln p), in the call's reference state:
+// a start for the single-phase iteration. It is false with a metastable
+// fluid requested.
+func (k *call) clearlyVapour(p float64, X quantity, x float64, meta bool) (Tlo float64, start fluid.Props, ok bool) {
+	n := k.sol.n
+	cs, ps := n.sub, n.subP
+	if meta || !(p >= ps[0] && p <= ps[len(ps)-1]) || X != qH && X != qS {
+		return 0, start, false
+	}
+	i := bracketIndex(ps, p)
+	a, b := X.of(&cs[i].Fluid), X.of(&cs[i+1].Fluid)
+	dh, ds := k.f.ReferenceOffsets()
+	off := dh
+	if X == qS {
+		off = ds
+	}
+	if !(x-off > max(a, b)+math.Abs(b-a)+1e-9*math.Abs(x)) {
+		return 0, start, false
+	}
+	j := i
+	if p/ps[i] > ps[i+1]/p {
+		j = i + 1
+	}
+	start = cs[j].Fluid
+	r := p / start.P
+	start.Rho *= r
+	start.P = p
+	start.S -= k.f.GasConstant() * math.Log(r)
+	start.U, start.H, start.S = start.U+dh, start.H+dh, start.S+ds
+	start.G, start.F = start.H-start.T*start.S, start.U-start.T*start.S
+	return min(cs[i].T, cs[i+1].T) * (1 - nodeSlack), start, true
 }
 
 // solidIsobar returns the solid at pressure p with X = x, below the

@@ -7,12 +7,12 @@ import (
 	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
-// This file holds a table of a fluid's own density above its critical
-// temperature, for starting the density solver there: above Tc a fluid
-// is as dense as a liquid at high pressure and as rare as a gas at low,
-// and the ideal gas, the solver's start elsewhere, lies far from the
-// dense states (Z = 0.45 at 1.1 Tc and 3 pc). It never gives a result:
-// every density comes from the equation, solved from the table's start.
+// This file holds a table of a fluid's own states above its critical
+// temperature, for starting solvers there: above Tc a fluid is as dense
+// as a liquid at high pressure and as rare as a gas at low, and the ideal
+// gas, the density solver's start elsewhere, lies far from the dense
+// states (Z = 0.45 at 1.1 Tc and 3 pc). It never gives a result: every
+// state comes from the equation, solved from the table's start.
 
 // denseTableHolder builds a fluid's table once, on first use. Lookup
 // creates one per fluid; copies made by WithReference share it (densities
@@ -22,19 +22,21 @@ type denseTableHolder struct {
 	table *denseTable // nil where the build failed
 }
 
-// denseTable holds ln δ (δ = ρ/ρr) of the equation's own density at the
-// nodes of a grid in u = ln(T/Tc − 1) and v = ln(p/pc), evenly spaced,
-// from Tc·(1 + denseTableTMin) to TCeil and from denseTablePMin·pc to
-// PCeil (Tc and pc of Critical()); NaN where the equation has no density
-// in range. Between the nodes ln δ is interpolated bilinearly in (u, v):
-// a start, within a few per cent of the root away from the critical
-// point (TestDenseTableStart).
+// denseTable holds ln δ (δ = ρ/ρr), h and s (in the equation's default
+// reference state) of the equation's own states at the nodes of a grid
+// in u = ln(T/Tc − 1) and v = ln(p/pc), evenly spaced, from
+// Tc·(1 + denseTableTMin) to TCeil and from denseTablePMin·pc to PCeil
+// (Tc and pc of Critical()); NaN where the equation has no state in
+// range. Between the nodes they are interpolated bilinearly in (u, v):
+// starts, within a few per cent of the state away from the critical
+// point (TestDenseTableStart, TestEstimateAboveTc).
 type denseTable struct {
 	tc, pc   float64
 	u0, uInv float64 // first node and inverse spacing in u
 	v0, vInv float64 // in v
 	nu, nv   int
 	lnDelta  []float64 // ln δ at node (i, j): [i*nv+j]
+	h, s     []float64 // h and s there, J/kg and J/(kg·K)
 }
 
 // Build parameters of the table: the temperatures start at
@@ -60,8 +62,12 @@ func (f *Fluid) denseTable() *denseTable {
 }
 
 // buildDenseTable solves the equation's density at the table's nodes,
-// each isobar of an isotherm started from the node below it.
+// each isobar of an isotherm started from the node below it, in f's
+// default reference state.
 func (f *Fluid) buildDenseTable() *denseTable {
+	g := *f
+	g.hOff, g.sOff = 0, 0
+	f = &g
 	c := &f.crit
 	l := &f.limits
 	if !(l.TCeil > c.T*(1+denseTableTMin)) || !(l.PCeil > denseTablePMin*c.P) {
@@ -77,23 +83,26 @@ func (f *Fluid) buildDenseTable() *denseTable {
 	d.nv = int(math.Ceil((vEnd-d.v0)/denseTableDV)) + 1
 	d.vInv = float64(d.nv-1) / (vEnd - d.v0)
 	d.lnDelta = make([]float64, d.nu*d.nv)
+	d.h, d.s = make([]float64, d.nu*d.nv), make([]float64, d.nu*d.nv)
 	var it isotherm
 	for i := 0; i < d.nu; i++ {
 		T := c.T * (1 + math.Exp(d.u0+float64(i)/d.uInv))
 		T = min(T, l.TCeil)
 		tau := f.tc / T
 		it.set(f, tau)
-		g := 0.0
+		gd := 0.0
 		for j := 0; j < d.nv; j++ {
 			p := c.P * math.Exp(d.v0+float64(j)/d.vInv)
 			p = min(p, l.PCeil)
 			pi := p / (f.rhoc * f.r * T)
-			x, _, st := f.solveDelta(&it, pi, branchSingle, g, nil)
-			v := math.NaN()
+			x, _, st := f.solveDelta(&it, pi, branchSingle, gd, nil)
+			k := i*d.nv + j
+			d.lnDelta[k], d.h[k], d.s[k] = math.NaN(), math.NaN(), math.NaN()
 			if st == rootFound {
-				v, g = math.Log(x), x
+				pr := f.props(T, x*f.rhoc)
+				d.lnDelta[k], d.h[k], d.s[k] = math.Log(x), pr.H, pr.S
+				gd = x
 			}
-			d.lnDelta[i*d.nv+j] = v
 		}
 	}
 	return d
@@ -121,4 +130,76 @@ func (d *denseTable) start(T, p float64) (delta float64, ok bool) {
 		return 0, false
 	}
 	return elem.Exp(w), true
+}
+
+// startPX returns the temperature T in K and reduced density δ at which
+// the quantity of the table q (d.h or d.s) equals x along the isobar p,
+// interpolated: bilinearly, so that along an isobar q is piecewise
+// linear in u between nodes, and rises with T (cp > 0), found by
+// bisection of the nodes. ok is false outside the table or next to a
+// node without a state.
+func (d *denseTable) startPX(p, x float64, q []float64) (T, delta float64, ok bool) {
+	if !(p >= denseTablePMin*d.pc) || !finite(x) {
+		return 0, 0, false
+	}
+	sv := (elem.Log(p/d.pc) - d.v0) * d.vInv
+	if !(sv <= float64(d.nv-1)) {
+		return 0, 0, false
+	}
+	j := min(int(sv), d.nv-2)
+	b := sv - float64(j)
+	at := func(z []float64, i int) float64 {
+		k := i*d.nv + j
+		return (1-b)*z[k] + b*z[k+1]
+	}
+	lo, hi := 0, d.nu-1
+	if !(at(q, lo) <= x && x <= at(q, hi)) {
+		return 0, 0, false
+	}
+	for hi-lo > 1 {
+		m := (lo + hi) / 2
+		if at(q, m) <= x {
+			lo = m
+		} else {
+			hi = m
+		}
+	}
+	qa, qb := at(q, lo), at(q, hi)
+	a := (x - qa) / (qb - qa)
+	w := (1-a)*at(d.lnDelta, lo) + a*at(d.lnDelta, hi)
+	if !(a >= 0 && a <= 1) || !finite(w) {
+		return 0, 0, false
+	}
+	T = d.tc * (1 + elem.Exp(d.u0+(float64(lo)+a)/d.uInv))
+	return T, elem.Exp(w), true
+}
+
+// EstimateAboveTcPH returns an estimate of the temperature T in K and the
+// density rho in kg/m³ of f at pressure p in Pa and specific enthalpy h
+// in J/kg above the critical temperature, from a table of the equation's
+// own states built on first use (a few milliseconds, shared by the copies
+// of f): a start for solvers, within a few per cent of the state away
+// from the critical point. ok is false outside the table, Tc·(1 + 1e-3)
+// ≤ T ≤ TCeil and 0.1·pc ≤ p ≤ PCeil (Tc and pc of Critical()), next to
+// a node without a state (the densest corner), and for a fluid without
+// the table (not made by the registry). The call allocates nothing after
+// the build.
+func (f *Fluid) EstimateAboveTcPH(p, h float64) (T, rho float64, ok bool) {
+	d := f.denseTable()
+	if d == nil {
+		return 0, 0, false
+	}
+	T, delta, ok := d.startPX(p, h-f.hOff, d.h)
+	return T, delta * f.rhoc, ok
+}
+
+// EstimateAboveTcPS is EstimateAboveTcPH for the specific entropy s in
+// J/(kg·K).
+func (f *Fluid) EstimateAboveTcPS(p, s float64) (T, rho float64, ok bool) {
+	d := f.denseTable()
+	if d == nil {
+		return 0, 0, false
+	}
+	T, delta, ok := d.startPX(p, s-f.sOff, d.s)
+	return T, delta * f.rhoc, ok
 }

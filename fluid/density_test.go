@@ -224,6 +224,7 @@ func TestDensityAllocs(t *testing.T) {
 		"nearSat":       func() { f.Density(400, s.P*(1+1e-6), RootStable) },
 		"metastable":    func() { f.PropsTP(400, s.P*0.9, RootLiquid, 0) },
 		"onBranch":      func() { f.PropsTPOnBranch(400, s.P*0.9, RootLiquid, 0) },
+		"aboveTc":       func() { f.EstimateAboveTcPH(3e7, 2e6) },
 	} {
 		if a := testing.AllocsPerRun(20, fn); a != 0 {
 			t.Errorf("%s: %v allocs", name, a)
