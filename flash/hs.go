@@ -89,16 +89,16 @@ func placeLV(n *satNodes, hd, sd float64) tiePlace {
 		if phi(il) < 0 {
 			return tiePlace{kind: tieNone} // above the dome
 		}
-	case phi(il) < 0 && il+1 < n.hermiteTop:
+	case phi(il) < 0 && il+1 < n.placeTop:
 		// Between node il and the saturated liquid of entropy sd (at
 		// T_l, before node il+1) φ still rises; beyond T_l it need not,
 		// so the liquid line decides: φ(T_l) = h′(T_l) − hd, with h′
-		// interpolated (liquidLine); within ten times its measured error
-		// in the interval (and the floor of h) the equation decides.
-		Tl := n.liquidT(il, sd)
-		_, hl := n.liquidLine(il, Tl)
+		// from the cached curve (liquidAtS); within the bound of its
+		// error (the error of T_l included) and the floor of h the
+		// equation decides.
+		Tl, hl, errH := n.liquidAtS(il, sd)
 		phiL := hl - hd
-		if phiL < -(10*n.hErr[il] + 1e-10*(math.Abs(hl)+n.liq[il].P/(n.liq[il].Rho*n.liq[il].Z))) {
+		if phiL < -(errH + 1e-10*(math.Abs(hl)+n.liq[il].P/(n.liq[il].Rho*n.liq[il].Z))) {
 			return tiePlace{kind: tieNone, j: il, T: Tl, x: -1} // above the liquid line
 		}
 		// Below it (or too near to tell): the mixture's T lies between
@@ -378,21 +378,21 @@ func (k *call) hsFluidCheck(sn *satNodes, pr *fluid.Props) (State, error, bool) 
 // against the other fluid phase: below Tc and above the triple-point
 // temperature the liquid branch (ρ > ρc) must lie at or above the vapour
 // pressure at its T, the vapour branch at or below it. The vapour
-// pressure interpolated between the nodes (satNodes.vapourPressure, good
-// to 1e-8) decides where p differs from it by more than 1e-6 relative;
-// closer, and next to the critical point, the saturation at T. known is
-// false where that fails.
+// pressure of the cached curve (satNodes.vapourPressure) decides where p
+// differs from it by more than the bound of its error; closer, and next
+// to the critical point, the saturation at T. known is false where that
+// fails.
 func (k *call) lvStable(sn *satNodes, pr *fluid.Props) (stable, known bool) {
 	c := k.f.Critical()
 	if pr.T >= c.T || pr.T < sn.T[0] {
 		return true, true
 	}
 	liquid := pr.Rho > c.Rho
-	if ps, ok := sn.vapourPressure(pr.T); ok {
+	if ps, errP, ok := sn.vapourPressure(pr.T); ok {
 		switch {
-		case pr.P > ps*(1+1e-6):
+		case pr.P > ps+errP:
 			return liquid, true
-		case pr.P < ps*(1-1e-6):
+		case pr.P < ps-errP:
 			return !liquid, true
 		}
 	}

@@ -185,21 +185,26 @@ func (d *denseTable) startPX(p, x float64, q []float64) (T, delta float64, ok bo
 // the table (not made by the registry). The call allocates nothing after
 // the build.
 func (f *Fluid) EstimateAboveTcPH(p, h float64) (T, rho float64, ok bool) {
-	d := f.denseTable()
-	if d == nil {
-		return 0, 0, false
-	}
-	T, delta, ok := d.startPX(p, h-f.hOff, d.h)
-	return T, delta * f.rhoc, ok
+	return f.estimateAboveTc(p, h, false)
 }
 
 // EstimateAboveTcPS is EstimateAboveTcPH for the specific entropy s in
 // J/(kg·K).
 func (f *Fluid) EstimateAboveTcPS(p, s float64) (T, rho float64, ok bool) {
+	return f.estimateAboveTc(p, s, true)
+}
+
+// estimateAboveTc is EstimateAboveTcPH (x = h) and, with entropy set,
+// EstimateAboveTcPS (x = s).
+func (f *Fluid) estimateAboveTc(p, x float64, entropy bool) (T, rho float64, ok bool) {
 	d := f.denseTable()
 	if d == nil {
 		return 0, 0, false
 	}
-	T, delta, ok := d.startPX(p, s-f.sOff, d.s)
+	q, off := d.h, f.hOff
+	if entropy {
+		q, off = d.s, f.sOff
+	}
+	T, delta, ok := d.startPX(p, x-off, q)
 	return T, delta * f.rhoc, ok
 }

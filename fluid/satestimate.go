@@ -298,6 +298,22 @@ func (f *Fluid) SaturationEstimateAtT(T float64) (e SatEstimate, ok bool) {
 	return e, ok
 }
 
+// SaturationEstimateNodes appends to dst the temperatures in K of the
+// nodes of f's cached saturation curve, ascending from the triple point to
+// Critical().T − 1 mK, and returns the extended slice: there the
+// estimates (SaturationPointAtT, SaturationEstimateAtT) are the
+// equation's own saturation, solved when the curve was built, to
+// rounding (the densities and the pressure through their logarithms), and
+// the curve's pieces meet. It appends nothing for a fluid without a
+// cached curve.
+func (f *Fluid) SaturationEstimateNodes(dst []float64) []float64 {
+	c := f.satCurve()
+	if c == nil {
+		return dst
+	}
+	return append(dst, c.ts...)
+}
+
 // SaturationEstimateRange returns the temperatures in K between which
 // SaturationEstimateAtT has estimates: the triple point and
 // Critical().T − 1 mK; zero for a fluid without a cached curve.
