@@ -14,13 +14,26 @@ func phaseState(pr *fluid.Props, ph Phase, x float64) PhaseState {
 
 // single returns the single-phase state of pr as phase ph.
 func single(pr *fluid.Props, ph Phase) State {
-	st := State{T: pr.T, P: pr.P, Rho: pr.Rho, H: pr.H, S: pr.S, U: pr.U,
+	var st State
+	setSingle(&st, pr, ph)
+	return st
+}
+
+// set sets st to v and returns err, for a state and error returned
+// together: return st.set(f()).
+func (st *State) set(v State, err error) error {
+	*st = v
+	return err
+}
+
+// setSingle sets st to the single-phase state of pr as phase ph.
+func setSingle(st *State, pr *fluid.Props, ph Phase) {
+	*st = State{T: pr.T, P: pr.P, Rho: pr.Rho, H: pr.H, S: pr.S, U: pr.U,
 		Cp: pr.Cp, Cv: pr.Cv, W: pr.W, Phase: ph, N: 1, Flags: pr.Flags}
 	if ph == Vapor {
 		st.Quality = 1
 	}
 	st.Phases[0] = phaseState(pr, ph, 1)
-	return st
 }
 
 // fluidPhase names the phase of a single-phase fluid state (DESIGN.md):
@@ -53,20 +66,28 @@ func fluidPhase(f *fluid.Fluid, T, p, rho float64) Phase {
 // At the critical point itself (T = Tc) the state is the critical state,
 // with cv = cp = +Inf and w = 0 where the equation has nonanalytic terms.
 func twoPhase(f *fluid.Fluid, s *fluid.Saturation, q float64) State {
+	var st State
+	setTwoPhase(f, s, q, &st)
+	return st
+}
+
+// setTwoPhase sets st to twoPhase(f, s, q).
+func setTwoPhase(f *fluid.Fluid, s *fluid.Saturation, q float64, st *State) {
 	l, v := &s.Liquid, &s.Vapor
 	if q <= 0 || q >= 1 {
 		// The saturated phase at the saturation pressure: a dense
 		// liquid's own p at its density scatters by about 1e-13·ρ′RT
 		// (4e-8·p for water at its triple point), the vapour's does not.
-		st := single(l, Liquid)
-		if q >= 1 {
-			st = single(v, Vapor)
+		if q <= 0 {
+			setSingle(st, l, Liquid)
+		} else {
+			setSingle(st, v, Vapor)
 		}
 		st.P = s.P
 		st.Flags |= Saturated | s.Flags&AtCritical
-		return st
+		return
 	}
-	st := State{T: s.T, P: s.P, Phase: TwoPhase, Quality: q, N: 2,
+	*st = State{T: s.T, P: s.P, Phase: TwoPhase, Quality: q, N: 2,
 		Flags: Saturated | s.Flags&(Extrapolated|AtCritical) | (l.Flags|v.Flags)&Extrapolated}
 	vl, vv := 1/l.Rho, 1/v.Rho
 	st.Rho = 1 / (vl + q*(vv-vl))
@@ -78,10 +99,9 @@ func twoPhase(f *fluid.Fluid, s *fluid.Saturation, q float64) State {
 	st.Phases[1] = phaseState(v, Vapor, q)
 	if s.Flags&AtCritical != 0 {
 		st.Cv, st.W = l.Cv, l.W
-		return st
+		return
 	}
 	gamma := (v.S - l.S) / (vv - vl)
 	st.Cv, st.W = mixDerivs(1/st.Rho, gamma, vl, vv, l.U, v.U, l.S, v.S,
 		fluidAlong(l, gamma), fluidAlong(v, gamma), q)
-	return st
 }

@@ -120,8 +120,8 @@ func isotherm(f *fluid.Fluid, T, s, rho0, lo, hi, rhoLo, rhoHi float64) (fluid.P
 
 // tsByNodes is the fluid path of TS below Tc placed by the saturation
 // nodes (satnodes.go) instead of the saturation at T: s beside the
-// interpolated saturated entropies at T by more than ten times their
-// measured error gives the single phase on that side, started next to
+// saturated entropies at T of the cached curve by more than the bound of
+// their errors gives the single phase on that side, started next to
 // the interpolated saturated density and checked against the vapour
 // pressure at T (lvStable); between them the saturation at T, started
 // from the interpolated densities, gives the mixture. done is false
@@ -135,14 +135,13 @@ func (k *call) tsByNodes(T, s, rhoLo, rhoHi float64) (State, error, bool) {
 		return State{}, nil, false
 	}
 	i := n.bracketT(T)
-	if i+1 >= n.hermiteTop {
+	sl, sv, errS, ok := n.entropies(T)
+	if i+1 >= n.placeTop || !ok {
 		return State{}, nil, false
 	}
 	_, ds := f.ReferenceOffsets()
 	sd := s - ds
-	sl, _ := n.liquidLine(i, T)
-	sv := n.vapourS(i, T)
-	m := 10*n.sErr[i] + 1e-10*max(math.Abs(sd), f.GasConstant())
+	m := errS + 1e-10*max(math.Abs(sd), f.GasConstant())
 	t := (T - n.T[i]) / (n.T[i+1] - n.T[i])
 	rl := lerp(n.liq[i].Rho, n.liq[i+1].Rho, t)
 	rv := nodeRhoV(n, i, t)
@@ -241,7 +240,7 @@ func HSWith(f *fluid.Fluid, h, s float64, opt Options) (State, error) {
 	if k.hsTriple(h, s) {
 		// On the triple line: PS at the triple-point pressure returns
 		// its documented choice, flagged Indeterminate.
-		st, err := PSWith(f, k.sol.tp.P, s, k.opt)
+		st, err := PSWith(f, k.sol.n.tp.P, s, k.opt)
 		if err == nil && math.Abs(st.H-h) <= qH.floor(f, nil, h) {
 			return st, nil
 		}

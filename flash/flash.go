@@ -6,6 +6,7 @@ import (
 	"strconv"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
+	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
 // call carries what every flash needs: the fluid, the operation and its
@@ -59,6 +60,19 @@ func (k *call) done(st State, err error) (State, error) {
 		return State{}, k.fail(fluid.ErrNoConvergence, "the solid-region iteration did not converge")
 	}
 	return st, err
+}
+
+// doneTo is done for a flash whose state is st: it returns the error
+// done returns, and leaves st zero where that is not nil.
+func (k *call) doneTo(st *State, err error) error {
+	if err == nil {
+		return nil
+	}
+	*st = State{}
+	if err == errSolid {
+		return k.fail(fluid.ErrNoConvergence, "the solid-region iteration did not converge")
+	}
+	return err
 }
 
 func (k *call) fail(sentinel error, why string) error {
@@ -155,17 +169,17 @@ func (k *call) notWanted(got Phase) error {
 // or, where a metastable fluid was asked for, the state flagged
 // Metastable; exactly on a solid–fluid curve it is flagged Indeterminate
 // and Saturated.
-func (k *call) finish(pr *fluid.Props) (State, error) {
+func (k *call) finishTo(pr *fluid.Props, st *State) error {
 	if lim := k.f.Limits(); pr.P > lim.PCeil*(1+1e-9) {
-		return State{}, k.fail(fluid.ErrOutOfRange, "p = "+fmtG(pr.P)+" Pa exceeds the accepted "+
+		return k.fail(fluid.ErrOutOfRange, "p = "+fmtG(pr.P)+" Pa exceeds the accepted "+
 			fmtG(lim.PCeil)+" Pa of "+k.f.Name())
 	} else if !(pr.P > 0) {
-		return State{}, k.fail(fluid.ErrOutOfRange, "the equation gives p = "+fmtG(pr.P)+
+		return k.fail(fluid.ErrOutOfRange, "the equation gives p = "+fmtG(pr.P)+
 			" Pa there: no fluid state")
 	}
 	fl, err := k.highIce(pr)
 	if err != nil {
-		return State{}, err
+		return err
 	}
 	if !k.decided {
 		v, why := k.versus(pr)
@@ -175,21 +189,28 @@ func (k *call) finish(pr *fluid.Props) (State, error) {
 		case (v == vSolid || v == vBeyond) && k.metaFluid():
 			fl = Metastable
 		case v == vSolid:
-			return State{}, k.solidError(why)
+			return k.solidError(why)
 		case v == vBeyond:
 			// The fluid's pressure at a solid's density or entropy says
 			// nothing: the solid paths decide.
-			return State{}, errSolid
+			return errSolid
 		}
 	} else if k.fixedTlo > 0 && pr.T < k.fixedTlo*(1-1e-11) && !k.metaFluid() {
-		return State{}, errSolid
+		return errSolid
 	}
-	st := single(pr, fluidPhase(k.f, pr.T, pr.P, pr.Rho))
+	setSingle(st, pr, fluidPhase(k.f, pr.T, pr.P, pr.Rho))
 	st.Flags |= fl
 	if c := k.f.Limits().PCeil; st.P > c && st.P <= c*(1+1e-12) {
 		st.P = c // the ceiling itself, to rounding
 	}
-	return st, nil
+	return nil
+}
+
+// finish is finishTo, returning the state.
+func (k *call) finish(pr *fluid.Props) (State, error) {
+	var st State
+	err := k.finishTo(pr, &st)
+	return st, err
 }
 
 // stable reports whether a single-phase result pr on its branch is the
@@ -282,28 +303,27 @@ func PT(f *fluid.Fluid, p, T float64) (State, error) { return PTWith(f, p, T, Op
 // supersaturated CO2 vapour). opt.Phase Solid asks for a solid state. A
 // mixture (TwoPhase, SolidVapor, SolidLiquid, Triple) cannot be
 // requested: ErrInvalidInput.
-func PTWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
-	return atInputP(f, p)(ptWith(f, p, T, opt))
+func PTWith(f *fluid.Fluid, p, T float64, opt Options) (st State, err error) {
+	st, err = ptWith(f, p, T, opt)
+	keepInputP(f, p, &st, err)
+	return
 }
 
-// atInputP returns a function that gives a single-phase fluid state of
-// a flash at pressure p that pressure itself: its P, from the equation
-// at the solved density, differs from p by rounding (within the
+// keepInputP gives a single-phase fluid state st of a flash at pressure
+// p (err nil) that pressure itself: its P, from the equation at the
+// solved density, differs from p by rounding (within the
 // backward-residual floor: in a dense liquid up to about 1e-13·ρRT, 4e-8
 // of p for water at its triple point), and a state that keeps its input
 // exactly can be fed to the next flash without landing on the other side
 // of a phase boundary that rounding put it on.
-func atInputP(f *fluid.Fluid, p float64) func(State, error) (State, error) {
-	return func(st State, err error) (State, error) {
-		if err == nil && st.N == 1 && (st.Phase == Liquid || st.Phase == Vapor || st.Phase == Supercritical) &&
-			math.Abs(st.P-p) <= 1e-10*p+1e-12*st.Rho*f.GasConstant()*st.T {
-			st.P = p
-		}
-		return st, err
+func keepInputP(f *fluid.Fluid, p float64, st *State, err error) {
+	if err == nil && st.N == 1 && (st.Phase == Liquid || st.Phase == Vapor || st.Phase == Supercritical) &&
+		math.Abs(st.P-p) <= 1e-10*p+1e-12*st.Rho*f.GasConstant()*st.T {
+		st.P = p
 	}
 }
 
-func ptWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
+func ptWith(f *fluid.Fluid, p, T float64, opt Options) (st State, err error) {
 	var k call
 	if err := k.init(f, "flash.PT", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
 		fluid.Input{Name: "T", Value: T, Unit: "K"}, &opt, 3); err != nil {
@@ -317,7 +337,8 @@ func ptWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	if k.sol.ok && k.onTripleT(T) && k.onTripleP(p) && k.opt.Phase != Solid && !meta {
 		// The triple point: the saturated liquid (without solid), as on
 		// the vapour-pressure curve.
-		tp, _ := k.triple()
+		tpv, _ := k.triple()
+		tp := &tpv
 		st := single(&tp.Liquid, Liquid)
 		st.P = tp.P // the triple point's, not the liquid's own (see twoPhase)
 		st.Flags |= Indeterminate | Saturated
@@ -335,22 +356,26 @@ func ptWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	if pl == placeFluid && root == fluid.RootStable && p <= f.Limits().PCeil {
 		// Below Tc the cached curve places (T, p) on a branch where p
 		// lies outside its bound of the vapour pressure.
-		if e, ok := f.SaturationEstimateAtT(T); ok && math.Abs(p-e.P) > e.Err.P {
-			liquid := p > e.P
-			// (At the pressure ceiling a root whose pressure rounds above
-			// it is left to fluid.PropsTP, which says so.)
-			if pr, ok := k.densityOn(T, p, &e, liquid, k.guessRho(root)); ok && pr.P <= f.Limits().PCeil {
-				return k.wanted(single(&pr, fluidPhase(f, T, p, pr.Rho)), nil)
+		if sp, ok := f.SaturationPointAtT(T); ok {
+			if ps, errP, _ := sp.Pressure(); math.Abs(p-ps) > errP {
+				// (At the pressure ceiling a root whose pressure rounds
+				// above it is left to fluid.PropsTP, which says so.)
+				pr, ok := k.densityOn(T, p, &sp, ps, p > ps, k.guessRho(root))
+				if ok && pr.P <= f.Limits().PCeil {
+					setSingle(&st, &pr, fluidPhase(f, T, p, pr.Rho))
+					err = k.wantedTo(&st)
+					return
+				}
 			}
 		}
 	}
-	pr, err := f.PropsTP(T, p, root, k.guessRho(root))
-	if err != nil {
+	pr, perr := f.PropsTP(T, p, root, k.guessRho(root))
+	if perr != nil {
 		if pl == placeNear && !meta {
 			// No fluid root beside the curve: the solid.
 			return k.done(k.ptSolid(p, T, pl, why, nil))
 		}
-		return State{}, k.rewrap(err)
+		return State{}, k.rewrap(perr)
 	}
 	if pr.Flags&Metastable != 0 && !k.opt.AllowMetastable {
 		if pl == placeNear && !meta && k.opt.Phase != Vapor && k.opt.Phase != Liquid {
@@ -368,14 +393,15 @@ func ptWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 	if pl == placeNear && !meta {
 		return k.done(k.ptSolid(p, T, pl, why, &pr))
 	}
-	st := single(&pr, fluidPhase(f, T, p, pr.Rho))
+	setSingle(&st, &pr, fluidPhase(f, T, p, pr.Rho))
 	if meta && (pl == placeSolid || pl == placeNear && k.byGibbs(&pr) == vSolid) {
 		st.Flags |= Metastable // against the solid
 	}
 	if st.Flags&Indeterminate != 0 {
 		st.Flags |= Saturated // on a coexistence curve
 	}
-	return k.wanted(st, nil)
+	err = k.wantedTo(&st)
+	return
 }
 
 // TQ returns the saturation state of f at temperature T in K and vapour
@@ -401,7 +427,7 @@ func ptWith(f *fluid.Fluid, p, T float64, opt Options) (State, error) {
 func TQ(f *fluid.Fluid, T, q float64) (State, error) { return TQWith(f, T, q, Options{}) }
 
 // TQWith is TQ with a warm start from opt.Guess (a two-phase state).
-func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
+func TQWith(f *fluid.Fluid, T, q float64, opt Options) (st State, err error) {
 	var k call
 	if err := k.init(f, "flash.TQ", fluid.Input{Name: "T", Value: T, Unit: "K"},
 		fluid.Input{Name: "q", Value: q}, &opt, 1); err != nil {
@@ -423,7 +449,10 @@ func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
 	if err != nil {
 		return State{}, err
 	}
-	return k.finishSat(&s, q)
+	if err = k.finishSatTo(&s, q, &st); err != nil {
+		return State{}, err
+	}
+	return
 }
 
 // PQ returns the saturation state of f at pressure p in Pa and vapour
@@ -442,7 +471,7 @@ func TQWith(f *fluid.Fluid, T, q float64, opt Options) (State, error) {
 func PQ(f *fluid.Fluid, p, q float64) (State, error) { return PQWith(f, p, q, Options{}) }
 
 // PQWith is PQ with a warm start from opt.Guess (a two-phase state).
-func PQWith(f *fluid.Fluid, p, q float64, opt Options) (State, error) {
+func PQWith(f *fluid.Fluid, p, q float64, opt Options) (st State, err error) {
 	var k call
 	if err := k.init(f, "flash.PQ", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
 		fluid.Input{Name: "q", Value: q}, &opt, 1); err != nil {
@@ -464,7 +493,10 @@ func PQWith(f *fluid.Fluid, p, q float64, opt Options) (State, error) {
 		}
 		return State{}, err
 	}
-	return k.finishSat(&s, q)
+	if err = k.finishSatTo(&s, q, &st); err != nil {
+		return State{}, err
+	}
+	return
 }
 
 // satP returns the saturation at p, started from the cached curve, else
@@ -491,14 +523,23 @@ func (k *call) satP(p float64) (fluid.Saturation, error) {
 
 // finishSat builds the state of saturation s at quality q, with the
 // request checked and the triple point flagged.
-func (k *call) finishSat(s *fluid.Saturation, q float64) (State, error) {
-	st := twoPhase(k.f, s, q)
+func (k *call) finishSatTo(s *fluid.Saturation, q float64, st *State) error {
+	setTwoPhase(k.f, s, q, st)
 	if k.onTripleT(s.T) && q < 1 {
 		// On the triple line: the state without solid.
 		st.Flags |= Indeterminate
 	}
 	if !satisfies(k.opt.Phase, st.Phase) {
-		return State{}, k.notWanted(st.Phase)
+		return k.notWanted(st.Phase)
+	}
+	return nil
+}
+
+// finishSat is finishSatTo, returning the state.
+func (k *call) finishSat(s *fluid.Saturation, q float64) (State, error) {
+	var st State
+	if err := k.finishSatTo(s, q, &st); err != nil {
+		return State{}, err
 	}
 	return st, nil
 }
@@ -543,13 +584,15 @@ func PH(f *fluid.Fluid, p, h float64) (State, error) { return PHWith(f, p, h, Op
 
 // PHWith is PH with options (see Options): a warm start from opt.Guess,
 // a requested phase, and metastable states up to the spinodal.
-func PHWith(f *fluid.Fluid, p, h float64, opt Options) (State, error) {
+func PHWith(f *fluid.Fluid, p, h float64, opt Options) (st State, err error) {
 	var k call
 	if err := k.init(f, "flash.PH", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
 		fluid.Input{Name: "h", Value: h, Unit: "J/kg"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	return atInputP(f, p)(k.done(k.isobaricAll(p, qH, h)))
+	err = k.doneTo(&st, k.isobaricAll(p, qH, h, &st))
+	keepInputP(f, p, &st, err)
+	return
 }
 
 // PS returns the state of f at pressure p in Pa and specific entropy s
@@ -557,13 +600,15 @@ func PHWith(f *fluid.Fluid, p, h float64, opt Options) (State, error) {
 func PS(f *fluid.Fluid, p, s float64) (State, error) { return PSWith(f, p, s, Options{}) }
 
 // PSWith is PS with options (see Options).
-func PSWith(f *fluid.Fluid, p, s float64, opt Options) (State, error) {
+func PSWith(f *fluid.Fluid, p, s float64, opt Options) (st State, err error) {
 	var k call
 	if err := k.init(f, "flash.PS", fluid.Input{Name: "p", Value: p, Unit: "Pa"},
 		fluid.Input{Name: "s", Value: s, Unit: "J/(kg K)"}, &opt, 1); err != nil {
 		return State{}, err
 	}
-	return atInputP(f, p)(k.done(k.isobaricAll(p, qS, s)))
+	err = k.doneTo(&st, k.isobaricAll(p, qS, s, &st))
+	keepInputP(f, p, &st, err)
+	return
 }
 
 // dXdT returns (∂X/∂T)_p at pr: cp for h, cp/T for s.
@@ -598,38 +643,38 @@ func sideOf(liquid bool) side {
 
 // isobaricAll is PH (X = h) and PS (X = s): below and on the triple line
 // by the solid paths, above it the fluid first.
-func (k *call) isobaricAll(p float64, X quantity, x float64) (State, error) {
+func (k *call) isobaricAll(p float64, X quantity, x float64, st *State) error {
 	if k.sol.ok && (k.belowTripleP(p) || k.onTripleP(p)) {
 		if k.fluidGuess() && k.belowTripleP(p) {
 			// A vapour from a warm start, placed against the solid by
 			// finish, before the sublimation curve is solved for.
-			if st, ok := k.isobaricWarm(p, X, x); ok {
-				return st, nil
+			if done, err := k.isobaricWarm(p, X, x, st); done {
+				return err
 			}
 		}
-		return k.isobarSolid(p, X, x)
+		return k.isobarSolid(p, X, x, st)
 	}
-	if st, err, done := k.isobarMelt(p, X, x); done {
-		return st, err
+	if err, done := k.isobarMelt(p, X, x, st); done {
+		return err
 	}
-	st, err := k.isobaric(p, X, x)
+	err := k.isobaric(p, X, x, st)
 	if err == errSolid && !k.decided {
-		return k.isobarSolid(p, X, x)
+		return k.isobarSolid(p, X, x, st)
 	}
-	return st, err
+	return err
 }
 
 // isobaric is the fluid path of PH (X = h) and PS (X = s).
-func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
+func (k *call) isobaric(p float64, X quantity, x float64, st *State) error {
 	f := k.f
 	c := f.Critical()
 	lim := f.Limits()
 	if p > lim.PCeil {
-		return State{}, k.fail(fluid.ErrOutOfRange, "p exceeds the accepted "+fmtG(lim.PCeil)+" Pa")
+		return k.fail(fluid.ErrOutOfRange, "p exceeds the accepted "+fmtG(lim.PCeil)+" Pa")
 	}
 	want := k.opt.Phase
-	if st, ok := k.isobaricWarm(p, X, x); ok {
-		return st, nil
+	if done, err := k.isobaricWarm(p, X, x, st); done {
+		return err
 	}
 	// The lowest fluid temperature at p, a bound from the solid model's
 	// curve nodes (results are placed against the solid in finish).
@@ -639,7 +684,7 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 		// without a solid model: above Tt, below the vapour pressure),
 		// from the liquid at Tt stretched to p.
 		if pl, err := f.PropsTP(k.sol.tt, p, fluid.RootLiquid, 0); err == nil {
-			return k.isobarSingle(p, X, x, &pl, liquidSide, k.sol.tt, lim.TCeil, true)
+			return k.isobarSingle(p, X, x, &pl, liquidSide, k.sol.tt, lim.TCeil, true, st)
 		}
 	}
 	if p >= c.P || k.belowTripleP(p) {
@@ -651,15 +696,19 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 			root, T0, sd = fluid.RootVapor, Tf, vaporSide
 		} else if ls, ok := k.liquidStart(p, X, x, 0); ok {
 			// Above pc, liquid-like below Tc by the cached curve.
-			return k.isobarSingle(p, X, x, &ls, anySide, Tf, lim.TCeil, false)
-		} else if _, tEnd := f.SaturationEstimateRange(); tEnd > 0 {
-			// Above the liquid at the end of the cached curve: gas-like,
-			// by Newton's method in (T, ρ) from the ideal gas at 1.5 Tc
-			// (the saturated vapour there to fall back toward).
-			e, _ := f.SaturationEstimateAtT(tEnd)
+			return k.isobarSingle(p, X, x, &ls, anySide, Tf, lim.TCeil, false, st)
+		} else if sp, ok := f.SaturationPointAtT(satEnd(f)); ok {
+			// Above the liquid at the end of the cached curve: above Tc,
+			// by Newton's method in (T, ρ) from the table of states
+			// above Tc, or from the ideal gas at 1.5 Tc (the saturated
+			// vapour there to fall back toward).
+			v := sp.Vapor()
 			T0 = min(1.5*c.T, 0.5*(c.T+lim.TCeil))
 			k.at = [2]float64{T0, p / (f.GasConstant() * T0)}
-			return k.isobarSingle(p, X, x, &e.Vapor, sd, Tf, lim.TCeil, false)
+			if Ta, ra, ok := estimateAboveTc(f, p, X, x); ok {
+				k.at = [2]float64{Ta, ra}
+			}
+			return k.isobarSingle(p, X, x, &v, sd, Tf, lim.TCeil, false, st)
 		} else if pcr, ok := props(f, c.T, c.Rho); ok || pcr.H != 0 {
 			// Above pc: start from the liquid at the triple-point
 			// temperature or a gas well above Tc, whichever side of the
@@ -672,7 +721,7 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 				// Gas-like: Newton's method in (T, ρ) from the ideal
 				// gas at T0 (the critical state to fall back toward).
 				k.at = [2]float64{T0, p / (f.GasConstant() * T0)}
-				return k.isobarSingle(p, X, x, &pcr, sd, Tf, lim.TCeil, false)
+				return k.isobarSingle(p, X, x, &pcr, sd, Tf, lim.TCeil, false, st)
 			}
 		}
 		pr0, err := f.PropsTP(T0, p, root, 0)
@@ -680,34 +729,39 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 			pr0, err = f.PropsTP(c.T, p, root, 0)
 		}
 		if err != nil {
-			return State{}, k.rewrap(err)
+			return k.rewrap(err)
 		}
 		if k.belowTripleP(p) && x < X.of(&pr0)-X.tol(f, &pr0, x) {
-			return State{}, k.lowError(floor)
+			return k.lowError(floor)
 		}
-		return k.isobarSingle(p, X, x, &pr0, sd, Tf, lim.TCeil, false)
+		return k.isobarSingle(p, X, x, &pr0, sd, Tf, lim.TCeil, false, st)
 	}
 	// pt <= p < pc: place x against the saturated phases, by the cached
 	// curve where x lies outside its bounds.
 	var s fluid.Saturation
 	var err error
-	if e, ok := f.SaturationEstimateAtP(p); ok {
+	if sp, ok := f.SaturationPointAtP(p); ok {
+		Ts, errT := sp.Temperature()
 		if want != TwoPhase {
-			switch placeX(&e, X, x) {
+			switch placeX(&sp, X, x) {
 			case cacheVapor:
-				return k.isobarSingle(p, X, x, &e.Vapor, vaporSide, e.T-e.Err.T, lim.TCeil, false)
+				v := sp.Vapor()
+				if Ta, ra, ok := estimateAboveTc(f, p, X, x); ok {
+					// Above Tc: from the table of states there.
+					k.at = [2]float64{Ta, ra}
+				}
+				return k.isobarSingle(p, X, x, &v, vaporSide, Ts-errT, lim.TCeil, false, st)
 			case cacheLiquid:
-				start := e.Liquid
+				start := sp.Liquid()
 				if X == qH || X == qS {
-					T0, _ := extrapolate(X, x, &e.Liquid, liquidSide, Tf, e.T)
-					if ls, ok := k.liquidStart(p, X, x, T0); ok {
+					if ls, ok := k.liquidStart(p, X, x, 0); ok {
 						start = ls
 					}
 				}
-				return k.isobarSingle(p, X, x, &start, liquidSide, Tf, e.T+e.Err.T, false)
+				return k.isobarSingle(p, X, x, &start, liquidSide, Tf, Ts+errT, false, st)
 			}
 		}
-		s, err = f.SaturationAtPFrom(p, e.T, e.Liquid.Rho, e.Vapor.Rho)
+		s, err = k.satFromPoint(&sp, p)
 	} else {
 		// Within a millikelvin of the critical point, or between the
 		// stored triple-point pressure and the equation's vapour
@@ -726,20 +780,20 @@ func (k *call) isobaric(p float64, X quantity, x float64) (State, error) {
 			// equation's vapour pressure at Tt: vapour only.
 			pr0, err := f.PropsTP(max(Tf, k.sol.tt), p, fluid.RootVapor, 0)
 			if err != nil {
-				return State{}, k.rewrap(err)
+				return k.rewrap(err)
 			}
 			if x < X.of(&pr0) {
-				return State{}, k.solidError("below the triple-point temperature")
+				return k.solidError("below the triple-point temperature")
 			}
-			return k.isobarSingle(p, X, x, &pr0, vaporSide, pr0.T, lim.TCeil, false)
+			return k.isobarSingle(p, X, x, &pr0, vaporSide, pr0.T, lim.TCeil, false, st)
 		}
-		return State{}, k.rewrap(err)
+		return k.rewrap(err)
 	}
-	return k.isobaricSat(p, X, x, &s)
+	return k.isobaricSat(p, X, x, &s, st)
 }
 
 // isobaricSat finishes PH/PS with the equation's saturation s at p.
-func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation) (State, error) {
+func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation, st *State) error {
 	f := k.f
 	lim := f.Limits()
 	want := k.opt.Phase
@@ -748,52 +802,61 @@ func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation
 	if k.onTripleT(s.T) && x < xl && xl-x <= X.floor(f, &s.Liquid, x) {
 		// The liquid at the triple point, to the floor of x: no colder
 		// liquid to solve for (a fluid without a solid model).
-		return k.finishSat(s, 0)
+		return k.finishSatTo(s, 0, st)
 	}
 	switch {
 	case x < xl:
-		return k.isobarSingle(p, X, x, &s.Liquid, liquidSide, Tf, s.T, false)
+		return k.isobarSingle(p, X, x, &s.Liquid, liquidSide, Tf, s.T, false, st)
 	case x > xv:
-		return k.isobarSingle(p, X, x, &s.Vapor, vaporSide, s.T, lim.TCeil, false)
+		return k.isobarSingle(p, X, x, &s.Vapor, vaporSide, s.T, lim.TCeil, false, st)
 	}
 	if (want == Liquid || want == Vapor) && k.opt.AllowMetastable {
 		start := &s.Liquid
 		if want == Vapor {
 			start = &s.Vapor
 		}
-		return k.isobarSingle(p, X, x, start, sideOf(want == Liquid), Tf, lim.TCeil, true)
+		return k.isobarSingle(p, X, x, start, sideOf(want == Liquid), Tf, lim.TCeil, true, st)
 	}
 	q := (x - xl) / (xv - xl)
-	if xv == xl {
+	switch {
+	case xv == xl:
 		q = 0.5
+	case x-xl <= X.tol(f, &s.Liquid, x):
+		// The saturated liquid to rounding (x from a saturation solved
+		// from T, this one from p: their h or s differ in the last
+		// digits).
+		q = 0
+	case xv-x <= X.tol(f, &s.Vapor, x):
+		q = 1
 	}
-	return k.finishSat(s, q)
+	return k.finishSatTo(s, q, st)
 }
 
-// isobaricWarm tries the warm start of PH/PS.
-func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
+// isobaricWarm tries the warm start of PH/PS: done reports whether it
+// decided the state (err nil) or found it beyond the accepted
+// temperatures (err says so).
+func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) (done bool, err error) {
 	g := k.opt.Guess
 	if g == nil || g.N < 1 || !(g.T > 0) || k.opt.AllowMetastable || k.decided {
-		return State{}, false
+		return false, nil
 	}
 	f := k.f
 	if gT, rl, rv, ok := k.guessSat(); ok {
 		c := f.Critical()
 		if !(p < c.P && p >= k.sol.pt) {
-			return State{}, false
+			return false, nil
 		}
 		s, ok, err := k.satFromCacheP(p)
 		if !ok {
 			s, err = f.SaturationAtPFrom(p, gT, rl, rv)
 		}
 		if err != nil {
-			return State{}, false
+			return false, nil
 		}
-		st, err := k.isobaricSat(p, X, x, &s)
-		return st, err == nil
+		return k.isobaricSat(p, X, x, &s, st) == nil, nil
 	}
 	if !k.fluidGuess() {
-		return State{}, false
+		return false, nil
 	}
 	liquid := g.Rho > f.Critical().Rho
 	lim := f.Limits()
@@ -805,16 +868,18 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64) (State, bool) {
 	from := fluid.Props{T: g.T, Rho: g.Rho}
 	pr, ok := newton2(f, qP, p, X, x, T0, rho0, onBranch(f, sd, lim.TFloor, lim.TCeil), &from)
 	if !ok {
-		return State{}, false
+		if k.aboveTCeil(&pr, p, X, x) {
+			return true, k.rangeTError()
+		}
+		return false, nil
 	}
-	if st, _ := k.stable(&pr); !st {
-		return State{}, false
+	if stable, _ := k.stable(&pr); !stable {
+		return false, nil
 	}
-	st, err := k.finish(&pr)
-	if err != nil || !satisfies(k.opt.Phase, st.Phase) {
-		return State{}, false
+	if err := k.finishTo(&pr, st); err != nil || !satisfies(k.opt.Phase, st.Phase) {
+		return false, nil
 	}
-	return st, true
+	return true, nil
 }
 
 // predict returns the start of a warm-started PH (X = h) or PS (X = s)
@@ -857,7 +922,7 @@ func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
 // far end of the bracket (near the critical point the start's cp
 // misleads), then a bracketed search along the isobar, between the
 // equation's own saturation temperature and the far end below pc.
-func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props, sd side, tlo, thi float64, meta bool) (State, error) {
+func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props, sd side, tlo, thi float64, meta bool, st *State) error {
 	f := k.f
 	c := f.Critical()
 	lim := f.Limits()
@@ -875,17 +940,20 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		// By the start's slope the state lies near or below where the
 		// liquid freezes, and it is below the liquid there: the solid
 		// paths decide.
-		return State{}, errSolid
+		return errSolid
 	}
 	T0, rho0 := extrapolate(X, x, start, sd, tlo, thi)
 	if at[0] > 0 {
 		T0, rho0 = at[0], at[1]
 	}
 	pr, ok := newton2(f, qP, p, X, x, T0, rho0, keep, start)
+	if !ok && !meta && k.aboveTCeil(&pr, p, X, x) {
+		return k.rangeTError()
+	}
 	if !ok && mayFreeze && k.belowFreezing(p, X, x) {
 		// Below the liquid where it may freeze: the solid paths decide,
 		// without the fallbacks' search along the isobar.
-		return State{}, errSolid
+		return errSolid
 	}
 	if !ok && !meta {
 		// From the far end of the bracket.
@@ -927,16 +995,15 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 					xl, xv := X.of(&s.Liquid), X.of(&s.Vapor)
 					if x >= xl && x <= xv {
 						q := (x - xl) / (xv - xl)
-						return k.finishSat(&s, q)
+						return k.finishSatTo(&s, q, st)
 					}
 				}
-				return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
+				return k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
 			case below:
 				_, floor := k.freezeT(p)
-				return State{}, k.lowError(floor || tlo <= lim.TFloor && tlo < k.sol.tt)
+				return k.lowError(floor || tlo <= lim.TFloor && tlo < k.sol.tt)
 			case below || above:
-				return State{}, k.fail(fluid.ErrOutOfRange, "beyond the accepted temperature range "+
-					fmtG(lim.TFloor)+" <= T <= "+fmtG(lim.TCeil)+" K")
+				return k.rangeTError()
 			}
 		}
 	}
@@ -949,17 +1016,16 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 	}
 	if !ok {
 		if meta {
-			return State{}, k.fail(fluid.ErrUnstable, "no metastable "+k.opt.Phase.String()+" state with these inputs before the spinodal")
+			return k.fail(fluid.ErrUnstable, "no metastable "+k.opt.Phase.String()+" state with these inputs before the spinodal")
 		}
-		return State{}, k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
+		return k.fail(fluid.ErrNoConvergence, "the single-phase iteration did not converge")
 	}
 	Tf, floor := k.freezeT(p)
 	if pr.T < Tf*(1-1e-11) && !meta {
-		return State{}, k.lowError(floor)
+		return k.lowError(floor)
 	}
-	st, err := k.finish(&pr)
-	if err != nil {
-		return State{}, err
+	if err := k.finishTo(&pr, st); err != nil {
+		return err
 	}
 	if meta {
 		if ok, _ := k.stable(&pr); !ok {
@@ -967,9 +1033,51 @@ func (k *call) isobarSingle(p float64, X quantity, x float64, start *fluid.Props
 		}
 	}
 	if !satisfies(k.opt.Phase, st.Phase) {
-		return State{}, k.notWanted(st.Phase)
+		return k.notWanted(st.Phase)
 	}
-	return st, nil
+	return nil
+}
+
+// satEnd returns the temperature at which the fluid's cached curve ends
+// (Tc − 1 mK), or 0 without one.
+func satEnd(f *fluid.Fluid) float64 {
+	_, hi := f.SaturationEstimateRange()
+	return hi
+}
+
+// estimateAboveTc returns the estimate of (T, ρ) at p with X = x (h or
+// s) above Tc from the fluid's table (fluid.EstimateAboveTcPH, PS).
+func estimateAboveTc(f *fluid.Fluid, p float64, X quantity, x float64) (T, rho float64, ok bool) {
+	switch X {
+	case qH:
+		return f.EstimateAboveTcPH(p, x)
+	case qS:
+		return f.EstimateAboveTcPS(p, x)
+	}
+	return 0, 0, false
+}
+
+// aboveTCeil reports whether pr, where a Newton iteration on the isobar
+// p stopped at the accepted temperatures' ceiling (newton2: held there
+// and pressed beyond it, its pressure near p), shows X = x to lie beyond
+// it: X(TCeil, p) < x, with X(TCeil, p) from pr by (∂X/∂p)_T, its
+// correction counted twice against the margin. Above Tc, where the
+// ceiling lies, an isobar has one fluid phase, along which X (h or s)
+// rises with T.
+func (k *call) aboveTCeil(pr *fluid.Props, p float64, X quantity, x float64) bool {
+	lim := k.f.Limits()
+	if pr.T != lim.TCeil || !(lim.TCeil > k.f.Critical().T) || !(math.Abs(pr.P-p) <= 1e-6*p) || !(pr.DpDrho > 0) {
+		return false
+	}
+	_, dXdRho := X.partials(pr)
+	return X.of(pr)+2*math.Abs(dXdRho/pr.DpDrho*(p-pr.P)) < x
+}
+
+// rangeTError is the error for a state beyond the accepted temperatures.
+func (k *call) rangeTError() error {
+	lim := k.f.Limits()
+	return k.fail(fluid.ErrOutOfRange, "beyond the accepted temperature range "+
+		fmtG(lim.TFloor)+" <= T <= "+fmtG(lim.TCeil)+" K")
 }
 
 // isobarMeta solves X(T, p) = x at fixed p on root (Liquid or Vapor,
@@ -1027,11 +1135,22 @@ func isobarMeta(f *fluid.Fluid, p float64, X quantity, x, lo, hi float64, root f
 
 // extrapolate returns a starting (T, ρ) for X = x at the pressure of the
 // state start, by (∂X/∂T)_p and the expansivity (the ideal gas on the
-// vapour side), T kept in [tlo, thi].
+// vapour side), T kept in [tlo, thi]: at most a quarter of T away, but
+// for a gas (Z > 0.8 on the vapour side), which it takes up to twice T.
 func extrapolate(X quantity, x float64, start *fluid.Props, sd side, tlo, thi float64) (T0, rho0 float64) {
 	d := dXdT(X, start)
 	T0 = start.T
-	if d > 0 && isFinite(d) {
+	gas := sd == vaporSide && start.Z > 0.8
+	switch {
+	case gas && start.Cp > 0 && isFinite(start.Cp):
+		// A gas, whose cp changes slowly along the isobar: h by cp, s by
+		// cp in ln T, up to twice T.
+		r := 1 + (x-X.of(start))/(start.Cp*start.T)
+		if X == qS {
+			r = elem.Exp(max(min((x-X.of(start))/start.Cp, math.Ln2), -math.Ln2))
+		}
+		T0 = min(max(start.T*max(min(r, 2), 0.75), tlo), thi)
+	case d > 0 && isFinite(d):
 		// At most a quarter of T away: cp and the expansivity of the
 		// start (huge near the critical point) say little further out.
 		dT := (x - X.of(start)) / d
@@ -1039,7 +1158,7 @@ func extrapolate(X quantity, x float64, start *fluid.Props, sd side, tlo, thi fl
 		T0 = min(max(start.T+dT, tlo), thi)
 	}
 	e := max(min(-start.Expansivity*(T0-start.T), math.Ln2), -math.Ln2)
-	rho0 = start.Rho * math.Exp(e)
+	rho0 = start.Rho * elem.Exp(e)
 	if !isFinite(rho0) || rho0 <= 0 {
 		rho0 = start.Rho
 	}

@@ -345,6 +345,10 @@ func TestAllocs(t *testing.T) {
 		"PT near sat":  func() { PT(f, 1.001*two.P, 400) },
 		"PH p > pc":    func() { PH(f, 5e7, 5e5) },
 		"PD":           func() { PD(f, 1e5, 990) },
+		"PH T > Tc":    func() { PH(f, 5e7, 3e6) },
+		"PS T > Tc":    func() { PS(f, 1e7, 6500) },
+		"PH below pt":  func() { PH(f, 300, 2.8e6) },
+		"PT T > Tc":    func() { PT(f, 5e7, 900) },
 	} {
 		if a := testing.AllocsPerRun(20, fn); a != 0 {
 			t.Errorf("%s: %v allocs", name, a)

@@ -90,16 +90,16 @@ func placeLV(n *satNodes, hd, sd float64) tiePlace {
 		if phi(il) < 0 {
 			return tiePlace{kind: tieNone} // above the dome
 		}
-	case phi(il) < 0 && il+1 < n.hermiteTop:
+	case phi(il) < 0 && il+1 < n.placeTop:
 		// Between node il and the saturated liquid of entropy sd (at
 		// T_l, before node il+1) φ still rises; beyond T_l it need not,
 		// so the liquid line decides: φ(T_l) = h′(T_l) − hd, with h′
-		// interpolated (liquidLine); within ten times its measured error
-		// in the interval (and the floor of h) the equation decides.
-		Tl := n.liquidT(il, sd)
-		_, hl := n.liquidLine(il, Tl)
+		// from the cached curve (liquidAtS); within the bound of its
+		// error (the error of T_l included) and the floor of h the
+		// equation decides.
+		Tl, hl, errH := n.liquidAtS(il, sd)
 		phiL := hl - hd
-		if phiL < -(10*n.hErr[il] + 1e-10*(math.Abs(hl)+n.liq[il].P/(n.liq[il].Rho*n.liq[il].Z))) {
+		if phiL < -(errH + 1e-10*(math.Abs(hl)+n.liq[il].P/(n.liq[il].Rho*n.liq[il].Z))) {
 			return tiePlace{kind: tieNone, j: il, T: Tl, x: -1} // above the liquid line
 		}
 		// Below it (or too near to tell): the mixture's T lies between
@@ -338,13 +338,14 @@ func (k *call) hsDirect(h, s float64) (st State, err error, done bool, beyond er
 // Tc by the saturation pressure at its T.
 func (k *call) hsFluid(sn *satNodes, h, s, hd, sd float64, anchor, second *fluid.Props, sd2 side) (State, error, bool) {
 	f := k.f
-	T0, rho0 := extrapolateHS(anchor, hd, sd)
+	lim := f.Limits()
+	T0, rho0 := extrapolateHS(anchor, hd, sd, lim.TFloor, lim.TCeil)
 	var first *fluid.Props
 	var a, b fluid.Props
 	if second != nil {
 		// The start nearer in h and s; its evaluation is the first of
 		// the iteration's.
-		T1, rho1 := extrapolateHS(second, hd, sd)
+		T1, rho1 := extrapolateHS(second, hd, sd, lim.TFloor, lim.TCeil)
 		var oka, okb bool
 		a, oka = props(f, T0, rho0)
 		b, okb = props(f, T1, rho1)
@@ -392,21 +393,21 @@ func (k *call) hsFluidCheck(sn *satNodes, pr *fluid.Props) (State, error, bool) 
 // against the other fluid phase: below Tc and above the triple-point
 // temperature the liquid branch (ρ > ρc) must lie at or above the vapour
 // pressure at its T, the vapour branch at or below it. The vapour
-// pressure interpolated between the nodes (satNodes.vapourPressure, good
-// to 1e-8) decides where p differs from it by more than 1e-6 relative;
-// closer, and next to the critical point, the saturation at T. known is
-// false where that fails.
+// pressure of the cached curve (satNodes.vapourPressure) decides where p
+// differs from it by more than the bound of its error; closer, and next
+// to the critical point, the saturation at T. known is false where that
+// fails.
 func (k *call) lvStable(sn *satNodes, pr *fluid.Props) (stable, known bool) {
 	c := k.f.Critical()
 	if pr.T >= c.T || pr.T < sn.T[0] {
 		return true, true
 	}
 	liquid := pr.Rho > c.Rho
-	if ps, ok := sn.vapourPressure(pr.T); ok {
+	if ps, errP, ok := sn.vapourPressure(pr.T); ok {
 		switch {
-		case pr.P > ps*(1+1e-6):
+		case pr.P > ps+errP:
 			return liquid, true
-		case pr.P < ps*(1-1e-6):
+		case pr.P < ps-errP:
 			return !liquid, true
 		}
 	}
@@ -424,14 +425,24 @@ func (k *call) lvStable(sn *satNodes, pr *fluid.Props) (stable, known bool) {
 }
 
 // extrapolateHS returns a start (T, ρ) for h and s (default reference)
-// from the anchor state a by one linear step in (T, ln ρ), bounded.
-func extrapolateHS(a *fluid.Props, hd, sd float64) (T, rho float64) {
+// from the anchor state a by one linear step in (T, ln ρ), bounded, and
+// shortened as a whole where it would leave the accepted temperatures
+// tlo..thi (a start at the limit with the density of the longer step
+// lies far from the state: R-134a at its ceiling of 455 K and 24 MPa).
+func extrapolateHS(a *fluid.Props, hd, sd, tlo, thi float64) (T, rho float64) {
 	dT, dy, ok := stepHS(a, hd-a.H, sd-a.S)
 	if !ok {
 		return a.T, a.Rho
 	}
 	dT = max(min(dT, 0.5*a.T), -0.3*a.T)
 	dy = max(min(dy, 3), -3)
+	if T := a.T + dT; (T > thi || T < tlo) && a.T >= tlo && a.T <= thi {
+		sc := (thi - a.T) / dT
+		if T < tlo {
+			sc = (tlo - a.T) / dT
+		}
+		dT, dy = sc*dT, sc*dy
+	}
 	return a.T + dT, a.Rho * math.Exp(dy)
 }
 
@@ -459,19 +470,22 @@ func solve2(a11, a12, a21, a22, b1, b2 float64) (x1, x2 float64, ok bool) {
 // unstable state or (below Tc) cross to the other side of ρc than the
 // branch sd. It converges to 1/100 of the backward-residual floors, or
 // to the floors where rounding stalls it. first, if not nil, is the
-// state already evaluated at the start.
+// state already evaluated at the start. A start outside the accepted
+// temperatures or above the accepted density is moved to their limit; an
+// iteration held at an end of the accepted temperatures and sent beyond
+// it by more than 1e-6·T three times in a row stops (the solution lies
+// beyond, as in newton2).
 func hsNewton(f *fluid.Fluid, h, s, T, rho float64, sd side, first *fluid.Props) (fluid.Props, bool) {
 	lim := f.Limits()
 	br := onBranch(f, sd, lim.TFloor, lim.TCeil)
 	tolH, tolS := qH.tol(f, nil, h), qS.tol(f, nil, s)
 	// A start extrapolated beyond the accepted range (a state at the
 	// temperature ceiling) starts at its edge, as the iterates do.
-	T = min(max(T, lim.TFloor), lim.TCeil)
-	rho = min(rho, lim.RhoCeil)
+	T, rho = min(max(T, lim.TFloor), lim.TCeil), min(rho, lim.RhoCeil)
 	var prev fluid.Props
 	havePrev := false
 	w := watch{best: math.Inf(1)}
-	backs := 0
+	backs, pinned := 0, 0
 	lastStep := math.Inf(1)
 	for it := 0; it < 60; it++ {
 		var pr fluid.Props
@@ -503,6 +517,13 @@ func hsNewton(f *fluid.Fluid, h, s, T, rho float64, sd side, first *fluid.Props)
 		}
 		if a := math.Abs(dy); a > 1 {
 			sc = min(sc, 1/a)
+		}
+		if T == lim.TCeil && dT > 1e-6*T || T == lim.TFloor && dT < -1e-6*T {
+			if pinned++; pinned >= 3 {
+				return pr, false
+			}
+		} else {
+			pinned = 0
 		}
 		prev, havePrev = pr, true
 		lastStep = sc * max(math.Abs(dT)/T, math.Abs(dy))

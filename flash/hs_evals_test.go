@@ -59,3 +59,23 @@ func TestHSEvals(t *testing.T) {
 		}
 	}
 }
+
+// TestHSEvalsAtTemperatureCeiling holds HS at the end of the accepted
+// temperatures (TestHSAtTemperatureCeiling: R-134a at 455 K and 6 pc) to
+// the goal of the single-phase regions, 15 evaluations (it cost 1393
+// before its start was kept inside the accepted temperatures).
+func TestHSEvalsAtTemperatureCeiling(t *testing.T) {
+	f := mustFluid(t, "R134a")
+	st, err := PT(f, 6*f.Critical().P, f.Limits().TCeil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	HS(f, st.H, st.S) // the node tables, built once
+	n0 := evalcount.Load()
+	if _, err := HS(f, st.H, st.S); err != nil {
+		t.Fatal(err)
+	}
+	if n := evalcount.Load() - n0; n > 15 {
+		t.Errorf("HS at TCeil: %d evaluations, goal 15", n)
+	}
+}

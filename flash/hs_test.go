@@ -47,6 +47,26 @@ func TestHSRegressions(t *testing.T) {
 	}
 }
 
+// TestHSAtTemperatureCeiling keeps a state at the end of the accepted
+// temperatures: R-134a at T = TCeil = 455 K and 24.36 MPa (the
+// supercritical benchmark grid's hottest, densest state, 6 pc). The
+// start extrapolated from the nearest anchor lay beyond 455 K; HS then
+// left its direct solve and searched along the isentrope (1393
+// evaluations of the equation).
+func TestHSAtTemperatureCeiling(t *testing.T) {
+	t.Parallel()
+	f := mustFluid(t, "R134a")
+	lim := f.Limits()
+	st, err := PT(f, 6*f.Critical().P, lim.TCeil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	hsCheck(t, f, "at TCeil", &st, false)
+	if got, err := HS(f, st.H, st.S); err == nil && math.Abs(got.T-lim.TCeil) > 1e-9*lim.TCeil {
+		t.Errorf("HS at TCeil: T = %v K, want %v K", got.T, lim.TCeil)
+	}
+}
+
 // hsCheck runs HS on the h and s of st and checks that it reproduces them
 // to the backward-residual floors, and that the phase is st's (or, with
 // any set, any state that reproduces the inputs).

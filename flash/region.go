@@ -237,8 +237,6 @@ type solidSide struct {
 	n      *curveNodes
 	tt, pt float64 // the fluid's stored triple point (every fluid)
 	ptLine float64 // the centre of the triple line in p (pt, or the models' own)
-	tp     sublimation.ThreePhase
-	haveTP bool
 }
 
 func (b *solidSide) init(f *fluid.Fluid) {

@@ -4,6 +4,7 @@ import (
 	"math"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
+	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
 // This file places fluid states against the vapour–liquid saturation
@@ -12,28 +13,6 @@ import (
 // error bounds is placed without solving the equation's saturation, and
 // the equation's saturation is started from the cached one. Results come
 // from the equation; the cache only places states and starts solvers.
-
-// estErr returns the error bound of quantity X of the liquid (liquid
-// true) or vapour of the estimate e.
-func estErr(e *fluid.SatEstimate, X quantity, liquid bool) float64 {
-	ph := &e.Err.Vapor
-	if liquid {
-		ph = &e.Err.Liquid
-	}
-	switch X {
-	case qH:
-		return ph.H
-	case qS:
-		return ph.S
-	case qU:
-		return ph.U
-	case qRho:
-		return ph.Rho
-	case qT:
-		return e.Err.T
-	}
-	return e.Err.P
-}
 
 // cachePlace is where the cached curve puts a fluid state.
 type cachePlace int8
@@ -59,11 +38,27 @@ func placeTRho(e *fluid.SatEstimate, rho float64) cachePlace {
 	return cacheUndecided
 }
 
-// placeX places X = x at the saturation estimate e (at given p or T)
-// against the saturated phases, X rising from the liquid to the vapour.
-func placeX(e *fluid.SatEstimate, X quantity, x float64) cachePlace {
-	xl, xv := X.of(&e.Liquid), X.of(&e.Vapor)
-	el, ev := estErr(e, X, true), estErr(e, X, false)
+// satValues returns the values of the saturated liquid and vapour that
+// quantity X (h, s, u or ρ) is.
+func satValues(X quantity) (liquid, vapour fluid.SatValue) {
+	switch X {
+	case qH:
+		return fluid.SatLiquidH, fluid.SatVaporH
+	case qS:
+		return fluid.SatLiquidS, fluid.SatVaporS
+	case qU:
+		return fluid.SatLiquidU, fluid.SatVaporU
+	}
+	return fluid.SatLiquidRho, fluid.SatVaporRho
+}
+
+// placeX places X = x (h, s or u) at the point sp of the cached curve (at
+// given p or T) against the saturated phases, X rising from the liquid to
+// the vapour.
+func placeX(sp *fluid.SatPoint, X quantity, x float64) cachePlace {
+	vl, vv := satValues(X)
+	xl, el := sp.Value(vl)
+	xv, ev := sp.Value(vv)
 	switch {
 	case x > xv+ev:
 		return cacheVapor
@@ -100,78 +95,86 @@ func (k *call) stableByCache(pr *fluid.Props) (stable, decided bool) {
 // satFromCacheT returns the equation's saturation at T started from the
 // cached curve; ok is false where the curve has no estimate at T.
 func (k *call) satFromCacheT(T float64) (fluid.Saturation, bool, error) {
-	e, ok := k.f.SaturationEstimateAtT(T)
+	sp, ok := k.f.SaturationPointAtT(T)
 	if !ok {
 		return fluid.Saturation{}, false, nil
 	}
-	s, err := k.f.SaturationAtTFrom(T, e.Liquid.Rho, e.Vapor.Rho)
+	s, err := k.satFromPoint(&sp, 0)
 	return s, true, err
 }
 
 // satFromCacheP is satFromCacheT at pressure p.
 func (k *call) satFromCacheP(p float64) (fluid.Saturation, bool, error) {
-	e, ok := k.f.SaturationEstimateAtP(p)
+	sp, ok := k.f.SaturationPointAtP(p)
 	if !ok {
 		return fluid.Saturation{}, false, nil
 	}
-	s, err := k.f.SaturationAtPFrom(p, e.T, e.Liquid.Rho, e.Vapor.Rho)
+	s, err := k.satFromPoint(&sp, p)
 	return s, true, err
 }
 
-// taitRho returns the density of the liquid l compressed by dp in Pa, in
-// the Tait form of fluid.Density's liquid steps: ρ(1 + K′dp/K)^(1/K′)
-// with the bulk modulus K = ρ(∂p/∂ρ)_T of l and K′ = dK/dp = 7, typical
-// of liquids (common practice, no source); l's density where that is
-// not defined.
-func taitRho(l *fluid.Props, dp float64) float64 {
-	const kp = 7.0
-	if base := 1 + kp*dp/(l.Rho*l.DpDrho); base > 0 && isFinite(base) {
-		return l.Rho * math.Pow(base, 1/kp)
+// satFromPoint returns the equation's saturation at the temperature of
+// the point sp of the cached curve, or with p > 0 at pressure p, started
+// from sp's saturated densities.
+func (k *call) satFromPoint(sp *fluid.SatPoint, p float64) (fluid.Saturation, error) {
+	T, _ := sp.Temperature()
+	rl, _ := sp.Value(fluid.SatLiquidRho)
+	rv, _ := sp.Value(fluid.SatVaporRho)
+	if p > 0 {
+		return k.f.SaturationAtPFrom(p, T, rl, rv)
 	}
-	return l.Rho
+	return k.f.SaturationAtTFrom(T, rl, rv)
+}
+
+// taitRho returns the density of a liquid of density rho and (∂p/∂ρ)_T
+// dpdrho compressed by dp in Pa, in the Tait form of fluid.Density's
+// liquid steps: ρ(1 + K′dp/K)^(1/K′) with the bulk modulus K =
+// ρ(∂p/∂ρ)_T and K′ = dK/dp = 7, typical of liquids (common practice, no
+// source); rho where that is not defined.
+func taitRho(rho, dpdrho, dp float64) float64 {
+	const kp = 7.0
+	if base := 1 + kp*dp/(rho*dpdrho); base > 0 && isFinite(base) {
+		return rho * elem.Exp(elem.Log(base)/kp)
+	}
+	return rho
 }
 
 // densityOn solves p(T, ρ) = p for ρ on the stable branch that the cached
-// curve e at T chose (liquid true: ρ > ρ′; else ρ < ρ″), started from the
-// saturated phase carried to p: the liquid by taitRho, the vapour by the
-// second-virial form Z = 1 + (Z″ − 1)p/p_sat through the saturated
-// vapour's compression factor Z″; a positive guess (a warm start)
-// replaces the start. Far from the vapour pressure fluid.PropsTP solves
-// it; near it, where PropsTP would solve the saturation to choose the
-// root, Newton's method in ln ρ kept in that bracket (newton1).
-func (k *call) densityOn(T, p float64, e *fluid.SatEstimate, liquid bool, guess float64) (fluid.Props, bool) {
+// curve at T (the point sp, vapour pressure ps) chose (liquid true:
+// ρ > ρ′; else ρ < ρ″), by fluid.PropsTPOnBranch, which judges the
+// stable phase no more, started from the saturated phase carried to p:
+// the liquid by taitRho, the vapour by the second-virial form
+// Z = 1 + (Z″ − 1)p/p_sat through the saturated vapour's compression
+// factor Z″; a positive guess (a warm start) within the bounds of the
+// saturated density replaces the start.
+func (k *call) densityOn(T, p float64, sp *fluid.SatPoint, ps float64, liquid bool, guess float64) (fluid.Props, bool) {
 	f := k.f
 	lim := f.Limits()
 	var rho0, lo, hi float64
+	root := fluid.RootVapor
 	if liquid {
-		l := &e.Liquid
-		lo = max(l.Rho-2*e.Err.Liquid.Rho, f.Critical().Rho)
+		root = fluid.RootLiquid
+		rl, el := sp.Value(fluid.SatLiquidRho)
+		lo = max(rl-2*el, f.Critical().Rho)
 		hi = lim.RhoCeil
-		rho0 = taitRho(l, p-e.P)
+		rho0 = taitRho(rl, sp.Start(true).DpDrho, p-ps)
 	} else {
-		v := &e.Vapor
-		lo = 1e-12 * v.Rho * p / e.P
-		hi = min(v.Rho+2*e.Err.Vapor.Rho, f.Critical().Rho)
-		z := 1 + (v.Z-1)*p/e.P
+		rv, ev := sp.Value(fluid.SatVaporRho)
+		lo = 1e-12 * rv * p / ps
+		hi = min(rv+2*ev, f.Critical().Rho)
+		zv := ps / (rv * f.GasConstant() * T)
+		z := 1 + (zv-1)*p/ps
 		rho0 = p / (f.GasConstant() * T * z)
 		if !(z > 0) {
-			rho0 = v.Rho * p / e.P
+			rho0 = rv * p / ps
 		}
 	}
 	if guess > lo && guess < hi {
 		rho0 = guess
 	}
 	rho0 = min(max(rho0, lo), hi)
-	if math.Abs(p/e.P-1) > 0.1 {
-		// Far from the vapour pressure fluid.PropsTP decides the root
-		// from the auxiliary equation without a saturation solve (they
-		// are good to 2 %), and its iteration evaluates only the residual
-		// part of the equation: from the same start.
-		if pr, err := f.PropsTP(T, p, fluid.RootStable, rho0); err == nil && (pr.Rho > e.Liquid.Rho) == liquid {
-			return pr, true
-		}
-	}
-	return newton1(f, qP, p, T, rho0, false, lo, hi)
+	pr, err := f.PropsTPOnBranch(T, p, root, rho0)
+	return pr, err == nil && pr.Rho >= lo && pr.Rho <= hi
 }
 
 // isochoreCached is DU (X = u) placed along the isochore ρ by the cached
@@ -386,24 +389,29 @@ func (k *call) mixtureOnIsochore(rho, u, lo, hi float64) (st State, err error, o
 //
 // (β′ the saturated liquid's expansivity: a liquid's X departs from the
 // saturated liquid's at its temperature nearly linearly in p), by
-// Newton's method on the curve from T0, or where T0 is 0 from the T at
-// which X′ = x, with the density carried to p by taitRho. Near Tc, where β′ diverges, the correction misleads: steps
-// are limited to a tenth of T, and a search that does not settle in a
-// few steps keeps its start. ok is false where x lies above the liquid at
-// the end of the curve (Tc − 1 mK).
+// Newton's method on the curve from T0, or where T0 is outside the curve
+// from the T at which X′ = x, with the density carried to p by taitRho.
+// Near Tc, where β′ diverges, the correction misleads: steps are limited
+// to a tenth of T, and a search that does not settle in a few steps
+// keeps its best point. ok is false where x lies above the liquid at the
+// end of the curve (Tc − 1 mK). Each step reads single values of the
+// curve (fluid.SatPoint).
 func (k *call) liquidStart(p float64, X quantity, x, T0 float64) (start fluid.Props, ok bool) {
 	f := k.f
 	lo, hi := f.SaturationEstimateRange()
+	vl := fluid.SatLiquidH
+	if X == qS {
+		vl = fluid.SatLiquidS
+	}
 	T := T0
 	if !(T >= lo && T <= hi) {
-		v := fluid.SatLiquidH
-		if X == qS {
-			v = fluid.SatLiquidS
-		}
-		var buf [2]fluid.SatEstimate
-		if xs := f.SaturationEstimatesWhere(v, x, buf[:0]); len(xs) > 0 {
-			T = xs[0].T
-		} else if el, ok := f.SaturationEstimateAtT(lo); ok && x < X.of(&el.Liquid) {
+		var buf [2]fluid.SatPoint
+		if xs := f.SaturationPointsWhere(vl, x, buf[:0]); len(xs) > 0 {
+			T, _ = xs[0].Temperature()
+		} else if sp, ok := f.SaturationPointAtT(lo); ok {
+			if xl, _ := sp.Value(vl); x >= xl {
+				return start, false
+			}
 			// Below the liquid at the triple point.
 			T = lo
 		} else {
@@ -412,23 +420,28 @@ func (k *call) liquidStart(p float64, X quantity, x, T0 float64) (start fluid.Pr
 	}
 	// Newton's method on the curve, to 1e-3 in T: a start needs no more
 	// (Newton's method in (T, ρ) takes it on from the estimate's X).
-	var e, best fluid.SatEstimate
-	var xt, bestX float64
+	var best fluid.SatPoint
+	var bestX, bestPs float64
 	bestR := math.Inf(1)
 	for it := 0; it < 4; it++ {
-		if e, ok = f.SaturationEstimateAtT(T); !ok {
+		sp, ok := f.SaturationPointAtT(T)
+		if !ok {
 			return start, false
 		}
-		l := &e.Liquid
-		xl, dxl, dxdp := l.H, e.Slope.Liquid.H, (1-T*l.Expansivity)/l.Rho
+		xl, _ := sp.Value(vl)
+		dxl := sp.Slope(vl)
+		rl, _ := sp.Value(fluid.SatLiquidRho)
+		beta := sp.Start(true).Expansivity
+		ps, _, dps := sp.Pressure()
+		dxdp := (1 - T*beta) / rl
 		if X == qS {
-			xl, dxl, dxdp = l.S, e.Slope.Liquid.S, -l.Expansivity/l.Rho
+			dxdp = -beta / rl
 		}
-		xt = xl + dxdp*(p-e.P)
+		xt := xl + dxdp*(p-ps)
 		if r := math.Abs(xt - x); r < bestR {
-			best, bestX, bestR = e, xt, r
+			best, bestX, bestPs, bestR = sp, xt, ps, r
 		}
-		dT := (x - xt) / (dxl - dxdp*e.Slope.P)
+		dT := (x - xt) / (dxl - dxdp*dps)
 		if !isFinite(dT) || math.Abs(dT) <= 1e-3*T {
 			break
 		}
@@ -438,9 +451,9 @@ func (k *call) liquidStart(p float64, X quantity, x, T0 float64) (start fluid.Pr
 	if !(bestR < math.Inf(1)) {
 		return start, false
 	}
-	start = best.Liquid
+	start = best.Liquid()
+	start.Rho = taitRho(start.Rho, start.DpDrho, p-bestPs)
 	start.P = p
-	start.Rho = taitRho(&best.Liquid, p-best.P)
 	// Its X by the same estimate, from which Newton's method in (T, ρ)
 	// goes on.
 	if X == qS {

@@ -8,35 +8,31 @@ import (
 	"github.com/tripoint-thermo/tripoint/fluid"
 )
 
-// satNodes are points of a fluid's vapour–liquid saturation curve,
-// computed once per fluid (the equation's own saturation,
-// fluid.SaturationAtT) in the fluid's default reference state: the
-// triple-point temperature, nSatNodes temperatures closing in on the
-// critical point as (1 − i/n)², and the critical point itself. They place
-// a state against the saturation curve without solving for it (HS: the
-// tie lines h − T s = g(T) at the nodes; TS: the saturated entropies
-// between neighbouring nodes) and give starting values near it.
+// satNodes are points of a fluid's vapour–liquid saturation curve, in the
+// fluid's default reference state: the nodes of the fluid's cached curve
+// (fluid.SaturationEstimateNodes: the equation's own saturation there, to
+// rounding), from the triple point to Tc − 1 mK, and the critical point
+// itself. They place a state against the saturation curve without
+// solving for it (HS: the tie lines h − T s = g(T) at the nodes; TS) and
+// give starting values near it; between the nodes the saturated values
+// and the bounds of their errors come from the cached curve (liquidLine,
+// entropies, liquidAtS, vapourPressure: fluid.SatPoint).
 //
 // Along the curve T, p and s′ rise (checked when the table is built); s″
 // falls for water and CO2 but not everywhere for every fluid, so no code
 // relies on the order of s″.
 type satNodes struct {
+	f        *fluid.Fluid // the fluid in its default reference state
 	T        []float64
 	liq, vap []fluid.Props
 	g        []float64 // h′ − T s′, J/kg
-	// dsl and dhl are ds′/dT and dh′/dT along the curve at each node
-	// but the last (the critical point, where they diverge), dsv ds″/dT.
-	dsl, dhl, dsv []float64
-	// hermiteTop is the first node above 0.995 Tc: below it liquidLine
-	// interpolates the saturated liquid to 1e-7 of |h′| + RT, except in
-	// the first intervals of water (4e-7); nearer the critical point the
-	// slopes change too fast.
-	hermiteTop int
-	// hErr is, for each interval below hermiteTop, the error of
-	// liquidLine's h′ at the interval's midpoint against the equation's
-	// saturation there: the placement's margin next to the liquid line;
-	// sErr the larger error of the interpolated s′ and s″ (TS).
-	hErr, sErr []float64
+	// dsl is ds′/dT along the curve at each node but the last (the
+	// critical point, where it diverges).
+	dsl []float64
+	// placeTop is the first node above 0.995 Tc: below it the saturated
+	// liquid's line places (h, s) next to it (placeLV, tsByNodes);
+	// nearer the critical point the mixture solve decides.
+	placeTop int
 	// anchors are single-phase states that start the single-phase
 	// iteration of HS (anchorFor): saturated states away from the
 	// critical point, the fluid on the solid curves, and a grid of
@@ -44,9 +40,6 @@ type satNodes struct {
 	anchors []fluid.Props
 	err     error
 }
-
-// nSatNodes is the number of intervals of a saturation node table.
-const nSatNodes = 128
 
 // satTables holds the node table of every fluid of the registry, each
 // built on first use.
@@ -89,117 +82,85 @@ func (n *satNodes) build(name string) error {
 	if err != nil {
 		return err
 	}
-	tt, c := f.Triple().T, f.Critical()
-	var prev fluid.Saturation
-	for i := 0; i <= nSatNodes; i++ {
-		x := 1 - float64(i)/nSatNodes
-		T := c.T - (c.T-tt)*x*x
-		if i == 0 {
-			T = tt
-		}
-		var s fluid.Saturation
-		if i > 0 && i < nSatNodes {
-			s, err = f.SaturationAtTFrom(T, prev.Liquid.Rho, prev.Vapor.Rho)
-		} else {
-			s, err = f.SaturationAtT(T)
-		}
-		if err != nil {
-			return err
-		}
-		n.T = append(n.T, T)
-		n.liq = append(n.liq, s.Liquid)
-		n.vap = append(n.vap, s.Vapor)
-		n.g = append(n.g, s.Liquid.H-T*s.Liquid.S)
-		prev = s
+	n.f = f
+	c := f.Critical()
+	ts := f.SaturationEstimateNodes(nil)
+	if len(ts) < 2 {
+		return errors.New("flash: no cached saturation curve of " + name)
 	}
+	for _, T := range ts {
+		sp, ok := f.SaturationPointAtT(T)
+		if !ok {
+			return errors.New("flash: no saturation at a node of the cached curve of " + name)
+		}
+		l, v := sp.Liquid(), sp.Vapor()
+		n.T = append(n.T, T)
+		n.liq = append(n.liq, l)
+		n.vap = append(n.vap, v)
+		n.g = append(n.g, l.H-T*l.S)
+		n.dsl = append(n.dsl, sp.Slope(fluid.SatLiquidS))
+	}
+	s, err := f.SaturationAtT(c.T)
+	if err != nil {
+		return err
+	}
+	n.T = append(n.T, c.T)
+	n.liq = append(n.liq, s.Liquid)
+	n.vap = append(n.vap, s.Vapor)
+	n.g = append(n.g, s.Liquid.H-c.T*s.Liquid.S)
 	for i := 1; i < len(n.T); i++ {
 		if !(n.liq[i].S > n.liq[i-1].S && n.T[i] > n.T[i-1]) {
 			return errors.New("flash: saturation nodes of " + name + " not monotone")
 		}
 	}
-	for i := 0; i < n.last(); i++ {
-		l := &n.liq[i]
-		gamma := -n.lnPSlope(i) * l.P / (n.T[i] * n.T[i])
-		a := fluidAlong(l, gamma)
-		n.dsl = append(n.dsl, a.s)
-		n.dhl = append(n.dhl, a.u+l.P*a.v+gamma/l.Rho)
-		n.dsv = append(n.dsv, fluidAlong(&n.vap[i], gamma).s)
-	}
-	for n.hermiteTop = 0; n.hermiteTop < n.last() && n.T[n.hermiteTop] <= 0.995*c.T; n.hermiteTop++ {
-	}
-	for i := 0; i+1 < n.hermiteTop; i++ {
-		T := 0.5 * (n.T[i] + n.T[i+1])
-		s, err := f.SaturationAtTFrom(T, n.liq[i].Rho, n.vap[i].Rho)
-		if err != nil {
-			return err
-		}
-		sl, h := n.liquidLine(i, T)
-		sv := n.vapourS(i, T)
-		n.hErr = append(n.hErr, math.Abs(h-s.Liquid.H))
-		n.sErr = append(n.sErr, max(math.Abs(sl-s.Liquid.S), math.Abs(sv-s.Vapor.S)))
+	for n.placeTop = 0; n.placeTop < n.last() && n.T[n.placeTop] <= 0.995*c.T; n.placeTop++ {
 	}
 	n.buildAnchors(f)
 	return nil
 }
 
-// hermite returns the cubic Hermite interpolant at t in [0, 1] of the
-// values y0, y1 with slopes d0, d1 (per unit of the interval's length,
-// already multiplied by it).
-func hermite(t, y0, y1, d0, d1 float64) float64 {
-	t2, t3 := t*t, t*t*t
-	return (2*t3-3*t2+1)*y0 + (t3-2*t2+t)*d0 + (-2*t3+3*t2)*y1 + (t3-t2)*d1
-}
-
 // liquidLine returns the entropy and enthalpy of the saturated liquid at
-// T in [T[i], T[i+1]], i+1 < last, by cubic Hermite interpolation with
-// the slopes along the curve (good to about 1e-9 relative,
-// TestSatNodesInterpolation).
-func (n *satNodes) liquidLine(i int, T float64) (s, h float64) {
-	dT := n.T[i+1] - n.T[i]
-	t := (T - n.T[i]) / dT
-	s = hermite(t, n.liq[i].S, n.liq[i+1].S, n.dsl[i]*dT, n.dsl[i+1]*dT)
-	h = hermite(t, n.liq[i].H, n.liq[i+1].H, n.dhl[i]*dT, n.dhl[i+1]*dT)
-	return s, h
+// T, Tt ≤ T ≤ Tc − 1 mK, from the cached curve, and the bound of the
+// enthalpy's error (TestSatCurveBounds).
+func (n *satNodes) liquidLine(T float64) (s, h, errH float64) {
+	sp, _ := n.f.SaturationPointAtT(T)
+	s, _ = sp.Value(fluid.SatLiquidS)
+	h, errH = sp.Value(fluid.SatLiquidH)
+	return s, h, errH
 }
 
-// vapourS returns the entropy of the saturated vapour at T in [T[i],
-// T[i+1]], i+1 < last, by cubic Hermite interpolation as liquidLine.
-func (n *satNodes) vapourS(i int, T float64) float64 {
-	dT := n.T[i+1] - n.T[i]
-	return hermite((T-n.T[i])/dT, n.vap[i].S, n.vap[i+1].S, n.dsv[i]*dT, n.dsv[i+1]*dT)
-}
-
-// liquidT returns the temperature in [T[i], T[i+1]] (i+1 < last) at
-// which the saturated liquid of liquidLine has entropy s, with
-// s′(T[i]) ≤ s ≤ s′(T[i+1]): s′ rises along the curve.
-func (n *satNodes) liquidT(i int, s float64) float64 {
-	lo, hi := n.T[i], n.T[i+1]
-	sl, sh := n.liq[i].S, n.liq[i+1].S
-	T := lo + (hi-lo)*(s-sl)/(sh-sl)
-	for it := 0; it < 60; it++ {
-		v, _ := n.liquidLine(i, T)
-		if v > s {
-			hi = T
-		} else {
-			lo = T
-		}
-		if hi-lo <= 1e-13*hi {
-			break
-		}
-		// The secant of the bracket's ends is good enough: s′ is
-		// nearly linear in T over an interval.
-		vl, _ := n.liquidLine(i, lo)
-		vh, _ := n.liquidLine(i, hi)
-		Tn := lo + (hi-lo)*(s-vl)/(vh-vl)
-		if !(Tn > lo && Tn < hi) || !isFinite(Tn) {
-			Tn = 0.5 * (lo + hi)
-		}
-		if math.Abs(Tn-T) <= 1e-13*T {
-			return Tn
-		}
-		T = Tn
+// entropies returns the entropies of the saturated liquid and vapour at
+// T from the cached curve and the larger bound of their errors; ok is
+// false outside Tt ≤ T ≤ Tc − 1 mK.
+func (n *satNodes) entropies(T float64) (sl, sv, errS float64, ok bool) {
+	sp, ok := n.f.SaturationPointAtT(T)
+	if !ok {
+		return 0, 0, 0, false
 	}
-	return T
+	sl, el := sp.Value(fluid.SatLiquidS)
+	sv, ev := sp.Value(fluid.SatVaporS)
+	return sl, sv, max(el, ev), true
+}
+
+// liquidAtS returns the temperature in [T[i], T[i+1]] (i+1 < last) at
+// which the saturated liquid has entropy s, s′(T[i]) ≤ s ≤ s′(T[i+1]) (s′
+// rises along the curve), by the cached curve, and the enthalpy of the
+// saturated liquid there with the bound of its error, that of the
+// temperature included.
+func (n *satNodes) liquidAtS(i int, s float64) (T, h, errH float64) {
+	var buf [2]fluid.SatPoint
+	if xs := n.f.SaturationPointsWhere(fluid.SatLiquidS, s, buf[:0]); len(xs) > 0 {
+		T, _ = xs[0].Temperature()
+		h, errH = xs[0].Value(fluid.SatLiquidH)
+	} else {
+		// At an end of the curve, to rounding: the node's.
+		T = n.T[i]
+		if s >= n.liq[i+1].S {
+			T = n.T[i+1]
+		}
+		_, h, errH = n.liquidLine(T)
+	}
+	return min(max(T, n.T[i]), n.T[i+1]), h, errH
 }
 
 // buildAnchors collects the anchor states of f: every eighth saturation
@@ -297,30 +258,8 @@ func (n *satNodes) last() int { return len(n.T) - 1 }
 // bracketT returns i with T[i] ≤ T ≤ T[i+1], for T within the table.
 func (n *satNodes) bracketT(T float64) int { return bracketIndex(n.T, T) }
 
-// vapourPressure returns the vapour pressure at T, Tt ≤ T < T of the last
-// node but one, by cubic Hermite interpolation of ln p in 1/T between the
-// neighbouring nodes with the Clausius–Clapeyron slopes
-// dp/dT = (s″ − s′)/(v″ − v′) there: ln p is nearly linear in 1/T, and
-// the interpolation is good to about 1e-8 relative
-// (TestSatNodesInterpolation); ok is false next to the critical point.
-func (n *satNodes) vapourPressure(T float64) (p float64, ok bool) {
-	i := n.bracketT(T)
-	if i+1 >= n.last() {
-		return 0, false
-	}
-	x0, x1 := 1/n.T[i], 1/n.T[i+1]
-	y0, y1 := math.Log(n.vap[i].P), math.Log(n.vap[i+1].P)
-	d0, d1 := n.lnPSlope(i), n.lnPSlope(i+1)
-	hx := x1 - x0
-	t := (1/T - x0) / hx
-	t2, t3 := t*t, t*t*t
-	y := (2*t3-3*t2+1)*y0 + (t3-2*t2+t)*hx*d0 + (-2*t3+3*t2)*y1 + (t3-t2)*hx*d1
-	return math.Exp(y), true
-}
-
-// lnPSlope returns d ln p/d(1/T) = −T² γ/p at node i.
-func (n *satNodes) lnPSlope(i int) float64 {
-	l, v := &n.liq[i], &n.vap[i]
-	gamma := (v.S - l.S) / (1/v.Rho - 1/l.Rho)
-	return -n.T[i] * n.T[i] * gamma / v.P
+// vapourPressure returns the vapour pressure at T and the bound of its
+// error from the cached curve; ok is false outside Tt ≤ T ≤ Tc − 1 mK.
+func (n *satNodes) vapourPressure(T float64) (p, errP float64, ok bool) {
+	return n.f.VaporPressureEstimate(T)
 }

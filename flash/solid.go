@@ -183,28 +183,17 @@ func (k *call) refDH() float64 {
 
 // triple returns the triple point where the models meet, from the node
 // table with the reference-state offsets of the call's fluid.
-func (k *call) triple() (*sublimation.ThreePhase, error) {
-	b := &k.sol
-	if !b.haveTP {
-		b.tp = b.n.tp
-		if dh, ds := k.f.ReferenceOffsets(); dh != 0 || ds != 0 {
-			T := b.tp.T
-			shift := func(u, h, s, g, f *float64) {
-				*u += dh
-				*h += dh
-				*s += ds
-				*g += dh - T*ds
-				*f += dh - T*ds
-			}
-			for _, p := range []*fluid.Props{&b.tp.Liquid, &b.tp.Vapor} {
-				shift(&p.U, &p.H, &p.S, &p.G, &p.F)
-			}
-			sp := &b.tp.Solid
-			shift(&sp.U, &sp.H, &sp.S, &sp.G, &sp.F)
+func (k *call) triple() (sublimation.ThreePhase, error) {
+	tp := k.sol.n.tp
+	if dh, ds := k.f.ReferenceOffsets(); dh != 0 || ds != 0 {
+		g := dh - tp.T*ds
+		for _, p := range [2]*fluid.Props{&tp.Liquid, &tp.Vapor} {
+			p.U, p.H, p.S, p.G, p.F = p.U+dh, p.H+dh, p.S+ds, p.G+g, p.F+g
 		}
-		b.haveTP = true
+		sp := &tp.Solid
+		sp.U, sp.H, sp.S, sp.G, sp.F = sp.U+dh, sp.H+dh, sp.S+ds, sp.G+g, sp.F+g
 	}
-	return &b.tp, nil
+	return tp, nil
 }
 
 // The curves at T or p, as errors of this flash, started from the node

@@ -204,7 +204,8 @@ func (k *call) sublimationSat(T, p, q float64) (State, error) {
 // quality q at the triple point, the one of least solid (none), flagged
 // Indeterminate.
 func (k *call) tripleSat(q float64) (State, error) {
-	tp, err := k.triple()
+	tpv, err := k.triple()
+	tp := &tpv
 	if err != nil {
 		return State{}, err
 	}
@@ -224,18 +225,19 @@ func (k *call) tripleSat(q float64) (State, error) {
 // do not fix the fractions: the state of least solid is returned, flagged
 // Indeterminate — liquid–vapour where x lies within the liquid–vapour
 // mixtures, else solid–vapour.
-func (k *call) isobarSolid(p float64, X quantity, x float64) (State, error) {
+func (k *call) isobarSolid(p float64, X quantity, x float64, st *State) error {
 	if !k.sol.ok {
-		return State{}, k.solidError("below the sublimation or melting temperature")
+		return k.solidError("below the sublimation or melting temperature")
 	}
 	n := k.sol.n
 	lim := k.f.Limits()
 	meta := k.metaFluid()
 	switch {
 	case k.onTripleP(p):
-		tp, err := k.triple()
+		tpv, err := k.triple()
+		tp := &tpv
 		if err != nil {
-			return State{}, err
+			return err
 		}
 		xs, xl, xv := solidOf(X, &tp.Solid), X.of(&tp.Liquid), X.of(&tp.Vapor)
 		switch {
@@ -244,47 +246,51 @@ func (k *call) isobarSolid(p float64, X quantity, x float64) (State, error) {
 			if k.opt.Phase == Vapor {
 				start, sd = &tp.Vapor, vaporSide
 			}
-			return k.isobarSingle(p, X, x, start, sd, lim.TFloor, tp.T, true)
+			return k.isobarSingle(p, X, x, start, sd, lim.TFloor, tp.T, true, st)
 		case x < xs:
-			return k.solidIsobar(tp.P, X, x, tp.T)
+			return st.set(k.solidIsobar(tp.P, X, x, tp.T))
 		case x > xv:
 			k.decide(tp.T)
-			return k.isobarSingle(p, X, x, &tp.Vapor, vaporSide, tp.T, lim.TCeil, false)
+			return k.isobarSingle(p, X, x, &tp.Vapor, vaporSide, tp.T, lim.TCeil, false, st)
 		case x >= xl:
 			s := tripleSaturation(tp)
-			st := twoPhase(k.f, &s, (x-xl)/(xv-xl))
-			st.Flags |= Indeterminate
-			return k.wantedState(st)
+			ts := twoPhase(k.f, &s, (x-xl)/(xv-xl))
+			ts.Flags |= Indeterminate
+			return st.set(k.wantedState(ts))
 		}
 		c := sublimation.Coexistence{T: tp.T, P: tp.P, Solid: tp.Solid, Fluid: tp.Vapor}
-		st := k.coexistState(&c, true, (x-xs)/(xv-xs))
-		st.Flags |= Indeterminate
-		return k.wantedState(st)
+		cs := k.coexistState(&c, true, (x-xs)/(xv-xs))
+		cs.Flags |= Indeterminate
+		return st.set(k.wantedState(cs))
 	case p < n.pt:
 		if n.belowSubPMin(p) {
 			// The vapour down to the vapour floor; the solid is below it.
 			k.decide(lim.TFloor)
-			return k.isobaric(p, X, x)
+			return k.isobaric(p, X, x, st)
 		}
 		if Thi, ok := k.clearlySolid(n.sub, n.subP, p, X, x, meta); ok {
 			_, hi := n.subTBounds(p)
-			return k.solidIsobar(p, X, x, min(Thi, hi))
+			return st.set(k.solidIsobar(p, X, x, min(Thi, hi)))
+		}
+		if Tlo, start, ok := k.clearlyVapour(p, X, x, meta); ok {
+			k.decide(Tlo)
+			return k.isobarSingle(p, X, x, &start, vaporSide, Tlo, lim.TCeil, false, st)
 		}
 		c, err := k.subAtP(p)
 		if err != nil {
-			return State{}, err
+			return err
 		}
 		xs, xv := solidOf(X, &c.Solid), X.of(&c.Fluid)
 		switch {
 		case x > xv:
 			k.decide(c.T)
-			return k.isobarSingle(p, X, x, &c.Fluid, vaporSide, c.T, lim.TCeil, false)
+			return k.isobarSingle(p, X, x, &c.Fluid, vaporSide, c.T, lim.TCeil, false, st)
 		case meta && k.opt.Phase == Vapor:
-			return k.isobarSingle(p, X, x, &c.Fluid, vaporSide, lim.TFloor, c.T, true)
+			return k.isobarSingle(p, X, x, &c.Fluid, vaporSide, lim.TFloor, c.T, true, st)
 		case x < xs:
-			return k.solidIsobar(p, X, x, c.T)
+			return st.set(k.solidIsobar(p, X, x, c.T))
 		}
-		return k.wantedState(k.coexistState(&c, true, (x-xs)/(xv-xs)))
+		return st.set(k.wantedState(k.coexistState(&c, true, (x-xs)/(xv-xs))))
 	}
 	if p > n.solidPMax() {
 		// Above the end of the melting curve: the fluid above the
@@ -294,35 +300,35 @@ func (k *call) isobarSolid(p float64, X quantity, x float64) (State, error) {
 		Tlo := k.freezeTHi(p)
 		if meta && k.opt.Phase == Liquid {
 			if pl, err := k.f.PropsTP(Tlo, p, fluid.RootLiquid, 0); err == nil {
-				return k.isobarSingle(p, X, x, &pl, anySide, lim.TFloor, lim.TCeil, true)
+				return k.isobarSingle(p, X, x, &pl, anySide, lim.TFloor, lim.TCeil, true, st)
 			}
 		}
 		k.decide(Tlo)
-		st, err := k.isobaric(p, X, x)
+		err := k.isobaric(p, X, x, st)
 		if err == errSolid {
-			return State{}, k.beyondError(k.beyondWhy(p))
+			return k.beyondError(k.beyondWhy(p))
 		}
-		return st, err
+		return err
 	}
 	if Thi, ok := k.clearlySolid(n.melt, n.meltP, p, X, x, meta); ok {
 		_, hi := n.meltTBounds(p)
-		return k.solidIsobar(p, X, x, min(Thi, hi))
+		return st.set(k.solidIsobar(p, X, x, min(Thi, hi)))
 	}
 	m, err := k.meltAtP(p)
 	if err != nil {
-		return State{}, err
+		return err
 	}
 	xs, xl := solidOf(X, &m.Solid), X.of(&m.Fluid)
 	switch {
 	case x > xl:
 		k.decide(m.T)
-		return k.isobaric(p, X, x)
+		return k.isobaric(p, X, x, st)
 	case meta && k.opt.Phase == Liquid:
-		return k.isobarSingle(p, X, x, &m.Fluid, liquidSide, lim.TFloor, m.T, true)
+		return k.isobarSingle(p, X, x, &m.Fluid, liquidSide, lim.TFloor, m.T, true, st)
 	case x < xs:
-		return k.solidIsobar(p, X, x, m.T)
+		return st.set(k.solidIsobar(p, X, x, m.T))
 	}
-	return k.wantedState(k.coexistState(&m, false, (x-xs)/(xl-xs)))
+	return st.set(k.wantedState(k.coexistState(&m, false, (x-xs)/(xl-xs))))
 }
 
 // isobarMelt sends PH (X = h) and PS (X = s) at a pressure of the
@@ -333,13 +339,13 @@ func (k *call) isobarSolid(p float64, X quantity, x float64) (State, error) {
 // with T, so such a state has solid or is a liquid next to the curve,
 // which isobarSolid places against the curve itself. done is false
 // elsewhere: the fluid path then runs first.
-func (k *call) isobarMelt(p float64, X quantity, x float64) (st State, err error, done bool) {
+func (k *call) isobarMelt(p float64, X quantity, x float64, st *State) (err error, done bool) {
 	if !k.sol.ok || k.metaFluid() || k.decided {
-		return State{}, nil, false
+		return nil, false
 	}
 	n := k.sol.n
 	if !(p > n.pt*(1+tripleTolP) && p <= n.solidPMax()) {
-		return State{}, nil, false
+		return nil, false
 	}
 	i := bracketIndex(n.meltP, p)
 	a, b := X.of(&n.melt[i].Fluid), X.of(&n.melt[i+1].Fluid)
@@ -349,10 +355,9 @@ func (k *call) isobarMelt(p float64, X quantity, x float64) (st State, err error
 		off = ds
 	}
 	if x-off > max(a, b)+math.Abs(b-a)+1e-9*math.Abs(x) {
-		return State{}, nil, false
+		return nil, false
 	}
-	st, err = k.isobarSolid(p, X, x)
-	return st, err, true
+	return k.isobarSolid(p, X, x, st), true
 }
 
 // clearlySolid reports whether X = x at pressure p lies below the solid
@@ -376,6 +381,46 @@ func (k *call) clearlySolid(cs []sublimation.Coexistence, ps []float64, p float6
 		return max(cs[i].T, cs[i+1].T), true
 	}
 	return 0, false
+}
+
+// clearlyVapour reports whether X = x at pressure p, between the ends of
+// the sublimation curve's node table, lies above the vapour on the curve
+// there by the table: above both neighbouring nodes' vapour plus one step
+// (for where it is not monotone), so that the state is a vapour hotter
+// than where the curve crosses the isobar, without solving for the
+// curve. Tlo is a lower bound of that crossing (the lower of the nodes'
+// temperatures), and start the vapour at the nearer node carried to p as
+// an ideal gas (ρ ∝ p, s less R ln p), in the call's reference state:
+// a start for the single-phase iteration. It is false with a metastable
+// fluid requested.
+func (k *call) clearlyVapour(p float64, X quantity, x float64, meta bool) (Tlo float64, start fluid.Props, ok bool) {
+	n := k.sol.n
+	cs, ps := n.sub, n.subP
+	if meta || !(p >= ps[0] && p <= ps[len(ps)-1]) || X != qH && X != qS {
+		return 0, start, false
+	}
+	i := bracketIndex(ps, p)
+	a, b := X.of(&cs[i].Fluid), X.of(&cs[i+1].Fluid)
+	dh, ds := k.f.ReferenceOffsets()
+	off := dh
+	if X == qS {
+		off = ds
+	}
+	if !(x-off > max(a, b)+math.Abs(b-a)+1e-9*math.Abs(x)) {
+		return 0, start, false
+	}
+	j := i
+	if p/ps[i] > ps[i+1]/p {
+		j = i + 1
+	}
+	start = cs[j].Fluid
+	r := p / start.P
+	start.Rho *= r
+	start.P = p
+	start.S -= k.f.GasConstant() * math.Log(r)
+	start.U, start.H, start.S = start.U+dh, start.H+dh, start.S+ds
+	start.G, start.F = start.H-start.T*start.S, start.U-start.T*start.S
+	return min(cs[i].T, cs[i+1].T) * (1 - nodeSlack), start, true
 }
 
 // solidIsobar returns the solid at pressure p with X = x, below the
@@ -430,7 +475,8 @@ func (k *call) dtSolid(rho, T float64) (State, error) {
 		return State{}, k.solidError("below the triple point")
 	}
 	if k.onTripleT(T) {
-		tp, err := k.triple()
+		tpv, err := k.triple()
+		tp := &tpv
 		if err != nil {
 			return State{}, err
 		}
@@ -560,7 +606,8 @@ func (k *call) duSolid(rho, u float64) (State, error) {
 	if !k.sol.ok {
 		return State{}, k.solidError("below the liquid-vapour states at the triple-point temperature")
 	}
-	tp, err := k.triple()
+	tpv, err := k.triple()
+	tp := &tpv
 	if err != nil {
 		return State{}, err
 	}
@@ -858,7 +905,8 @@ func (k *call) pdSolid(p, rho float64) (State, error) {
 	vapour := false
 	switch {
 	case k.onTripleP(p):
-		tp, err := k.triple()
+		tpv, err := k.triple()
+		tp := &tpv
 		if err != nil {
 			return State{}, err
 		}
@@ -922,7 +970,8 @@ func (k *call) tsSolid(T, s float64) (State, error) {
 	}
 	n := k.sol.n
 	if k.onTripleT(T) {
-		tp, err := k.triple()
+		tpv, err := k.triple()
+		tp := &tpv
 		if err != nil {
 			return State{}, err
 		}
@@ -1023,7 +1072,8 @@ func (k *call) hsTriple(h, s float64) bool {
 	if !k.sol.ok {
 		return false
 	}
-	tp, err := k.triple()
+	tpv, err := k.triple()
+	tp := &tpv
 	if err != nil || s < tp.Solid.S || s > tp.Vapor.S {
 		return false
 	}

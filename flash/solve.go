@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
+	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
 // quantity names a state function that a flash takes as input.
@@ -105,6 +106,18 @@ func finiteProps(pr *fluid.Props) bool {
 
 func isFinite(x float64) bool { return x-x == 0 }
 
+// expm1 returns e^x − 1 for the steps of the iterations: by its Taylor
+// series to x³ where |x| < 1e-5 (a relative error below 1e-20), else as
+// e^x − 1 with the table-driven exponential (an absolute error of about
+// 1e-16: a relative error of the step below 1e-11, which only the steps
+// far from convergence take).
+func expm1(x float64) float64 {
+	if math.Abs(x) < 1e-5 {
+		return x * (1 + x*(0.5+x/6))
+	}
+	return elem.Exp(x) - 1
+}
+
 // watch tracks the scaled residual of an iteration (1 = converged); see
 // check.
 type watch struct {
@@ -157,8 +170,9 @@ func (b *branch) keep(pr *fluid.Props) bool {
 // quarter of T and half of ρ and halved back toward the last good point
 // where they leave the accepted region, meet an unstable state or leave
 // the branch br, and stopped where they keep pressing beyond the
-// accepted temperatures. It returns the state and whether it
-// converged (to 1/100 of the floors, or to the floors where rounding
+// accepted temperatures (a start outside them, or above the accepted
+// density, is moved to their limit). It returns the state and whether
+// it converged (to 1/100 of the floors, or to the floors where rounding
 // stalls the iteration).
 //
 // start, if not nil, is a valid state near (T, ρ) to fall back toward if
@@ -166,6 +180,7 @@ func (b *branch) keep(pr *fluid.Props) bool {
 func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, rho float64,
 	br branch, start *fluid.Props) (fluid.Props, bool) {
 	lim := f.Limits()
+	T, rho = min(max(T, lim.TFloor), lim.TCeil), min(rho, lim.RhoCeil)
 	var prev fluid.Props
 	havePrev := false
 	if start != nil {
@@ -173,7 +188,7 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 	}
 	w := watch{best: math.Inf(1)}
 	backs, pinned := 0, 0
-	lastStep := math.Inf(1)
+	lastStep, prevDT, prevRb := math.Inf(1), 0.0, math.Inf(1)
 	for it := 0; it < 60; it++ {
 		pr, ok := props(f, T, rho)
 		if !ok || !br.keep(&pr) {
@@ -196,7 +211,7 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 		if logged {
 			// In ln T and ln ρ, on ln p: the linear step below then
 			// gives d ln T and d ln ρ, turned back into dT and dρ.
-			ra = math.Log(pr.P / va)
+			ra = elem.Log(pr.P / va)
 			a1, a2 = a1*T/pr.P, a2*rho/pr.P
 			b1, b2 = b1*T, b2*rho
 		}
@@ -207,8 +222,8 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 			return pr, false
 		}
 		if logged {
-			dT = T * math.Expm1(max(min(dT, math.Ln2), -math.Ln2))
-			dRho = rho * math.Expm1(max(min(dRho, 2*math.Ln2), -2*math.Ln2))
+			dT = T * expm1(max(min(dT, math.Ln2), -math.Ln2))
+			dRho = rho * expm1(max(min(dRho, 2*math.Ln2), -2*math.Ln2))
 		}
 		s := 1.0
 		if !logged {
@@ -223,17 +238,32 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 			}
 		}
 		// Held at an end of the accepted temperatures and sent beyond it
-		// by more than 1e-6·T three times in a row (a solution at the
-		// end itself draws the steps to nothing): the solution lies
-		// outside them.
-		if T == lim.TCeil && dT > 1e-6*T || T == lim.TFloor && dT < -1e-6*T {
-			if pinned++; pinned >= 3 {
+		// three times in a row by more than 1e-6·T or by a step that
+		// does not shrink (a solution at the end itself draws the steps
+		// to nothing, quadratically): the solution lies outside them.
+		// Meanwhile a pressure (a = p) is solved for at that end, by
+		// Newton's method in ρ alone, so that the state returned shows
+		// where the isobar meets it.
+		press := math.Abs(dT) > 1e-6*T || math.Abs(dT) >= 0.5*math.Abs(prevDT)
+		prevDT = dT
+		if T == lim.TCeil && dT > 0 && press || T == lim.TFloor && dT < 0 && press {
+			// (While the residual in b falls by 30 % a step the
+			// iteration still converges: toward a solution at the end
+			// itself. Beyond the end it settles where p is solved.)
+			if math.Abs(rb) >= 0.7*prevRb {
+				pinned++
+			}
+			if pinned >= 3 {
 				return pr, false
+			}
+			if a == qP {
+				dT, s = 0, 1
+				dRho = max(min(-(pr.P-va)/pr.DpDrho, 0.5*rho), -0.5*rho)
 			}
 		} else {
 			pinned = 0
 		}
-		prev, havePrev = pr, true
+		prev, havePrev, prevRb = pr, true, math.Abs(rb)
 		lastStep = s * max(math.Abs(dT)/T, math.Abs(dRho)/rho)
 		T = min(max(T+s*dT, lim.TFloor), lim.TCeil)
 		rho = min(rho+s*dRho, lim.RhoCeil)

@@ -159,7 +159,19 @@ func isRangeErr(err error) bool {
 	return ok && fe.Err == fluid.ErrOutOfRange
 }
 
-// wanted checks a single-phase state against the requested phase.
+// wantedTo checks the state st against the requested phase (st is set
+// to zero where it does not meet it).
+func (k *call) wantedTo(st *State) error {
+	if !satisfies(k.opt.Phase, st.Phase) {
+		err := k.notWanted(st.Phase)
+		*st = State{}
+		return err
+	}
+	return nil
+}
+
+// wanted is wantedTo for a state returned with err (passed on as they
+// are where err is not nil).
 func (k *call) wanted(st State, err error) (State, error) {
 	if err != nil {
 		return st, err
@@ -265,7 +277,8 @@ func duWith(f *fluid.Fluid, rho, u float64, opt Options) (State, error) {
 		return State{}, err
 	}
 	if k.sol.ok && !k.metaFluid() && rho <= f.Limits().RhoCeil {
-		tp, _ := k.triple()
+		tpv, _ := k.triple()
+		tp := &tpv
 		_, hi, three := tripleURange(tp, 1/rho)
 		below := three && u <= hi+qU.tol(f, nil, u) // in or below the three-phase mixtures
 		switch {
@@ -743,7 +756,9 @@ func (k *call) pd(p, rho float64) (State, error) {
 	// isochore meets the dome below the solution, not above it.
 	e, cached := f.SaturationEstimateAtP(p)
 	pl := cacheUndecided
-	if cached {
+	if cached && !k.onTripleP(p) {
+		// (On the triple line the saturation at p decides: a saturated
+		// liquid there has no colder liquid to solve for.)
 		pl = placeTRho(&e, rho)
 	}
 	tsat := 0.0 // the saturation temperature, where ρ is denser than the saturated liquid
@@ -764,6 +779,14 @@ func (k *call) pd(p, rho float64) (State, error) {
 		if err == nil {
 			if q, in := qualityOf(rho, &s); in {
 				return k.finishSat(&s, q)
+			}
+			// A saturated phase's density to rounding (from a
+			// saturation solved from T; this one is from p).
+			if rl := s.Liquid.Rho; math.Abs(rho-rl) <= qRho.tol(f, nil, rl) {
+				return k.finishSat(&s, 0)
+			}
+			if rv := s.Vapor.Rho; math.Abs(rho-rv) <= qRho.tol(f, nil, rv) {
+				return k.finishSat(&s, 1)
 			}
 			if rho >= s.Liquid.Rho {
 				thi, T0 = s.T, s.T*(1-1e-9)

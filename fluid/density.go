@@ -4,6 +4,7 @@ import (
 	"math"
 
 	"github.com/tripoint-thermo/tripoint/helmholtz"
+	"github.com/tripoint-thermo/tripoint/internal/elem"
 	"github.com/tripoint-thermo/tripoint/internal/evalcount"
 )
 
@@ -51,6 +52,12 @@ const auxBand = 0.05
 // rhoStepTol is the relative Newton step in ρ below which a root is taken
 // as converged: the residual of p is then at the level of its rounding.
 const rhoStepTol = 1e-14
+
+// spinodalTol is the relative difference from a spinodal pressure below
+// which a target pressure is the spinodal's to rounding (the scatter of
+// p = ρRT(1 + δαʳ_δ) next to a spinodal: a few 1e-15 in the log of the
+// density solver near CO2's critical point).
+const spinodalTol = 1e-14
 
 // residual evaluates αʳ and its derivatives but the third δ-derivative,
 // which only Derivs and the critical point of an equation need. Every
@@ -108,7 +115,7 @@ func (it *isotherm) eval(delta float64) helmholtz.DeltaDerivs {
 //
 // Density allocates nothing unless it returns an error.
 func (f *Fluid) Density(T, p float64, root Root) (float64, error) {
-	rho, _, err := f.densityTP("fluid.Density", T, p, root, 0, false)
+	rho, _, err := f.densityTP("fluid.Density", T, p, root, 0, false, nil)
 	return rho, err
 }
 
@@ -122,20 +129,54 @@ func (f *Fluid) Density(T, p float64, root Root) (float64, error) {
 // Props(T, ρ) would give them. Special cases are those of Density and
 // Props.
 func (f *Fluid) PropsTP(T, p float64, root Root, rhoGuess float64) (Props, error) {
-	rho, fl, err := f.densityTP("fluid.PropsTP", T, p, root, rhoGuess, true)
+	return f.propsTP("fluid.PropsTP", T, p, root, rhoGuess, true)
+}
+
+// propsTP is PropsTP (wantMeta: flag a root that is not the stable
+// phase Metastable) and PropsTPOnBranch, for the operation op.
+func (f *Fluid) propsTP(op string, T, p float64, root Root, rhoGuess float64, wantMeta bool) (Props, error) {
+	var fr fullRoot
+	rho, fl, err := f.densityTP(op, T, p, root, rhoGuess, wantMeta, &fr)
 	if err != nil {
 		return Props{}, err
 	}
-	pr := f.props(T, rho)
+	var pr Props
+	if fr.ok {
+		// The root's last Newton iteration, evaluated fully.
+		pr = f.propsFromResidual(T, fr.rho, &fr.r)
+	} else {
+		pr = f.props(T, rho)
+	}
 	pr.Flags |= fl
 	if c := f.limits.PCeil; pr.P > c && pr.P-p <= 1e-10*p+1e-12*pr.Rho*f.r*T {
 		// p within the ceiling, reproduced at the root to rounding (the
 		// backward-residual floor of DESIGN.md), which lands above it.
 		chk := pr
 		chk.P = c
-		return pr, f.checkProps("fluid.PropsTP", &chk)
+		return pr, f.checkProps(op, &chk)
 	}
-	return pr, f.checkProps("fluid.PropsTP", &pr)
+	return pr, f.checkProps(op, &pr)
+}
+
+// PropsTPOnBranch is PropsTP on the liquid (root RootLiquid) or the
+// vapour (RootVapor) root, for a caller that has placed (T, p) against
+// the vapour pressure itself (package flash, by the cached saturation
+// curve): it does not judge which phase is stable there, so that it
+// solves no saturation and flags no state Metastable, and it costs the
+// root's Newton iterations alone (the last a full evaluation, see
+// PropsTP). With RootStable it is PropsTP. Special cases are those of
+// Density and Props.
+func (f *Fluid) PropsTPOnBranch(T, p float64, root Root, rhoGuess float64) (Props, error) {
+	return f.propsTP("fluid.PropsTPOnBranch", T, p, root, rhoGuess, root == RootStable)
+}
+
+// fullRoot receives the full evaluation of a root that solveDelta was
+// asked for: αʳ and all the derivatives Props needs at δ = rho/ρr, so
+// that Props at the root, (T, rho), follows without another evaluation.
+type fullRoot struct {
+	rho float64 // the root, kg/m³
+	r   helmholtz.Derivs
+	ok  bool // set where the root was found and evaluated
 }
 
 // StableRoot returns the root of the stable fluid phase of f at
@@ -160,7 +201,7 @@ func (f *Fluid) StableRoot(T, p float64) (root Root, flags Flags, err error) {
 	tau := f.tc / T
 	pi := p / (f.rhoc * f.r * T)
 	if T >= f.triple.T {
-		if s, ok := f.satT(tau); ok {
+		if s, ok := f.satT(tau, false); ok {
 			ps := s.pi()
 			if onVapourCurve(pi, ps, tau) {
 				return RootLiquid, Indeterminate, nil
@@ -173,7 +214,7 @@ func (f *Fluid) StableRoot(T, p float64) (root Root, flags Flags, err error) {
 	}
 	var it isotherm
 	it.set(f, tau)
-	d, r, st := f.solveDelta(&it, pi, branchVapor, 0)
+	d, r, st := f.solveDelta(&it, pi, branchVapor, 0, nil)
 	if st != rootFound {
 		return RootLiquid, 0, nil
 	}
@@ -227,8 +268,11 @@ func (f *Fluid) checkTP(op string, T, p float64) error {
 // densityTP solves for the density at (T, p) on root. It returns the
 // density and flags: Indeterminate for RootStable at exactly the vapour
 // pressure and, when wantMeta, Metastable for a root that is not the
-// stable phase. Every evaluation is on the isotherm T.
-func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wantMeta bool) (float64, Flags, error) {
+// stable phase. Every evaluation is on the isotherm T, except that with
+// fr not nil the root's last Newton iteration is a full evaluation,
+// stored in fr (fr.ok false where the root came otherwise: below the
+// triple point, where both roots are compared).
+func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wantMeta bool, fr *fullRoot) (float64, Flags, error) {
 	if err := f.checkTP(op, T, p); err != nil {
 		return 0, 0, err
 	}
@@ -246,7 +290,12 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 	var it isotherm
 	it.set(f, tau)
 	if T >= f.crit.T {
-		d, _, st := f.solveDelta(&it, pi, branchSingle, g)
+		if g == 0 {
+			if d := f.denseTable(); d != nil {
+				g, _ = d.start(T, p)
+			}
+		}
+		d, _, st := f.solveDelta(&it, pi, branchSingle, g, fr)
 		return f.rootResult(op, T, p, d, st, branchSingle, 0)
 	}
 	switch root {
@@ -255,7 +304,7 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 		if root == RootVapor {
 			b = branchVapor
 		}
-		d, r, st := f.solveDelta(&it, pi, b, g)
+		d, r, st := f.solveDelta(&it, pi, b, g, fr)
 		var fl Flags
 		if wantMeta && st == rootFound && f.stableBranch(&it, T, pi, b, d, &r) != b {
 			fl = Metastable
@@ -264,11 +313,11 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 	}
 	// RootStable.
 	if b, ok := f.auxSide(T, p); ok {
-		d, _, st := f.solveDelta(&it, pi, b, g)
+		d, _, st := f.solveDelta(&it, pi, b, g, fr)
 		return f.rootResult(op, T, p, d, st, b, 0)
 	}
 	if T >= f.triple.T {
-		if s, ok := f.satT(tau); ok {
+		if s, ok := f.satT(tau, false); ok {
 			b := branchVapor
 			ps := s.pi()
 			if pi >= ps {
@@ -280,7 +329,7 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 				// do not fix the phase.
 				fl = Indeterminate
 			}
-			d, _, st := f.solveDelta(&it, pi, b, g)
+			d, _, st := f.solveDelta(&it, pi, b, g, fr)
 			if st != rootFound && (fl != 0 || f.crit.T-T < critBand) {
 				// Within a millikelvin of Tc the saturation pressure is
 				// the near-critical model's (SaturationAtT), which may lie
@@ -290,7 +339,7 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 				if b == branchLiquid {
 					o = branchVapor
 				}
-				if d2, _, st2 := f.solveDelta(&it, pi, o, 0); st2 == rootFound {
+				if d2, _, st2 := f.solveDelta(&it, pi, o, 0, fr); st2 == rootFound {
 					return f.rootResult(op, T, p, d2, st2, o, fl)
 				}
 			}
@@ -298,8 +347,8 @@ func (f *Fluid) densityTP(op string, T, p float64, root Root, guess float64, wan
 		}
 	}
 	// Both roots, the lower Gibbs energy wins.
-	dl, rl, stl := f.solveDelta(&it, pi, branchLiquid, 0)
-	dv, rv, stv := f.solveDelta(&it, pi, branchVapor, 0)
+	dl, rl, stl := f.solveDelta(&it, pi, branchLiquid, 0, nil)
+	dv, rv, stv := f.solveDelta(&it, pi, branchVapor, 0, nil)
 	switch {
 	case stl == rootFound && stv == rootFound:
 		if gibbsReduced(dl, &rl) <= gibbsReduced(dv, &rv) {
@@ -338,7 +387,7 @@ func (f *Fluid) stableBranch(it *isotherm, T, pi float64, b branch, d float64, r
 		return s
 	}
 	if T >= f.triple.T {
-		if s, ok := f.satT(it.Tau()); ok {
+		if s, ok := f.satT(it.Tau(), false); ok {
 			if pi >= s.pi() {
 				return branchLiquid
 			}
@@ -349,7 +398,7 @@ func (f *Fluid) stableBranch(it *isotherm, T, pi float64, b branch, d float64, r
 	if b == branchLiquid {
 		other = branchVapor
 	}
-	d2, r2, st := f.solveDelta(it, pi, other, 0)
+	d2, r2, st := f.solveDelta(it, pi, other, 0, nil)
 	if st != rootFound {
 		return b
 	}
@@ -364,7 +413,7 @@ func (f *Fluid) stableBranch(it *isotherm, T, pi float64, b branch, d float64, r
 // δαʳ_δ. Differences of it between two densities at one temperature are
 // differences of g/(RT).
 func gibbsReduced(d float64, r *helmholtz.DeltaDerivs) float64 {
-	return math.Log(d) + r.A + d*r.D
+	return elem.Log(d) + r.A + d*r.D
 }
 
 // rootResult turns a solver status into the Density result.
@@ -416,7 +465,15 @@ const (
 // above it or (∂p/∂ρ)_T ≤ 0 (beyond the spinodal); for the liquid branch
 // the mirror image. Newton steps that leave the bracket are replaced by
 // bisection, so every iteration shrinks it or converges.
-func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64) (float64, helmholtz.DeltaDerivs, rootStatus) {
+//
+// With fr not nil the root is also evaluated fully (fullRoot). Once a
+// Newton step shows the next iterate to be within rounding of the root
+// (fullNext), the iterates from there on are evaluated fully, so that
+// the root usually costs no evaluation beyond the iteration's; where the
+// iteration converges on an isotherm evaluation, the root is evaluated
+// fully afterwards. A full iterate is at δ = ρ/ρr with ρ = δ·ρr, exactly
+// the δ at which Props(T, ρ) evaluates.
+func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64, fr *fullRoot) (float64, helmholtz.DeltaDerivs, rootStatus) {
 	tau := it.Tau()
 	lo, hi := 0.0, f.limits.RhoCeil/f.rhoc
 	var x float64
@@ -426,11 +483,13 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64) (float
 		x = pi // ideal gas
 	case branchLiquid:
 		lo = f.crit.Rho / f.rhoc
-		if f.aux.rhoLiq != nil {
+		switch {
+		case g > 0:
+		case f.aux.rhoLiq != nil:
 			// Below its range the auxiliary equation's extrapolation
 			// can leave the liquid branch: start from its end.
 			x = f.aux.rhoLiq(max(f.tc/tau, f.limits.TMin)) / f.rhoc
-		} else {
+		default:
 			x = f.triple.RhoLiquid / f.rhoc
 		}
 	default:
@@ -442,21 +501,43 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64) (float
 	// Status of the bracket ends: whether a stable point with p above
 	// (vapour, single: hi) or below (liquid: lo) the target was seen.
 	hiAbove, loBelow := false, false
+	// The stable point of least |p − target| seen: where the target lies
+	// within rounding of a spinodal pressure, p(ρ) is flat there to
+	// below rounding and no stable point need show the other sign.
+	bestX, bestRes := 0.0, math.Inf(1)
 	// A stable liquid point seen: far from the critical point and below
 	// the triple point p(ρ) of some equations falls again at densities
 	// above the liquid branch, so an unstable point denser than it lies
 	// above the branch, not below.
 	anchor := math.Inf(1)
 	var r helmholtz.DeltaDerivs
+	full, prevStep := false, math.Inf(1)
 	for n := 0; n < 300; n++ {
 		if !(x > lo && x < hi) {
 			x = bracketMid(lo, hi, b)
 		}
-		r = it.eval(x)
+		// A full iterate is at δ = ρ/ρr, ρ = δ·ρr; where no such δ lies
+		// inside the bracket (it is a few ulps wide), on the isotherm at
+		// δ itself.
+		isFull := false
+		if full {
+			if xr := x * f.rhoc / f.rhoc; xr > lo && xr < hi {
+				fr.rho = x * f.rhoc
+				x, isFull = xr, true
+				fr.r = f.residual(x, tau)
+				r = fr.r.Delta()
+			}
+		}
+		if !isFull {
+			r = it.eval(x)
+		}
 		P := x * (1 + x*r.D)
 		dP := 1 + 2*x*r.D + x*x*r.DD
 		res := P - pi
 		stable := dP > 0
+		if stable && math.Abs(res) < bestRes {
+			bestX, bestRes = x, math.Abs(res)
+		}
 		switch b {
 		case branchVapor:
 			if !stable || res > 0 {
@@ -505,18 +586,31 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64) (float
 					if xn == x {
 						xn = math.Nextafter(x, x+math.Copysign(1, step))
 					}
-					rn := it.eval(xn)
-					if math.Abs(xn*(1+xn*rn.D)-pi) < math.Abs(res) {
-						return xn, rn, rootFound
+					if rn := it.eval(xn); math.Abs(xn*(1+xn*rn.D)-pi) < math.Abs(res) {
+						x, r, isFull = xn, rn, false
 					}
+				}
+				if fr != nil {
+					if !isFull {
+						fr.rho = x * f.rhoc
+						fr.r = f.residual(fr.rho/f.rhoc, tau)
+					}
+					fr.ok = true
 				}
 				return x, r, rootFound
 			}
+			rel := math.Abs(step) / x
+			full = full || fr != nil && fullNext(rel, prevStep)
+			prevStep = rel
 			xn := x + step
 			switch {
+			case rel <= 1e-4:
+				// Close to the root the forms below differ from the
+				// Newton step by a few times its square, relative: the
+				// Newton step, without their logarithm and exponential.
 			case b != branchLiquid && P > 0 && pi > 0:
 				// Newton in ln ρ on ln p: nearly linear for gases.
-				xn = x * math.Exp(-math.Log(P/pi)*P/(x*dP))
+				xn = x * elem.Exp(-elem.Log(P/pi)*P/(x*dP))
 			case b == branchLiquid:
 				// A Tait-form step, ρ = ρ₀(1 + K′Δp/K)^(1/K′) with the
 				// bulk modulus K = ρ(∂p/∂ρ)_T here and K′ = dK/dp = 7,
@@ -525,7 +619,7 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64) (float
 				// compressed liquid where it is not.
 				const kp = 7.0
 				if base := 1 + kp*(pi-P)/(x*dP); base > 0.25 {
-					xn = x * math.Pow(base, 1/kp)
+					xn = x * elem.Exp(elem.Log(base)/kp)
 				}
 			}
 			x = xn
@@ -538,6 +632,18 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64) (float
 	}
 	switch {
 	case b == branchVapor && !hiAbove, b == branchLiquid && hiAbove && !loBelow:
+		if hi-lo <= 4e-16*hi && bestRes <= spinodalTol*math.Abs(pi) {
+			// The target is the spinodal pressure to rounding: the
+			// stable point closest to it.
+			x, r = bestX, it.eval(bestX)
+			if fr != nil {
+				fr.rho = x * f.rhoc
+				fr.r = f.residual(fr.rho/f.rhoc, tau)
+				fr.ok = true
+				r = fr.r.Delta()
+			}
+			return x, r, rootFound
+		}
 		return x, r, rootBeyondSpinodal
 	case b != branchVapor && !hiAbove:
 		return x, r, rootAboveCeil
@@ -545,16 +651,39 @@ func (f *Fluid) solveDelta(it *isotherm, pi float64, b branch, g float64) (float
 	if hi-lo <= 4e-16*hi {
 		// The bracket closed on the root at rounding level: the end
 		// whose p is closer (a dense liquid's scatters by 1e-13·ρRT).
-		r = it.eval(hi)
+		x, r = hi, it.eval(hi)
 		if lo > 0 {
 			rl := it.eval(lo)
 			if math.Abs(lo*(1+lo*rl.D)-pi) < math.Abs(hi*(1+hi*r.D)-pi) && 1+2*lo*rl.D+lo*lo*rl.DD > 0 {
-				return lo, rl, rootFound
+				x, r = lo, rl
 			}
 		}
-		return hi, r, rootFound
+		if fr != nil {
+			fr.rho = x * f.rhoc
+			fr.r = f.residual(fr.rho/f.rhoc, tau)
+			fr.ok = true
+			r = fr.r.Delta()
+		}
+		return x, r, rootFound
 	}
 	return x, r, rootNoConvergence
+}
+
+// fullNext reports whether a Newton iteration whose relative step is
+// step, after one of prev, will converge at its next iterate: the step
+// of a root solver converging quadratically is about K·step² with K the
+// ratio step/prev² of its last two. Below 1e-7 the next step is at the
+// rounding level (rhoStepTol) for the K of the equations here (0.1 to
+// 2); up to 1e-6 where the measured K says so. Over 4000 states of the
+// three fluids (40 temperatures from the triple point to 2 Tc or TCeil,
+// 40 pressures from 1e-3 to 10 pc) it took PropsTP's isotherm
+// evaluations from 3.7–4.1 to 2.8–3.1 per call; 16 roots (0.4 %) needed
+// more than one full evaluation.
+func fullNext(step, prev float64) bool {
+	if step <= 1e-7 {
+		return true
+	}
+	return step <= 1e-6 && max(step/(prev*prev), 0.1)*step*step <= rhoStepTol
 }
 
 // bracketMid returns a point inside (lo, hi), geometric where the bracket

@@ -136,6 +136,59 @@ func TestDensityMetastable(t *testing.T) {
 	}
 }
 
+// TestPropsTPOnBranch checks PropsTPOnBranch against PropsTP: on the
+// stable root the same state (the same iteration: bit for bit), on the
+// metastable root the same state without the Metastable flag, beyond the
+// spinodal the same error, and with RootStable PropsTP itself; and that
+// PropsTP's properties are those of Props at its density, bit for bit
+// (the root's full evaluation is at the δ Props takes).
+func TestPropsTPOnBranch(t *testing.T) {
+	t.Parallel()
+	for _, f := range allFluids(t) {
+		for _, T := range satGrid(f, 12) {
+			s, err := f.SaturationAtT(T)
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, c := range []struct {
+				p    float64
+				root Root
+			}{{3 * s.P, RootLiquid}, {0.3 * s.P, RootVapor}, {0.97 * s.P, RootLiquid}, {1.03 * s.P, RootVapor},
+				{1.001 * s.P, RootStable}, {0.999 * s.P, RootStable}} {
+				want, errW := f.PropsTP(T, c.p, c.root, 0)
+				got, errG := f.PropsTPOnBranch(T, c.p, c.root, 0)
+				if (errW == nil) != (errG == nil) || errW != nil && !errors.Is(errG, errorSentinel(errW)) {
+					t.Errorf("%s T = %v, p = %v, %v: errors %v and %v", f.name, T, c.p, c.root, errW, errG)
+					continue
+				}
+				if errW != nil {
+					continue
+				}
+				if c.root != RootStable {
+					want.Flags &^= Metastable
+				}
+				if got != want {
+					t.Errorf("%s T = %v, p = %v, %v: %+v, PropsTP %+v", f.name, T, c.p, c.root, got, want)
+				}
+				pr, err := f.Props(T, want.Rho)
+				pr.Flags |= want.Flags & (Metastable | Indeterminate)
+				if err != nil || pr != want {
+					t.Errorf("%s T = %v, p = %v, %v: PropsTP %+v, Props at its density %+v (%v)", f.name, T, c.p, c.root, want, pr, err)
+				}
+			}
+		}
+	}
+}
+
+// errorSentinel returns the sentinel an error of package fluid wraps.
+func errorSentinel(err error) error {
+	var e *Error
+	if errors.As(err, &e) {
+		return e.Err
+	}
+	return err
+}
+
 func TestDensityErrors(t *testing.T) {
 	for _, f := range allFluids(t) {
 		nan, inf := math.NaN(), math.Inf(1)
@@ -170,6 +223,8 @@ func TestDensityAllocs(t *testing.T) {
 		"supercritical": func() { f.Density(800, 50e6, RootStable) },
 		"nearSat":       func() { f.Density(400, s.P*(1+1e-6), RootStable) },
 		"metastable":    func() { f.PropsTP(400, s.P*0.9, RootLiquid, 0) },
+		"onBranch":      func() { f.PropsTPOnBranch(400, s.P*0.9, RootLiquid, 0) },
+		"aboveTc":       func() { f.EstimateAboveTcPH(3e7, 2e6) },
 	} {
 		if a := testing.AllocsPerRun(20, fn); a != 0 {
 			t.Errorf("%s: %v allocs", name, a)

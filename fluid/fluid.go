@@ -58,6 +58,9 @@ type Fluid struct {
 	// first use; shared by the copies WithReference makes, nil for a
 	// fluid not made by the registry.
 	satHolder *satCurveHolder
+	// denseHolder holds the table of densities above Tc that starts the
+	// density solver there (densetable.go), as satHolder.
+	denseHolder *denseTableHolder
 }
 
 // auxiliary holds a fluid's published auxiliary equations, in SI units.

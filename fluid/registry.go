@@ -16,6 +16,7 @@ var registry = sync.OnceValues(func() (map[string]*Fluid, []string) {
 	for _, c := range constructors {
 		f := c()
 		f.satHolder = &satCurveHolder{}
+		f.denseHolder = &denseTableHolder{}
 		names = append(names, f.name)
 		for _, n := range append([]string{f.name}, f.aliases...) {
 			m[normalize(n)] = f

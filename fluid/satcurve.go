@@ -3,8 +3,9 @@ package fluid
 import (
 	"errors"
 	"math"
-	"sort"
 	"sync"
+
+	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
 // This file holds a cached representation of a fluid's own vapour–liquid
@@ -34,13 +35,18 @@ type satCurveHolder struct {
 // θ^β of the densities and energies near the critical point are nearly
 // linear) — that follows it best there, and its error is bounded: both
 // are measured against the equation's own saturation between the nodes
-// when the curve is built (see satCurveSafety). Values are in the
-// equation's default reference state. The curve is immutable once built.
+// when the curve is built (see satCurveSafety). Each interpolant is
+// stored as the coefficients of its cubic in the position s ∈ [0, 1]
+// within the interval in its coordinate (satPoly), which the estimates
+// evaluate as the build measured them. Values are in the equation's
+// default reference state. The curve is immutable once built.
 type satCurve struct {
 	nodes []satNode
 	ivs   []satInterval // ivs[i] is the interval nodes[i]..nodes[i+1]
 	lnp   []float64     // ln p of the nodes, ascending (for the search in p)
 	ts    []float64     // T of the nodes, ascending
+	tIdx  nodeIndex     // of ts
+	pIdx  nodeIndex     // of lnp
 	tc    float64       // Critical().T
 	// mono[q] is +1 or −1 where quantity q rises or falls with T along
 	// the whole curve (node values and slopes), else 0.
@@ -71,29 +77,49 @@ const (
 
 // satNode is one node of the curve: T, the interpolated quantities v and
 // their derivatives d with T along the curve, and the saturated phases'
-// properties that start solvers (interpolated linearly, without bounds).
+// properties that start solvers (SatStart: interpolated linearly, without
+// bounds).
 type satNode struct {
 	T     float64
 	u     [nCoord]float64 // T in each coordinate
 	tu    [nCoord]float64 // dT/du in each coordinate
 	v, d  [nSatQ]float64
-	start [2]satStart // liquid, vapour
-}
-
-// satStart holds properties of a saturated phase that the estimates
-// interpolate linearly between nodes, for starting values only.
-type satStart struct {
-	Cv, Cp, W, KappaT, Expansivity, DpDrho, DpDT float64
+	start [2]SatStart // liquid, vapour
 }
 
 // satInterval is what the curve knows of one interval: the coordinate of
-// each interpolant and the bound of its error, in the quantity's own
-// units (ln p and ln ρ: relative, stored as e^err − 1).
+// each interpolant, its cubic there and the bound of its error, in the
+// quantity's own units (ln p and ln ρ: relative, stored as e^err − 1).
 type satInterval struct {
 	coord   [nSatQ]uint8
-	uses    uint8 // bit k set: some quantity is cubic in coordinate k
+	poly    [nSatQ]satPoly
 	err     [nSatQ]float64
 	h, hinv [nCoord]float64 // the width in each coordinate and its inverse
+}
+
+// satPoly is a cubic in the position s ∈ [0, 1] within an interval in
+// one coordinate: c[0] + s(c[1] + s(c[2] + s·c[3])).
+type satPoly [4]float64
+
+// hermitePoly returns the cubic Hermite interpolant of the values v0 at
+// s = 0 and v1 at s = 1 with the slopes m0 and m1 in s there.
+func hermitePoly(v0, m0, v1, m1 float64) satPoly {
+	return satPoly{v0, m0, 3*(v1-v0) - 2*m0 - m1, 2*(v0-v1) + m0 + m1}
+}
+
+// at returns the cubic at s.
+func (p *satPoly) at(s float64) float64 { return p[0] + s*(p[1]+s*(p[2]+s*p[3])) }
+
+// ds returns the derivative of the cubic with s at s.
+func (p *satPoly) ds(s float64) float64 { return p[1] + s*(2*p[2]+s*3*p[3]) }
+
+// polyOf returns the cubic of quantity q in coordinate k over interval i
+// of c.
+func (c *satCurve) polyOf(i, q, k int) satPoly {
+	a, b := &c.nodes[i], &c.nodes[i+1]
+	h := c.ivs[i].h[k]
+	// Slopes in u are the slopes in T times dT/du.
+	return hermitePoly(a.v[q], a.d[q]*a.tu[k]*h, b.v[q], b.d[q]*b.tu[k]*h)
 }
 
 // Build parameters of the curve.
@@ -200,6 +226,7 @@ func (f *Fluid) buildSatCurve() (*satCurve, error) {
 	for q := range nSatQ {
 		c.mono[q] = monotone(c.nodes, q)
 	}
+	c.tIdx, c.pIdx = newNodeIndex(c.ts), newNodeIndex(c.lnp)
 	// The coordinate and the error of each interpolant in each interval,
 	// measured between the nodes.
 	for i := range c.ivs {
@@ -227,13 +254,20 @@ func (f *Fluid) buildSatCurve() (*satCurve, error) {
 // starts, and their difference is added to the error.
 func (f *Fluid) measureInterval(c *satCurve, i int) error {
 	a, b := &c.nodes[i], &c.nodes[i+1]
+	var polys [nCoord][nSatQ]satPoly
+	for k := range nCoord {
+		for q := range nSatQ {
+			polys[k][q] = c.polyOf(i, q, k)
+		}
+	}
 	var errs [nCoord][nSatQ]float64
 	var spread [nSatQ]float64
 	for _, fr := range [...]float64{0.25, 0.5, 0.75} {
 		T := a.T + fr*(b.T-a.T)
-		var bs satBasis
-		c.basis(i, T, coordT, &bs)
-		rl, rv := math.Exp(bs.value(a, b, sqLnRhoL)), math.Exp(bs.value(a, b, sqLnRhoV))
+		var l satLoc
+		c.locateCoords(&l, i, T, allCoords)
+		sT := l.s[coordT]
+		rl, rv := math.Exp(polys[coordT][sqLnRhoL].at(sT)), math.Exp(polys[coordT][sqLnRhoV].at(sT))
 		s, err := f.SaturationAtTFrom(T, rl, rv)
 		if err != nil {
 			return err
@@ -255,9 +289,8 @@ func (f *Fluid) measureInterval(c *satCurve, i int) error {
 			}
 		}
 		for k := range nCoord {
-			c.basis(i, T, k, &bs)
 			for q := range nSatQ {
-				errs[k][q] = max(errs[k][q], math.Abs(bs.value(a, b, q)-e[q]))
+				errs[k][q] = max(errs[k][q], math.Abs(polys[k][q].at(l.s[k])-e[q]))
 			}
 		}
 	}
@@ -270,7 +303,7 @@ func (f *Fluid) measureInterval(c *satCurve, i int) error {
 			}
 		}
 		iv.coord[q] = uint8(k)
-		iv.uses |= 1 << k
+		iv.poly[q] = polys[k][q]
 		iv.err[q] = satCurveSafety*(errs[k][q]+spread[q]) + f.satFloor(q, a, b)
 		if q == sqLnP || q == sqLnRhoL || q == sqLnRhoV {
 			iv.err[q] = math.Expm1(iv.err[q])
@@ -310,7 +343,7 @@ func (f *Fluid) satFloor(q int, a, b *satNode) float64 {
 // satValues returns the interpolated quantities of the saturation s.
 func (f *Fluid) satValues(s *Saturation) [nSatQ]float64 {
 	l, v := &s.Liquid, &s.Vapor
-	return [nSatQ]float64{math.Log(s.P), math.Log(l.Rho), math.Log(v.Rho),
+	return [nSatQ]float64{elem.Log(s.P), elem.Log(l.Rho), elem.Log(v.Rho),
 		l.H, v.H, l.S, v.S, l.U, v.U}
 }
 
@@ -331,7 +364,7 @@ func (f *Fluid) satNodeOf(s *Saturation) satNode {
 		n.d[sqHL+i] = dh
 		n.d[sqSL+i] = ds
 		n.d[sqUL+i] = du
-		n.start[i] = satStart{Cv: pr.Cv, Cp: pr.Cp, W: pr.W, KappaT: pr.KappaT,
+		n.start[i] = SatStart{Cv: pr.Cv, Cp: pr.Cp, W: pr.W, KappaT: pr.KappaT,
 			Expansivity: pr.Expansivity, DpDrho: pr.DpDrho, DpDT: pr.DpDT}
 	}
 	return n
@@ -354,402 +387,216 @@ func satSlopes(pr *Props, gamma float64) (drho, dh, ds, du float64) {
 	return drho, dh, ds, du
 }
 
-// satBasis is the cubic Hermite basis of an interval at one point in one
-// coordinate u: the weights of the end values (h00, h01) and of the end
-// slopes with T (h10, h11: the slopes in u times the interval's width in
-// u, by du/dT at each end), and their derivatives with T (g…).
-type satBasis struct {
-	h00, h10, h01, h11 float64
-	g00, g10, g01, g11 float64
-}
-
 // coordOf returns coordinate k at T and du/dT there (Tc = Critical().T).
 func coordOf(k int, T, Tc float64) (u, dudT float64) {
 	switch k {
 	case coordY:
 		return 1 / T, -1 / (T * T)
 	case coordX:
-		return math.Log(1 - T/Tc), -1 / (Tc - T)
+		return elem.Log(1 - T/Tc), -1 / (Tc - T)
 	}
 	return T, 1
 }
 
-// basis sets bs to the basis of interval i at T in coordinate k.
-func (c *satCurve) basis(i int, T float64, k int, bs *satBasis) {
-	u, ku := coordOf(k, T, c.tc)
-	c.basisAt(i, k, u, ku, bs)
-}
-
-// basisAt sets bs to the basis of interval i in coordinate k at u, where
-// du/dT = ku.
-func (c *satCurve) basisAt(i, k int, u, ku float64, bs *satBasis) {
-	a, b := &c.nodes[i], &c.nodes[i+1]
-	iv := &c.ivs[i]
-	h, hinv := iv.h[k], iv.hinv[k]
-	s := (u - a.u[k]) * hinv
-	s2 := s * s
-	s3 := s2 * s
-	// Slopes in u are the slopes in T times dT/du.
-	bs.h00, bs.h10 = 2*s3-3*s2+1, (s3-2*s2+s)*h*a.tu[k]
-	bs.h01, bs.h11 = -2*s3+3*s2, (s3-s2)*h*b.tu[k]
-	bs.g00, bs.g10 = (6*s2-6*s)*hinv*ku, (3*s2-4*s+1)*ku*a.tu[k]
-	bs.g01, bs.g11 = (6*s-6*s2)*hinv*ku, (3*s2-2*s)*ku*b.tu[k]
-}
-
-// value returns the interpolant of quantity q between nodes a and b.
-func (bs *satBasis) value(a, b *satNode, q int) float64 {
-	return bs.h00*a.v[q] + bs.h10*a.d[q] + bs.h01*b.v[q] + bs.h11*b.d[q]
-}
-
-// slope returns the derivative with T of the interpolant of quantity q.
-func (bs *satBasis) slope(a, b *satNode, q int) float64 {
-	return bs.g00*a.v[q] + bs.g10*a.d[q] + bs.g01*b.v[q] + bs.g11*b.d[q]
-}
-
-// interp evaluates the interpolants of interval i at T into v and their
-// derivatives with T into dv.
-func (c *satCurve) interp(i int, T float64, v, dv *[nSatQ]float64) {
-	a, b := &c.nodes[i], &c.nodes[i+1]
-	iv := &c.ivs[i]
-	var bs [nCoord]satBasis
-	for k := range nCoord {
-		if iv.uses&(1<<k) != 0 {
-			c.basis(i, T, k, &bs[k])
-		}
+// tOfCoord returns the T at which coordinate k is u (coordOf inverted).
+func tOfCoord(k int, u, Tc float64) float64 {
+	switch k {
+	case coordY:
+		return 1 / u
+	case coordX:
+		return Tc * -math.Expm1(u)
 	}
-	for q := range nSatQ {
-		h := &bs[iv.coord[q]]
-		v[q] = h.h00*a.v[q] + h.h10*a.d[q] + h.h01*b.v[q] + h.h11*b.d[q]
-		dv[q] = h.g00*a.v[q] + h.g10*a.d[q] + h.g01*b.v[q] + h.g11*b.d[q]
+	return u
+}
+
+// satLoc is a temperature T located in interval i of a curve, with its
+// position s in the interval and ds/dT in each coordinate computed so
+// far (bit k of have: coordinate k).
+type satLoc struct {
+	i    int
+	T    float64
+	have uint8
+	s    [nCoord]float64
+	dsdT [nCoord]float64
+}
+
+// locateCoords sets l to T in interval i, with the coordinates in the
+// bit mask uses.
+func (c *satCurve) locateCoords(l *satLoc, i int, T float64, uses uint8) {
+	iv := &c.ivs[i]
+	a := &c.nodes[i]
+	l.i, l.T = i, T
+	l.have |= uses
+	if uses&(1<<coordT) != 0 {
+		l.s[coordT], l.dsdT[coordT] = (T-a.u[coordT])*iv.hinv[coordT], iv.hinv[coordT]
 	}
+	if uses&(1<<coordY) != 0 {
+		y := 1 / T
+		l.s[coordY], l.dsdT[coordY] = (y-a.u[coordY])*iv.hinv[coordY], -y*y*iv.hinv[coordY]
+	}
+	if uses&(1<<coordX) != 0 {
+		u, du := coordOf(coordX, T, c.tc)
+		l.s[coordX], l.dsdT[coordX] = (u-a.u[coordX])*iv.hinv[coordX], du*iv.hinv[coordX]
+	}
+}
+
+// allCoords is the bit mask of every coordinate.
+const allCoords = 1<<nCoord - 1
+
+// valueAt and slopeAt are value and slope at an l whose coordinates are
+// all computed (locateCoords with allCoords).
+func (c *satCurve) valueAt(l *satLoc, q int) float64 {
+	iv := &c.ivs[l.i]
+	return iv.poly[q].at(l.s[iv.coord[q]])
+}
+
+func (c *satCurve) slopeAt(l *satLoc, q int) float64 {
+	iv := &c.ivs[l.i]
+	k := iv.coord[q]
+	return iv.poly[q].ds(l.s[k]) * l.dsdT[k]
+}
+
+// value returns the interpolant of quantity q at l.
+func (c *satCurve) value(l *satLoc, q int) float64 {
+	iv := &c.ivs[l.i]
+	k := iv.coord[q]
+	if l.have&(1<<k) == 0 {
+		c.locateCoords(l, l.i, l.T, 1<<k)
+	}
+	return iv.poly[q].at(l.s[k])
+}
+
+// slope returns the derivative with T of the interpolant of quantity q
+// at l.
+func (c *satCurve) slope(l *satLoc, q int) float64 {
+	iv := &c.ivs[l.i]
+	k := iv.coord[q]
+	if l.have&(1<<k) == 0 {
+		c.locateCoords(l, l.i, l.T, 1<<k)
+	}
+	return iv.poly[q].ds(l.s[k]) * l.dsdT[k]
 }
 
 // intervalT returns the interval holding T, or −1 outside the curve.
-func (c *satCurve) intervalT(T float64) int {
-	n := len(c.ts)
-	if !(T >= c.ts[0] && T <= c.ts[n-1]) {
-		return -1
-	}
-	return min(max(sort.SearchFloat64s(c.ts, T)-1, 0), n-2)
-}
+func (c *satCurve) intervalT(T float64) int { return c.tIdx.interval(c.ts, T) }
 
 // intervalP returns the interval holding ln p, or −1 outside the curve.
-func (c *satCurve) intervalP(lp float64) int {
-	n := len(c.lnp)
-	if !(lp >= c.lnp[0] && lp <= c.lnp[n-1]) {
+func (c *satCurve) intervalP(lp float64) int { return c.pIdx.interval(c.lnp, lp) }
+
+// nodeIndex finds the interval of ascending nodes xs that holds x in a
+// few steps: the range of the nodes is cut into 4 buckets per node, and
+// idx[b] is the last node at or below the start of bucket b, so that x
+// in bucket b lies in an interval from idx[b] to idx[b+1], found by
+// bisection (one or two steps, but where the nodes crowd, next to the
+// critical point).
+type nodeIndex struct {
+	x0, inv float64
+	idx     []uint16
+}
+
+func newNodeIndex(xs []float64) nodeIndex {
+	n := len(xs)
+	nb := 4 * n
+	ix := nodeIndex{x0: xs[0], inv: float64(nb) / (xs[n-1] - xs[0]), idx: make([]uint16, nb+2)}
+	j := 0
+	for b := range ix.idx {
+		xb := ix.x0 + float64(b)/ix.inv
+		for j+1 < n && xs[j+1] <= xb {
+			j++
+		}
+		ix.idx[b] = uint16(j)
+	}
+	return ix
+}
+
+// interval returns i with xs[i] ≤ x ≤ xs[i+1], the interval starting at
+// x where x is a node (the last interval at the last node), or −1 where x
+// lies outside the nodes.
+func (ix *nodeIndex) interval(xs []float64, x float64) int {
+	n := len(xs)
+	if !(x >= xs[0] && x <= xs[n-1]) {
 		return -1
 	}
-	return min(max(sort.SearchFloat64s(c.lnp, lp)-1, 0), n-2)
-}
-
-// SatEstimate is a point of a fluid's saturation curve estimated from a
-// cached representation of the equation's own curve (see
-// Fluid.SaturationEstimateAtT), with bounds of its error. It is for
-// placing states against the curve and for starting solvers; results
-// come from the equation (SaturationAtT, SaturationAtP and their warm
-// forms).
-//
-// Liquid and Vapor hold the estimated saturated phases in SI units with
-// the fluid's reference state, flagged Saturated: T, P, Rho, H, S, U, G
-// and F within the bounds of Err; Cv, Cp, W, KappaT, Expansivity,
-// DpDrho, DpDT, Z and JouleThomson interpolated linearly between nodes of
-// the curve, without a bound (starting values only).
-type SatEstimate struct {
-	T, P          float64
-	Liquid, Vapor Props
-	// Slope holds the derivatives along the curve with temperature:
-	// dp/dT in Pa/K, and for each phase dρ/dT, dh/dT, ds/dT and du/dT.
-	Slope SatSlope
-	// Err bounds |estimate − equation's saturation| of each value.
-	Err SatError
-}
-
-// SatSlope holds derivatives along the saturation curve with temperature:
-// P in Pa/K, and the phases' in kg/(m³·K), J/(kg·K), J/(kg·K²), J/(kg·K).
-type SatSlope struct {
-	P             float64
-	Liquid, Vapor PhaseValues
-}
-
-// SatError bounds the error of a SatEstimate: T in K (0 for an estimate
-// at given T), P in Pa (0 for one at given p), and each phase's Rho in
-// kg/m³, H and U in J/kg, S in J/(kg·K).
-type SatError struct {
-	T, P          float64
-	Liquid, Vapor PhaseValues
-}
-
-// PhaseValues are density, enthalpy, entropy and internal energy of a
-// phase, or their errors or derivatives (see where used for units).
-type PhaseValues struct {
-	Rho, H, S, U float64
-}
-
-// SaturationEstimateAtT returns the estimated saturation of f at
-// temperature T in K from the cached curve, with bounds of its error
-// (measured against the equation when the curve was built; see
-// SatEstimate). ok is false outside Triple().T ≤ T ≤ Critical().T −
-// 1 mK, where the curve ends (within a millikelvin of the critical point
-// only the equation's own saturation places states, see SaturationAtT),
-// and for a fluid without a cached curve. The curve is built on the first
-// call for a fluid, in a few milliseconds, and shared by every copy of
-// the fluid (WithReference); the call allocates nothing after that.
-func (f *Fluid) SaturationEstimateAtT(T float64) (e SatEstimate, ok bool) {
-	c := f.satCurve()
-	if c == nil {
-		return e, false
+	b := min(int((x-ix.x0)*ix.inv), len(ix.idx)-2)
+	lo, hi := int(ix.idx[b]), int(ix.idx[b+1])
+	if xs[lo] > x {
+		lo = 0 // (the bucket's start rounded above x)
 	}
-	i := c.intervalT(T)
-	if i < 0 {
-		return e, false
+	if hi < n-1 && xs[hi+1] <= x {
+		hi = n - 1
 	}
-	f.satEstimate(c, i, T, &e)
-	return e, true
-}
-
-// SaturationEstimateRange returns the temperatures in K between which
-// SaturationEstimateAtT has estimates: the triple point and
-// Critical().T − 1 mK; zero for a fluid without a cached curve.
-func (f *Fluid) SaturationEstimateRange() (lo, hi float64) {
-	c := f.satCurve()
-	if c == nil {
-		return 0, 0
-	}
-	return c.ts[0], c.ts[len(c.ts)-1]
-}
-
-// VaporPressureEstimate returns the vapour pressure of f at temperature
-// T in K and the bound of its error, both in Pa, from the cached curve:
-// the P and Err.P of SaturationEstimateAtT at a fraction of its cost,
-// for placing states. ok is false where SaturationEstimateAtT's is.
-func (f *Fluid) VaporPressureEstimate(T float64) (p, errP float64, ok bool) {
-	c := f.satCurve()
-	if c == nil {
-		return 0, 0, false
-	}
-	i := c.intervalT(T)
-	if i < 0 {
-		return 0, 0, false
-	}
-	var bs satBasis
-	c.basis(i, T, int(c.ivs[i].coord[sqLnP]), &bs)
-	p = math.Exp(bs.value(&c.nodes[i], &c.nodes[i+1], sqLnP))
-	return p, p * c.ivs[i].err[sqLnP], true
-}
-
-// SaturationEstimateAtP returns the estimated saturation of f at pressure
-// p in Pa, as SaturationEstimateAtT: ok is false outside the pressures of
-// its temperature range. Err.T bounds the error of the estimated T, and
-// the phases' errors include its effect.
-func (f *Fluid) SaturationEstimateAtP(p float64) (e SatEstimate, ok bool) {
-	c := f.satCurve()
-	if c == nil || !(p > 0) {
-		return e, false
-	}
-	lp := math.Log(p)
-	i := c.intervalP(lp)
-	if i < 0 {
-		return e, false
-	}
-	a, b := &c.nodes[i], &c.nodes[i+1]
-	T := c.rootIn(i, sqLnP, lp, a.T, b.T)
-	f.satEstimate(c, i, T, &e)
-	e.P = p
-	e.Liquid.P, e.Vapor.P = p, p
-	// The error of T from that of ln p, by the slope d ln p/dT.
-	e.Err.P = 0
-	e.addErrT(c.ivs[i].err[sqLnP] / (e.Slope.P / p))
-	return e, true
-}
-
-// SatValue selects a value of a saturated phase, for
-// SaturationEstimatesWhere.
-type SatValue int8
-
-// The values of the saturated liquid and vapour: density, enthalpy,
-// entropy and internal energy.
-const (
-	SatLiquidRho SatValue = iota
-	SatVaporRho
-	SatLiquidH
-	SatVaporH
-	SatLiquidS
-	SatVaporS
-	SatLiquidU
-	SatVaporU
-)
-
-// satQ maps a SatValue to its interpolant and whether it is a logarithm.
-var satQ = [...]struct {
-	q   int
-	log bool
-}{{sqLnRhoL, true}, {sqLnRhoV, true}, {sqHL, false}, {sqHV, false},
-	{sqSL, false}, {sqSV, false}, {sqUL, false}, {sqUV, false}}
-
-// SaturationEstimatesWhere appends to dst the estimated saturation states
-// of f at which value v of a saturated phase equals x (SI units, in f's
-// reference state), in ascending temperature, within the range of
-// SaturationEstimateAtT, and returns the extended slice. Each is as
-// SaturationEstimateAtP: Err.T bounds the error of its temperature (large
-// where v hardly changes with T), and the phases' errors include its
-// effect. Values that rise or fall monotonically along the curve (ρ′, ρ″,
-// h′, s′, u′, s″) have at most one such state; the density of liquid
-// water (a maximum near 277 K) and h″ and u″ (a maximum well below Tc)
-// can have two. With dst of enough capacity the call allocates nothing.
-func (f *Fluid) SaturationEstimatesWhere(v SatValue, x float64, dst []SatEstimate) []SatEstimate {
-	c := f.satCurve()
-	if c == nil || v < 0 || int(v) >= len(satQ) || !finite(x) {
-		return dst
-	}
-	q := satQ[v].q
-	target := x
-	switch {
-	case satQ[v].log:
-		if !(x > 0) {
-			return dst
-		}
-		target = math.Log(x)
-	case q == sqSL || q == sqSV:
-		target -= f.sOff
-	default:
-		target -= f.hOff
-	}
-	add := func(i int, T float64) {
-		var e SatEstimate
-		f.satEstimate(c, i, T, &e)
-		var bs satBasis
-		c.basis(i, T, int(c.ivs[i].coord[q]), &bs)
-		slope := bs.slope(&c.nodes[i], &c.nodes[i+1], q)
-		e.addErrT(c.ivs[i].err[q] / math.Abs(slope))
-		dst = append(dst, e)
-	}
-	lo, hi := 0, len(c.ivs)
-	if m := float64(c.mono[q]); m != 0 {
-		// One crossing at most: the interval by bisection of the nodes.
-		n := len(c.nodes)
-		if (c.nodes[0].v[q]-target)*m > 0 || (c.nodes[n-1].v[q]-target)*m < 0 {
-			return dst
-		}
-		a, b := 0, n-1
-		for b-a > 1 {
-			mid := (a + b) / 2
-			if (c.nodes[mid].v[q]-target)*m > 0 {
-				b = mid
-			} else {
-				a = mid
-			}
-		}
-		lo, hi = a, a+1
-	}
-	for i := lo; i < hi; i++ {
-		a, b := &c.nodes[i], &c.nodes[i+1]
-		fa, fb := a.v[q]-target, b.v[q]-target
-		switch {
-		case fa == 0:
-			add(i, a.T)
-		case fb == 0 && i == len(c.ivs)-1:
-			add(i, b.T)
-		case fb == 0:
-			// At the next interval's first node.
-		case (fa < 0) != (fb < 0):
-			add(i, c.rootIn(i, q, target, a.T, b.T))
-		case (a.d[q] < 0) != (b.d[q] < 0):
-			// An extremum inside: two roots where it lies beyond x.
-			Tm := c.extremumIn(i, q)
-			var bs satBasis
-			c.basis(i, Tm, int(c.ivs[i].coord[q]), &bs)
-			if fm := bs.value(a, b, q) - target; fm != 0 && (fm < 0) != (fa < 0) {
-				add(i, c.rootIn(i, q, target, a.T, Tm))
-				add(i, c.rootIn(i, q, target, Tm, b.T))
-			}
+	// The last node at or below x, in [lo, hi].
+	for lo < hi {
+		m := (lo + hi + 1) / 2
+		if xs[m] <= x {
+			lo = m
+		} else {
+			hi = m - 1
 		}
 	}
-	return dst
+	return min(lo, n-2)
 }
 
-// SaturationEstimatesAtRho is SaturationEstimatesWhere for the density
-// rho in kg/m³ of the saturated liquid (rho > Critical().Rho) or vapour
-// (rho < Critical().Rho): the crossings of the isochore with the
-// saturated phase of its side, at most two (water's liquid near its
-// density maximum), else one or none.
-func (f *Fluid) SaturationEstimatesAtRho(rho float64, dst []SatEstimate) []SatEstimate {
-	if rho > f.crit.Rho {
-		return f.SaturationEstimatesWhere(SatLiquidRho, rho, dst)
-	}
-	return f.SaturationEstimatesWhere(SatVaporRho, rho, dst)
-}
+// locateT returns T located in interval i (its coordinates are computed
+// as values need them).
+func (c *satCurve) locateT(i int, T float64) satLoc { return satLoc{i: i, T: T} }
 
-// addErrT adds an error dT in K of the estimate's temperature to its
-// bounds: the phases' errors grow by their slopes along the curve times
-// dT.
-func (e *SatEstimate) addErrT(dT float64) {
-	e.Err.T += dT
-	for k, ph := range [2]*PhaseValues{&e.Err.Liquid, &e.Err.Vapor} {
-		sl := &e.Slope.Liquid
-		if k == 1 {
-			sl = &e.Slope.Vapor
-		}
-		ph.Rho += math.Abs(sl.Rho) * dT
-		ph.H += math.Abs(sl.H) * dT
-		ph.S += math.Abs(sl.S) * dT
-		ph.U += math.Abs(sl.U) * dT
+// locateWhere returns the point of interval i, between the positions lo
+// and hi in the coordinate of quantity q, at which the interpolant of q
+// equals target, where it changes sign between lo and hi: Newton's
+// method on the cubic in s, kept inside the shrinking bracket by
+// bisection. The point's position in that coordinate is the solution
+// itself, so that q reads back as target to rounding.
+func (c *satCurve) locateWhere(i, q int, target, lo, hi float64) satLoc {
+	iv := &c.ivs[i]
+	k := int(iv.coord[q])
+	p := &iv.poly[q]
+	flo, fhi := p.at(lo)-target, p.at(hi)-target
+	up := flo < 0 // rising from lo to hi
+	// From the chord.
+	s := lo + (hi-lo)*flo/(flo-fhi)
+	if !(s > lo && s < hi) {
+		s = 0.5 * (lo + hi)
 	}
-}
-
-// rootIn returns the T in [lo, hi], within interval i, at which the
-// interpolant of q equals target, where it changes sign between lo and
-// hi: Newton's method kept inside the shrinking bracket by bisection.
-func (c *satCurve) rootIn(i, q int, target, lo, hi float64) float64 {
-	a, b := &c.nodes[i], &c.nodes[i+1]
-	k := int(c.ivs[i].coord[q])
-	var bs satBasis
-	c.basis(i, lo, k, &bs)
-	flo := bs.value(a, b, q)
-	up := flo < target // rising from lo to hi
-	c.basis(i, hi, k, &bs)
-	// From the chord (in 1/T for ln p, nearly linear there).
-	w := (target - flo) / (bs.value(a, b, q) - flo)
-	T := lo + w*(hi-lo)
-	if q == sqLnP {
-		T = 1 / (1/lo + w*(1/hi-1/lo))
-	}
-	if !(T > lo && T < hi) {
-		T = 0.5 * (lo + hi)
-	}
-	for it := 0; it < 100 && hi-lo > 1e-15*hi; it++ {
-		c.basis(i, T, k, &bs)
-		r := bs.value(a, b, q) - target
+	for it := 0; it < 100 && hi-lo > 1e-16; it++ {
+		r := p.at(s) - target
 		if r == 0 {
-			return T
+			break
 		}
 		if (r < 0) == up {
-			lo = T
+			lo = s
 		} else {
-			hi = T
+			hi = s
 		}
-		Tn := T - r/bs.slope(a, b, q)
-		if !(Tn > lo && Tn < hi) {
-			Tn = 0.5 * (lo + hi)
+		sn := s - r/p.ds(s)
+		if !(sn > lo && sn < hi) {
+			sn = 0.5 * (lo + hi)
 		}
-		if math.Abs(Tn-T) <= 1e-15*T {
-			return Tn
+		if math.Abs(sn-s) <= 1e-16 {
+			s = sn
+			break
 		}
-		T = Tn
+		s = sn
 	}
-	return T
+	a, b := &c.nodes[i], &c.nodes[i+1]
+	u := a.u[k] + s*iv.h[k]
+	T := min(max(tOfCoord(k, u, c.tc), a.T), b.T)
+	l := satLoc{i: i, T: T}
+	c.locateCoords(&l, i, T, 1<<k)
+	l.s[k] = s
+	return l
 }
 
-// extremumIn returns the T in interval i at which the slope of the
-// interpolant of q, of opposite signs at the nodes, vanishes (bisection).
+// extremumIn returns the position s in interval i, in the coordinate of
+// quantity q, at which the slope of its interpolant, of opposite signs
+// at the nodes, vanishes (bisection).
 func (c *satCurve) extremumIn(i, q int) float64 {
-	a, b := &c.nodes[i], &c.nodes[i+1]
-	k := int(c.ivs[i].coord[q])
-	lo, hi := a.T, b.T
-	var bs satBasis
-	for it := 0; it < 60 && hi-lo > 1e-14*hi; it++ {
+	p := &c.ivs[i].poly[q]
+	lo, hi := 0.0, 1.0
+	neg0 := p.ds(0) < 0
+	for it := 0; it < 60 && hi-lo > 1e-15; it++ {
 		m := 0.5 * (lo + hi)
-		c.basis(i, m, k, &bs)
-		if (bs.slope(a, b, q) < 0) == (a.d[q] < 0) {
+		if (p.ds(m) < 0) == neg0 {
 			lo = m
 		} else {
 			hi = m
@@ -757,41 +604,3 @@ func (c *satCurve) extremumIn(i, q int) float64 {
 	}
 	return 0.5 * (lo + hi)
 }
-
-// satEstimate fills e at T in interval i, with f's reference offsets.
-func (f *Fluid) satEstimate(c *satCurve, i int, T float64, e *SatEstimate) {
-	var v, dv [nSatQ]float64
-	c.interp(i, T, &v, &dv)
-	a, b := &c.nodes[i], &c.nodes[i+1]
-	w := (T - a.T) * c.ivs[i].hinv[coordT]
-	bd := &c.ivs[i].err
-	p := math.Exp(v[sqLnP])
-	e.T, e.P = T, p
-	e.Slope.P = dv[sqLnP] * p
-	e.Err = SatError{P: p * bd[sqLnP]}
-	for ph := 0; ph < 2; ph++ {
-		pr := &e.Liquid
-		sl, er := &e.Slope.Liquid, &e.Err.Liquid
-		if ph == 1 {
-			pr, sl, er = &e.Vapor, &e.Slope.Vapor, &e.Err.Vapor
-		}
-		rho := math.Exp(v[sqLnRhoL+ph])
-		sa, sb := &a.start[ph], &b.start[ph]
-		*pr = Props{T: T, Rho: rho, P: p,
-			U: v[sqUL+ph] + f.hOff, H: v[sqHL+ph] + f.hOff, S: v[sqSL+ph] + f.sOff,
-			Cv: lerp(sa.Cv, sb.Cv, w), Cp: lerp(sa.Cp, sb.Cp, w), W: lerp(sa.W, sb.W, w),
-			KappaT: lerp(sa.KappaT, sb.KappaT, w), Expansivity: lerp(sa.Expansivity, sb.Expansivity, w),
-			DpDrho: lerp(sa.DpDrho, sb.DpDrho, w), DpDT: lerp(sa.DpDT, sb.DpDT, w),
-			Flags: Saturated}
-		pr.G = pr.H - T*pr.S
-		pr.F = pr.U - T*pr.S
-		pr.Z = p / (rho * f.r * T)
-		pr.JouleThomson = (T*pr.Expansivity - 1) / (rho * pr.Cp)
-		*sl = PhaseValues{Rho: dv[sqLnRhoL+ph] * rho, H: dv[sqHL+ph], S: dv[sqSL+ph], U: dv[sqUL+ph]}
-		*er = PhaseValues{Rho: rho * bd[sqLnRhoL+ph], H: bd[sqHL+ph],
-			S: bd[sqSL+ph], U: bd[sqUL+ph]}
-	}
-}
-
-// lerp returns a + w(b − a).
-func lerp(a, b, w float64) float64 { return a + w*(b-a) }

@@ -258,10 +258,82 @@ func TestSatCurveAllocs(t *testing.T) {
 		"AtP":   func() { f.SaturationEstimateAtP(1e5) },
 		"AtRho": func() { f.SaturationEstimatesAtRho(999.9, buf[:0]) },
 		"p":     func() { f.VaporPressureEstimate(400) },
+		"point": func() {
+			sp, _ := f.SaturationPointAtP(1e5)
+			sp.Value(SatVaporH)
+			sp.Liquid()
+			var buf [2]SatPoint
+			f.SaturationPointsWhere(SatLiquidRho, 999.9, buf[:0])
+		},
 	} {
 		fn()
 		if a := testing.AllocsPerRun(20, fn); a != 0 {
 			t.Errorf("%s: %v allocs", name, a)
+		}
+	}
+}
+
+// TestSatPoint checks the single values read at a SatPoint against the
+// whole estimate at it (the estimates themselves are checked against the
+// equation by TestSatCurveBounds): at given T and at given p, every value,
+// slope, bound and start value, to 1e-15 relative (the two compute them
+// in the same order, but for the compiler's freedom in fusing products).
+func TestSatPoint(t *testing.T) {
+	t.Parallel()
+	close := func(a, b float64) bool { return math.Abs(a-b) <= 1e-15*max(math.Abs(a), math.Abs(b)) }
+	for _, f := range allFluids(t) {
+		lo, hi := f.SaturationEstimateRange()
+		for _, fr := range []float64{0, 0.013, 0.5, 0.97, 0.9999, 1} {
+			T := lo + fr*(hi-lo)
+			e, _ := f.SaturationEstimateAtT(T)
+			ep, _ := f.SaturationEstimateAtP(e.P)
+			spT, ok1 := f.SaturationPointAtT(T)
+			spP, ok2 := f.SaturationPointAtP(e.P)
+			if !ok1 || !ok2 {
+				t.Fatalf("%s: no point at T = %v or p = %v", f.Name(), T, e.P)
+			}
+			for _, c := range []struct {
+				what string
+				sp   *SatPoint
+				e    *SatEstimate
+			}{{"T", &spT, &e}, {"p", &spP, &ep}} {
+				sp, e := c.sp, c.e
+				Ts, errT := sp.Temperature()
+				p, errP, dpdT := sp.Pressure()
+				if Ts != e.T || errT != e.Err.T || p != e.P || !close(errP, e.Err.P) || !close(dpdT, e.Slope.P) {
+					t.Errorf("%s at %s: T %v +- %v, p %v +- %v, dp/dT %v; estimate %v +- %v, %v +- %v, %v",
+						f.Name(), c.what, Ts, errT, p, errP, dpdT, e.T, e.Err.T, e.P, e.Err.P, e.Slope.P)
+				}
+				for v, want := range map[SatValue][3]float64{
+					SatLiquidRho: {e.Liquid.Rho, e.Err.Liquid.Rho, e.Slope.Liquid.Rho},
+					SatVaporRho:  {e.Vapor.Rho, e.Err.Vapor.Rho, e.Slope.Vapor.Rho},
+					SatLiquidH:   {e.Liquid.H, e.Err.Liquid.H, e.Slope.Liquid.H},
+					SatVaporH:    {e.Vapor.H, e.Err.Vapor.H, e.Slope.Vapor.H},
+					SatLiquidS:   {e.Liquid.S, e.Err.Liquid.S, e.Slope.Liquid.S},
+					SatVaporS:    {e.Vapor.S, e.Err.Vapor.S, e.Slope.Vapor.S},
+					SatLiquidU:   {e.Liquid.U, e.Err.Liquid.U, e.Slope.Liquid.U},
+					SatVaporU:    {e.Vapor.U, e.Err.Vapor.U, e.Slope.Vapor.U},
+				} {
+					x, ex := sp.Value(v)
+					if d := sp.Slope(v); !close(x, want[0]) || !close(ex, want[1]) || !close(d, want[2]) {
+						t.Errorf("%s at %s = %v: value %d = %v +- %v, slope %v; estimate %v", f.Name(), c.what, Ts, v, x, ex, d, want)
+					}
+				}
+				for _, ph := range []struct {
+					start SatStart
+					pr    Props
+					est   *Props
+				}{{sp.Start(true), sp.Liquid(), &e.Liquid}, {sp.Start(false), sp.Vapor(), &e.Vapor}} {
+					st, pr := ph.start, ph.est
+					if st != (SatStart{pr.Cv, pr.Cp, pr.W, pr.KappaT, pr.Expansivity, pr.DpDrho, pr.DpDT}) || ph.pr != *pr {
+						t.Errorf("%s at %s = %v: start %+v, phase %+v; estimate %+v", f.Name(), c.what, Ts, st, ph.pr, *pr)
+					}
+				}
+			}
+		}
+		var zero SatPoint
+		if x, ex := zero.Value(SatLiquidH); x != 0 || ex != 0 {
+			t.Errorf("the zero SatPoint gives %v +- %v", x, ex)
 		}
 	}
 }
