@@ -283,7 +283,7 @@ func (k *call) hsFromTop(h, s float64) (State, error, bool) {
 			return State{}, nil, false
 		}
 	}
-	if h > top.H {
+	if h > top.H+qH.floor(f, nil, h) {
 		return State{}, k.fail(fluid.ErrOutOfRange, "h above the top of the isentrope in the accepted region, h = "+
 			fmtG(top.H)+" J/kg at p = "+fmtG(top.P)+" Pa and T = "+fmtG(top.T)+" K (p <= "+fmtG(lim.PCeil)+
 			" Pa, T <= "+fmtG(lim.TCeil)+" K)"), true
