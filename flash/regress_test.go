@@ -621,6 +621,12 @@ func TestMetastableNextToTheSpinodal(t *testing.T) {
 		// R-134a liquid at 161.7 Pa, below its triple-point pressure (PH
 		// and PS refused it as solid).
 		{"R134a", true, 1493.127433266497, 206.33752992418945, Liquid},
+		// R-134a vapour at its triple-point temperature, the floor of
+		// its accepted temperatures, 65 times its vapour pressure and
+		// 1e-6 of the gap from the spinodal: newton2 held at the floor
+		// gave up while its residuals were still halving (the sweep).
+		{"R134a", true, 2.259985983398478, 169.85, Vapor},
+		{"R134a", true, 2.6030844195482206, 169.85, Vapor},
 	} {
 		f := mustFluid(t, c.fluid)
 		opt := Options{Phase: c.phase, AllowMetastable: true}
@@ -756,5 +762,55 @@ func TestMetastableFar(t *testing.T) {
 	if pr, err := w.PropsTP(237.20000000000002, p, fluid.RootLiquid, 0); err != nil ||
 		math.Abs(pr.P-p) > 1e-10*p+1e-12*pr.Rho*w.GasConstant()*pr.T {
 		t.Errorf("PropsTP(237.2, %v) = p %v, %v", p, pr.P, err)
+	}
+}
+
+// TestMergedEdges holds the states the merge of the speed and
+// reliability branches broke (the sweep's short run): the saturated
+// liquid of R-134a at its triple point from TQ, whose h and ρ a
+// saturation solved from p reproduces only to rounding, must come back
+// from PH and PD as the saturated liquid (PH gave a mixture with a
+// quality of 4e-16, PD no convergence); the top of water's isentrope at
+// its 5000 K ceiling is a state of HS (refused as above it under -race,
+// where its h came out 3e-16 below the input's); and ice on its melting
+// curve next to the triple point carries the input pressure, not its
+// liquid's own p, which lies 5e-9 below it and below the triple line
+// (PS then gave solid and vapour, PD no state), also where the curve
+// solver's last step leaves the liquid's p 3e-7 off and a polishing step
+// brings it to one ulp of ρ from p.
+func TestMergedEdges(t *testing.T) {
+	t.Parallel()
+	r := mustFluid(t, "R134a")
+	liq, err := TQ(r, r.Triple().T, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if st, err := PH(r, liq.P, liq.H); err != nil || st.Phase != Liquid {
+		t.Errorf("R-134a PH of TQ(Tt, 0) = %v (q %v), %v; want Liquid", st.Phase, st.Quality, err)
+	}
+	if st, err := PD(r, liq.P, liq.Rho); err != nil || st.Phase != Liquid {
+		t.Errorf("R-134a PD of TQ(Tt, 0) = %v, %v; want Liquid", st.Phase, err)
+	}
+	w := mustFluid(t, "water")
+	top, err := PT(w, 1.4677992676220708e+09, 5000)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if st, err := HS(w, top.H, top.S); err != nil || math.Abs(st.T-5000) > 1e-6 {
+		t.Errorf("water HS at the top of its isentrope = %v K, %v", st.T, err)
+	}
+	const p = 611.6547716192147
+	sl, err := PH(w, p, -259631.82559561165)
+	if err != nil || sl.Phase != SolidLiquid || sl.P != p {
+		t.Fatalf("water PH next to the triple point = %v at p %v, %v; want SolidLiquid at %v", sl.Phase, sl.P, err, p)
+	}
+	if st, err := PS(w, sl.P, sl.S); err != nil || st.Phase != SolidLiquid {
+		t.Errorf("water PS of %v = %v, %v; want SolidLiquid", sl.Phase, st.Phase, err)
+	}
+	// Above the triple-point pressure a water ice–liquid mixture's (p, ρ)
+	// is also a liquid–vapour mixture's, and PD returns the fluid state
+	// (its documented choice).
+	if st, err := PD(w, sl.P, sl.Rho); err != nil || st.Phase != TwoPhase || math.Abs(st.Rho/sl.Rho-1) > 1e-12 {
+		t.Errorf("water PD of %v = %v (ρ %v), %v; want TwoPhase at ρ %v", sl.Phase, st.Phase, st.Rho, err, sl.Rho)
 	}
 }

@@ -285,10 +285,13 @@ func (n *curveNodes) meltIndexT(T float64) int {
 // in (T, ln ρ) on p_fluid = p and g_fluid = g_solid, where the fluid's
 // pressure misses p by more than 1e-11·p: the curve solvers stop on the
 // size of their steps, and a liquid's stiffness turns a step of 1e-12 in
-// ln ρ into 1e-9 in p near the triple point of dry ice.
+// ln ρ into 1e-9 in p near the triple point of dry ice. A coexistence
+// the solver placed at p itself (c.P == p: the fluid's own p lies within
+// the rounding scatter of a dense liquid's p, which a step cannot
+// reduce) is left as it is.
 func (k *call) polish(c *sublimation.Coexistence, p float64) {
 	fp := &c.Fluid
-	if math.Abs(fp.P-p) <= 1e-11*p {
+	if c.P == p || math.Abs(fp.P-p) <= 1e-11*p {
 		return
 	}
 	T, rho := c.T, fp.Rho
@@ -313,6 +316,12 @@ func (k *call) polish(c *sublimation.Coexistence, p float64) {
 	nf.Flags |= Saturated
 	ns.Flags |= Saturated
 	*c = sublimation.Coexistence{T: T + dT, P: nf.P, Solid: ns, Fluid: nf}
+	if math.Abs(nf.P-p) <= 1e-12*(p+nf.Rho*rt) {
+		// At p itself to the rounding of a dense liquid's p, as the curve
+		// solver takes it (water at its triple point: one ulp of ρ moves
+		// p by 4e-10 of it).
+		c.P = p
+	}
 }
 
 // solidFloorT is the lowest temperature of a solid state: the model's

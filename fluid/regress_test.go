@@ -64,3 +64,29 @@ func TestPropsTPAtTheCeiling(t *testing.T) {
 		}
 	}
 }
+
+// TestPropsTPAtTheSpinodal: liquid CO2 0.1 K below Tc at a pressure
+// within rounding of its liquid spinodal's (the state DT gives at
+// 498.83136700035953 kg/m³, 1e-6 of the gap from the spinodal; the
+// sweep). p(ρ) there is flat to below rounding over 3e-5 kg/m³, and no
+// stable density shows a pressure below the target: the root is the
+// stable density closest to it, not "below the spinodal".
+func TestPropsTPAtTheSpinodal(t *testing.T) {
+	t.Parallel()
+	f, err := Lookup("CO2")
+	if err != nil {
+		t.Fatal(err)
+	}
+	const T, p = 304.02819999999997, 7.359810229726279e+06
+	st, err := f.PropsTP(T, p, RootLiquid, 0)
+	if err != nil || math.Abs(st.Rho-498.8313) > 1e-3 || !(st.DpDrho > 0) {
+		t.Fatalf("PropsTP(%v, %v, RootLiquid) = rho %v, dp/drho %v, %v", T, p, st.Rho, st.DpDrho, err)
+	}
+	if math.Abs(st.P-p) > 1e-14*p {
+		t.Errorf("PropsTP(%v, %v): p = %v", T, p, st.P)
+	}
+	// Beyond it by more than rounding: refused.
+	if _, err := f.PropsTP(T, p*(1-1e-9), RootLiquid, 0); !errors.Is(err, ErrUnstable) {
+		t.Errorf("PropsTP below the spinodal pressure: %v, want ErrUnstable", err)
+	}
+}

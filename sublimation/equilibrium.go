@@ -508,9 +508,11 @@ func (s Solid) coexistAtP(op string, p, T0, rho0, maxStep float64) (Coexistence,
 		}
 		if math.Abs(dT) <= tolStep*T && math.Abs(dy) <= tolStep {
 			c := s.coexistence(T, fp)
-			if math.Abs(fp.P-p) <= 1e-12*p {
+			if math.Abs(fp.P-p) <= 1e-12*(p+rho*rt) {
 				// At the given pressure itself: the fluid's own p at the
-				// converged density differs from it by rounding.
+				// converged density differs from it by rounding (a dense
+				// liquid's p scatters by about 1e-13·ρRT: 2e-8 of p for
+				// water at its triple point).
 				c.P = p
 			}
 			return c, nil

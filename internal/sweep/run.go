@@ -373,6 +373,12 @@ const boundaryFraction = 1e-8
 //     within their bounds, so got answers the inverse problem; next to
 //     the critical point, and at T = Tc where Liquid and Supercritical
 //     are labels of one state, this is the rule;
+//   - got is a single solid, stable at its own (T, p) (judgePT), and not
+//     from PT: the inputs were reproduced within their bounds, and a
+//     solid, nearly incompressible, fixes p only loosely by h and s (at
+//     fixed s, Δh = v·Δp: ice at 200 K reproduces h and s to the floors
+//     over 0.2 % in p, so a solid–vapour mixture with 1e-7 of vapour and
+//     a solid a few µK warmer at a slightly higher p both answer HS);
 //   - st lies on a coexistence curve (a saturated phase, or a mixture
 //     with a phase of fraction below boundaryFraction) and got is the
 //     same point of the curve with or without the vanishing phase; PT
@@ -389,6 +395,12 @@ func (s *setup) samePlace(st, got *flash.State, pt bool) bool {
 	if isFluid(st.Phase) && isFluid(got.Phase) && got.T >= s.tp.T*(1+1e-9) {
 		v := s.judgeDT(got.Rho, got.T, &tcase{kind: kDT})
 		if v.must == mustState && v.want.has(got.Phase) {
+			return true
+		}
+	}
+	if !pt && got.Phase == flash.Solid && got.N == 1 {
+		v := s.judgePT(got.P, got.T, &tcase{kind: kPT})
+		if v.must == mustState && v.want.has(flash.Solid) && !v.want.has(flash.Liquid) && !v.want.has(flash.Vapor) {
 			return true
 		}
 	}
