@@ -114,11 +114,12 @@
 // on all processors: on a 2-core machine 0.3 s for CO2, 0.4 s for water and
 // 0.2 s for R-134a when it is otherwise idle, up to 0.9 s under load
 // (BenchmarkBuild). The tables take 17.0 MB for CO2, 13.5 MB for water and
-// 8.7 MB for R-134a (Bytes). A call costs about 80 ns; TestSpeedReport
+// 8.7 MB for R-134a (Bytes). A call costs about 90 ns; TestSpeedReport
 // (with -table.report) prints the medians over the validation grid against
-// the equation's flashes in the same run: PH 61–148 times faster, DU 47–69
-// times, PT 27–37 times (the equation's PT solves for one density, 2–3 µs,
-// and the tables' call fills every field of the state). A liquid–vapour
+// the equation's flashes in the same run: PH 15–30 times faster, DU 21–37
+// times, PT 7–12 times (the equation's PT solves for one density, 0.6–1.1
+// µs, and the tables' call fills every field of the state; R-134a's
+// equation is the cheapest and gives the lowest ratios). A liquid–vapour
 // DU, which iterates on the splines, costs about 0.6 µs. None allocates. On amd64
 // processors with AVX and FMA the bicubic sums of the six properties run
 // as a vector kernel in assembly (evalVec), elsewhere in Go (evalGo).
