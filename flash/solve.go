@@ -87,6 +87,51 @@ func (q quantity) floor(f *fluid.Fluid, pr *fluid.Props, v float64) float64 {
 	return 100 * q.tol(f, pr, v)
 }
 
+// linearFinishStep is the largest relative Newton step that linearFinish
+// takes without evaluating the equation again: the terms of second
+// order it leaves out are below 1e-22 of the state, and the properties
+// it keeps (cp, cv, w, κT, β, μJT and the derivatives of p) change by
+// about 1e-11 of themselves, far below their accuracy.
+const linearFinishStep = 1e-11
+
+// linearFinish takes the last Newton step (dT, dρ) from pr by the
+// state's own derivatives, where the step is within linearFinishStep of
+// T and ρ and pr is not near the critical point (cp < 50 cv, where the
+// kept properties vary slowly): T, ρ, p, u, h, s, g, f and Z move to
+// first order,
+//
+//	dp = (∂p/∂T)_ρ dT + (∂p/∂ρ)_T dρ,  du = cv dT + (p − T(∂p/∂T)_ρ)/ρ² dρ,
+//	ds = cv/T dT − (∂p/∂T)_ρ/ρ² dρ,    dh = du + dp/ρ − p dρ/ρ²,
+//	dg = dp/ρ − s dT,                   df = p dρ/ρ² − s dT,
+//
+// and the rest stay. The state then answers the iteration's targets to
+// rounding and differs from the equation at its (T, ρ) by the second-
+// order terms left out — less than the rounding of an evaluation — which
+// spares the evaluation a converging Newton's method would take only to
+// confirm a step of 1e-13 (a liquid's pressure needs it: its stiffness
+// turns the last ulps of ρ into the floor of p). It reports whether it
+// took the step.
+func linearFinish(f *fluid.Fluid, pr *fluid.Props, dT, dRho float64) bool {
+	T, rho := pr.T, pr.Rho
+	if !(math.Abs(dT) <= linearFinishStep*T && math.Abs(dRho) <= linearFinishStep*rho) || !(pr.Cp < 50*pr.Cv) {
+		return false
+	}
+	lim := f.Limits()
+	if T+dT < lim.TFloor || T+dT > lim.TCeil || rho+dRho > lim.RhoCeil {
+		return false
+	}
+	dp := pr.DpDT*dT + pr.DpDrho*dRho
+	du := pr.Cv*dT + (pr.P-T*pr.DpDT)/(rho*rho)*dRho
+	ds := pr.Cv/T*dT - pr.DpDT/(rho*rho)*dRho
+	dh := du + dp/rho - pr.P/(rho*rho)*dRho
+	pr.G += dp/rho - pr.S*dT
+	pr.F += pr.P/(rho*rho)*dRho - pr.S*dT
+	pr.T, pr.Rho, pr.P = T+dT, rho+dRho, pr.P+dp
+	pr.U, pr.H, pr.S = pr.U+du, pr.H+dh, pr.S+ds
+	pr.Z = pr.P / (pr.Rho * f.GasConstant() * pr.T)
+	return true
+}
+
 // props evaluates f at (T, ρ) for an iteration; ok is false where there
 // is no usable state (outside the accepted T and ρ, or mechanically
 // unstable). A pressure above the accepted ceiling is usable on the way
@@ -224,6 +269,9 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 		if logged {
 			dT = T * expm1(max(min(dT, math.Ln2), -math.Ln2))
 			dRho = rho * expm1(max(min(dRho, 2*math.Ln2), -2*math.Ln2))
+		}
+		if res <= 1e4 && linearFinish(f, &pr, dT, dRho) {
+			return pr, true
 		}
 		s := 1.0
 		if !logged {
