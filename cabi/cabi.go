@@ -138,11 +138,13 @@ var handles = sync.OnceValue(func() []handleEntry {
 	return t
 })
 
-func lookupHandle(h C.int32_t) (*fluid.Fluid, error) {
+// lookupHandle returns the fluid of handle h, or an error of the entry
+// point op for a handle that tp_fluid did not return.
+func lookupHandle(op string, h C.int32_t) (*fluid.Fluid, error) {
 	t := handles()
 	i := int(h) - 1
 	if i < 0 || i >= len(t) || t[i].f == nil {
-		return nil, fluid.NewError("tp", fluid.ErrInvalidInput,
+		return nil, fluid.NewError(op, fluid.ErrInvalidInput,
 			fmt.Sprintf("fluid handle must come from tp_fluid; got %d", int(h)))
 	}
 	return t[i].f, nil
@@ -219,7 +221,7 @@ func tp_fluid(name *C.char, ref C.int32_t, e *C.tp_error) (handle C.int32_t) {
 //export tp_fluid_info_get
 func tp_fluid_info_get(h C.int32_t, out *C.tp_fluid_info, e *C.tp_error) (status C.int32_t) {
 	defer guard(e, &status)
-	f, err := lookupHandle(h)
+	f, err := lookupHandle("tp_fluid_info_get", h)
 	if err != nil {
 		return C.int32_t(fail(e, err))
 	}
@@ -344,7 +346,7 @@ func fromC(c *C.tp_state) flash.State {
 func tp_flash(h, pair C.int32_t, a, b C.double, o *C.tp_options, out *C.tp_state, e *C.tp_error) (status C.int32_t) {
 	defer guard(e, &status)
 	return flashInto("tp_flash", out, e, func() (flash.State, error) {
-		return flashOne(h, pair, float64(a), float64(b), o, 0)
+		return flashOne("tp_flash", h, pair, float64(a), float64(b), o, 0)
 	})
 }
 
@@ -366,8 +368,8 @@ func flashInto(op string, out *C.tp_state, e *C.tp_error, fn func() (flash.State
 	return statusOK
 }
 
-func flashOne(h, pair C.int32_t, a, b float64, o *C.tp_options, i int) (flash.State, error) {
-	f, err := lookupHandle(h)
+func flashOne(op string, h, pair C.int32_t, a, b float64, o *C.tp_options, i int) (flash.State, error) {
+	f, err := lookupHandle(op, h)
 	if err != nil {
 		return flash.State{}, err
 	}
@@ -382,7 +384,7 @@ func flashOne(h, pair C.int32_t, a, b float64, o *C.tp_options, i int) (flash.St
 func tp_flash_n(h, pair, n C.int32_t, a, b *C.double, o *C.tp_options, out *C.tp_state, stat *C.int32_t, e *C.tp_error) (status C.int32_t) {
 	defer guard(e, &status)
 	return flashN("tp_flash_n", n, a, b, out, stat, e, func(i int, a, b float64) (flash.State, error) {
-		return flashOne(h, pair, a, b, o, i)
+		return flashOne("tp_flash_n", h, pair, a, b, o, i)
 	})
 }
 
@@ -486,8 +488,8 @@ func property(st *flash.State, prop C.int32_t) (float64, error) {
 		fmt.Sprintf("property code must be TP_PROP_T (1) .. TP_PROP_V (14); got %d", int(prop)))
 }
 
-func propOne(h, pair C.int32_t, a, b float64, prop C.int32_t) (float64, error) {
-	return propOf(prop, func() (flash.State, error) { return flashOne(h, pair, a, b, nil, 0) })
+func propOne(op string, h, pair C.int32_t, a, b float64, prop C.int32_t) (float64, error) {
+	return propOf(prop, func() (flash.State, error) { return flashOne(op, h, pair, a, b, nil, 0) })
 }
 
 // propOf returns property prop of the state fn returns, the code checked
@@ -524,7 +526,7 @@ func scalarCall(e *C.tp_error, fn func() (float64, error)) (v C.double) {
 
 //export tp_prop
 func tp_prop(h, pair C.int32_t, a, b C.double, prop C.int32_t, e *C.tp_error) C.double {
-	return scalarCall(e, func() (float64, error) { return propOne(h, pair, float64(a), float64(b), prop) })
+	return scalarCall(e, func() (float64, error) { return propOne("tp_prop", h, pair, float64(a), float64(b), prop) })
 }
 
 //export tp_prop_n
@@ -541,7 +543,7 @@ func tp_prop_n(h, pair, prop, n C.int32_t, a, b, out *C.double, stat *C.int32_t,
 	}
 	first := C.int32_t(statusOK)
 	for i := range outs {
-		x, err := propOne(h, pair, float64(as[i]), float64(bs[i]), prop)
+		x, err := propOne("tp_prop_n", h, pair, float64(as[i]), float64(bs[i]), prop)
 		code := C.int32_t(statusOf(err))
 		if err != nil && first == statusOK {
 			first = C.int32_t(fail(e, err))
@@ -583,7 +585,7 @@ func derivativeOne(h, pair C.int32_t, in1, in2 float64, a, b, c C.int32_t) (floa
 			return math.NaN(), err
 		}
 	}
-	f, err := lookupHandle(h)
+	f, err := lookupHandle("tp_derivative", h)
 	if err != nil {
 		return math.NaN(), err
 	}
@@ -609,7 +611,7 @@ func curveDerivativeOne(h, curve, at C.int32_t, x float64, phase, a, b C.int32_t
 	if err != nil {
 		return math.NaN(), err
 	}
-	f, err := lookupHandle(h)
+	f, err := lookupHandle(op, h)
 	if err != nil {
 		return math.NaN(), err
 	}

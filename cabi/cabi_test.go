@@ -250,6 +250,10 @@ func TestCErrors(t *testing.T) {
 			if code != statusOK && f[0] != "null-err" && msg == "" {
 				t.Errorf("%s: empty message", f[0])
 			}
+			// A bad handle names the entry point it was passed to.
+			if f[0] == "bad-handle" && !strings.HasPrefix(msg, "tp_flash: ") {
+				t.Errorf("bad-handle: message %q does not name tp_flash", msg)
+			}
 		}
 	}
 	for k := range want {

@@ -56,7 +56,7 @@ func tp_table_new(h C.int32_t, r *C.tp_table_range, e *C.tp_error) (handle C.int
 		}
 	}()
 	defer guard(e, &status)
-	f, err := lookupHandle(h)
+	f, err := lookupHandle("tp_table_new", h)
 	if err != nil {
 		status = C.int32_t(fail(e, err))
 		return 0
