@@ -694,6 +694,14 @@ func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 		res := max(math.Abs(E1/k)/satTolP(Pv, dl, tau), math.Abs(E2/k)/satTolP(Pv, dv, tau),
 			math.Abs(E3)/satTolG(tau))
 		good := dPl > 0 && dPv > 0 && dl > dc && dv < dc && tau > tauc
+		if good && res <= satLinearRes && min(dPl, dPv) >= satLinearDP && max(math.Abs(ddl)/dl, math.Abs(ddv)/dv, math.Abs(dt)/tau) <= satLinearStep {
+			// The last step, by the iterate's own derivatives.
+			s.tau, s.dl, s.dv = tau+dt, dl+ddl, dv+ddv
+			s.rl, s.rv = linearResidual(rl, ddl, dt), linearResidual(rv, ddv, dt)
+			s.il, s.iv = s.rl.Delta(), s.rv.Delta()
+			s.full, s.strict = true, true
+			return s, true
+		}
 		conv, ok := w.check(res, max(math.Abs(ddl)/dl, math.Abs(ddv)/dv, math.Abs(dt)/tau))
 		if good && res < bestRes {
 			bestRes = res
@@ -708,6 +716,36 @@ func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 		tau = stepAbove(tau, dt, tauc)
 	}
 	return s, false
+}
+
+// satLinearStep and satLinearRes bound the Newton step (relative, in δ′,
+// δ″ and τ) and the residual (in units of the convergence bounds) of an
+// iterate of satNewtonP from which the last step is taken by the
+// iterate's own derivatives (linearResidual) instead of by evaluating
+// the equation again: there the terms of second order left out are below
+// 1e-22, the residuals of the result are at the rounding of the update,
+// and the second derivatives kept (cv, cp, w of the phases) are off by
+// about 1e-11 of themselves. A start from the cached curve (within
+// about 1e-12 of the curve, see satCurveDTheta) ends there after one
+// evaluation of each phase.
+const (
+	satLinearStep = 1e-11
+	satLinearRes  = 1e6
+	// satLinearDP bounds (∂P/∂δ)_τ of both phases (reduced) from below:
+	// toward the critical point it vanishes, cp and w of the phases
+	// grow with its inverse, and the second derivatives kept would move
+	// them by more than 1e-10.
+	satLinearDP = 0.1
+)
+
+// linearResidual carries the derivatives r of αʳ at (δ, τ) to (δ + dd,
+// τ + dt) to first order: αʳ, αʳ_δ and αʳ_τ move by their own
+// derivatives; the second derivatives stay.
+func linearResidual(r helmholtz.Derivs, dd, dt float64) helmholtz.Derivs {
+	r.A += r.D*dd + r.T*dt
+	r.D += r.DD*dd + r.DT*dt
+	r.T += r.DT*dd + r.TT*dt
+	return r
 }
 
 // satPByT solves the saturation at p by a bracketed Newton iteration in T

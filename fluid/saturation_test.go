@@ -437,3 +437,79 @@ func TestSaturationAllocs(t *testing.T) {
 		}
 	}
 }
+
+// TestSaturationLinearFinish holds the saturation at p started from the
+// cached curve, whose last Newton step is taken by the iterate's own
+// derivatives (linearResidual), to the equation: both phases evaluated
+// afresh at the result's (T, ρ′) and (T, ρ″) meet the equilibrium
+// conditions at rounding level (checkEquilibrium), and the result's p,
+// h, s, u and g agree with them to rounding, its cv, cp and w within
+// 1e-10 (where the phases are not nearly critical), from the triple
+// point to Tc − critBand for every fluid.
+func TestSaturationLinearFinish(t *testing.T) {
+	t.Parallel()
+	for _, f := range allFluids(t) {
+		rtc := f.r * f.crit.T
+		for _, T := range satGrid(f, 120) {
+			ref, err := f.SaturationAtT(T)
+			if err != nil {
+				t.Fatalf("%s SaturationAtT(%v): %v", f.name, T, err)
+			}
+			p := ref.P
+			sp, ok := f.SaturationPointAtP(p)
+			if !ok {
+				continue
+			}
+			Ts, _ := sp.Temperature()
+			rl, _ := sp.Value(SatLiquidRho)
+			rv, _ := sp.Value(SatVaporRho)
+			s, err := f.SaturationAtPFrom(p, Ts, rl, rv)
+			if err != nil {
+				t.Errorf("%s SaturationAtPFrom(%v): %v", f.name, p, err)
+				continue
+			}
+			fresh := s
+			fresh.Liquid, fresh.Vapor = f.props(s.T, s.Liquid.Rho), f.props(s.T, s.Vapor.Rho)
+			fresh.Liquid.Flags |= Saturated
+			fresh.Vapor.Flags |= Saturated
+			checkEquilibrium(t, f, &fresh, "SaturationAtPFrom, evaluated afresh")
+			for _, ph := range []struct {
+				name      string
+				got, want *Props
+				scatterP  float64
+			}{
+				{"liquid", &s.Liquid, &fresh.Liquid, 0},
+				{"vapour", &s.Vapor, &fresh.Vapor, 0},
+			} {
+				dpS, _ := scatter(f, s.T, ph.want.Rho)
+				// Where (∂P/∂δ)_τ of a phase falls below satLinearDP the
+				// last step is evaluated (and cp grows with its inverse,
+				// so that the ulp of ρ by which ρ′ and ρ″ round moves it
+				// by more than 1e-10): the heat capacities and w are
+				// compared only away from there.
+				soft := min(fresh.Liquid.DpDrho, fresh.Vapor.DpDrho)/(f.r*s.T) < satLinearDP
+				for _, d := range []struct {
+					what           string
+					got, want, tol float64
+				}{
+					{"p", ph.got.P, ph.want.P, 16*dpS + 1e-14*p}, // two evaluations, each within 8 scatters (as checkEquilibrium)
+					{"h", ph.got.H, ph.want.H, 1e-13 * max(math.Abs(ph.want.H), rtc)},
+					{"s", ph.got.S, ph.want.S, 1e-13 * max(math.Abs(ph.want.S), f.r)},
+					{"u", ph.got.U, ph.want.U, 1e-13 * max(math.Abs(ph.want.U), rtc)},
+					{"g", ph.got.G, ph.want.G, 1e-13 * max(math.Abs(ph.want.G), rtc)},
+					{"cv", ph.got.Cv, ph.want.Cv, 1e-10 * ph.want.Cv},
+					{"cp", ph.got.Cp, ph.want.Cp, 1e-10 * ph.want.Cp},
+					{"w", ph.got.W, ph.want.W, 1e-10 * ph.want.W},
+				} {
+					if soft && (d.what == "cv" || d.what == "cp" || d.what == "w") {
+						continue
+					}
+					if !(math.Abs(d.got-d.want) <= d.tol) {
+						t.Errorf("%s p = %v, %s: %s %v, evaluated afresh %v (|diff| %.3g > %.3g)",
+							f.name, p, ph.name, d.what, d.got, d.want, math.Abs(d.got-d.want), d.tol)
+					}
+				}
+			}
+		}
+	}
+}
