@@ -396,8 +396,7 @@ func (f *Fluid) seedPsat(T float64) float64 {
 // saturation builds the exported result; p > 0 overrides the pressure.
 func (f *Fluid) saturation(s *satPair, T, p float64) Saturation {
 	f.complete(s)
-	l := f.propsFromResidual(T, s.dl*f.rhoc, &s.rl)
-	v := f.propsFromResidual(T, s.dv*f.rhoc, &s.rv)
+	l, v := f.propsPairFromResidual(T, s.dl*f.rhoc, s.dv*f.rhoc, &s.rl, &s.rv)
 	l.Flags |= Saturated
 	v.Flags |= Saturated
 	if p <= 0 {

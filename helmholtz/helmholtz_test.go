@@ -118,6 +118,14 @@ func TestIdealDerivatives(t *testing.T) {
 		PlanckEinstein: []PlanckEinstein{{N: 0.97, Theta: 3.5}, {N: 0.012, Theta: 1.3}, {N: 0.25, Theta: 27.5}},
 	})
 	checkDerivs(t, "ideal", id.Eval, testPoints(false))
+	// EvalPair is two calls of Eval, bit for bit.
+	for _, p := range testPoints(false) {
+		d1, d2 := id.EvalPair(p.delta, 2.5*p.delta, p.tau)
+		if d1 != id.Eval(p.delta, p.tau) || d2 != id.Eval(2.5*p.delta, p.tau) {
+			t.Errorf("EvalPair(%v, %v, %v) = %+v, %+v; Eval gives %+v, %+v", p.delta, 2.5*p.delta, p.tau,
+				d1, d2, id.Eval(p.delta, p.tau), id.Eval(2.5*p.delta, p.tau))
+		}
+	}
 }
 
 // TestCriticalPoint checks the nonanalytic terms at δ = τ = 1 exactly: an

@@ -98,17 +98,28 @@ func (id *Ideal) Terms() IdealTerms {
 // Eval returns α° and its derivatives at (δ, τ), δ > 0, τ > 0. The mixed
 // derivative is zero, and the δ-derivatives are those of ln δ.
 func (id *Ideal) Eval(delta, tau float64) Derivs {
-	d := Derivs{
-		A:   elem.Log(delta) + id.t.A1 + id.t.A2*tau,
+	a, t1, t2 := id.EvalTau(tau)
+	return id.withTau(delta, tau, a, t1, t2)
+}
+
+// EvalPair returns α° and its derivatives at (δ1, τ) and (δ2, τ), as two
+// calls of Eval would, with the τ-dependent part evaluated once (the two
+// phases of a saturation share τ).
+func (id *Ideal) EvalPair(delta1, delta2, tau float64) (d1, d2 Derivs) {
+	a, t1, t2 := id.EvalTau(tau)
+	return id.withTau(delta1, tau, a, t1, t2), id.withTau(delta2, tau, a, t1, t2)
+}
+
+// withTau completes α° at (δ, τ) from EvalTau's results.
+func (id *Ideal) withTau(delta, tau, a, t1, t2 float64) Derivs {
+	return Derivs{
+		A:   elem.Log(delta) + id.t.A1 + id.t.A2*tau + a,
 		D:   1 / delta,
+		T:   id.t.A2 + t1,
 		DD:  -1 / (delta * delta),
+		TT:  t2,
 		DDD: 2 / (delta * delta * delta),
 	}
-	a, t1, t2 := id.EvalTau(tau)
-	d.A += a
-	d.T = id.t.A2 + t1
-	d.TT = t2
-	return d
 }
 
 // EvalTau returns the τ-dependent part of α° without ln δ + A1 + A2 τ, and
