@@ -163,9 +163,15 @@ func (n *satNodes) liquidAtS(i int, s float64) (T, h, errH float64) {
 	return min(max(T, n.T[i]), n.T[i+1]), h, errH
 }
 
-// buildAnchors collects the anchor states of f: every eighth saturation
-// node below 0.97 Tc (both phases; nearer the critical point their
-// derivatives mislead), every sixteenth point of the solid model's
+// anchorStride is the step in the saturation nodes between anchors:
+// the cached curve holds a node every 0.001 in 1 − T/Tc away from the
+// critical point, and anchorFor, which tries every anchor, needs no more
+// than one every 0.05 or so.
+const anchorStride = 48
+
+// buildAnchors collects the anchor states of f: saturation nodes below
+// 0.97 Tc about 0.05 apart in 1 − T/Tc (anchorStride; both phases;
+// nearer the critical point their derivatives mislead), every sixteenth point of the solid model's
 // curves (the fluid phase), and states on a grid above Tc (1.05 to 4.5 Tc,
 // 0.02 to 3 ρc) and of the compressed fluid (0.1 to 100 times the
 // published pressure limit, up to the accepted one), where the equation
@@ -178,7 +184,7 @@ func (n *satNodes) buildAnchors(f *fluid.Fluid) {
 			n.anchors = append(n.anchors, pr)
 		}
 	}
-	for i := 0; i < len(n.T); i += 8 {
+	for i := 0; i < len(n.T); i += anchorStride {
 		if n.T[i] <= 0.97*c.T {
 			n.anchors = append(n.anchors, n.liq[i], n.vap[i])
 		}

@@ -48,9 +48,18 @@ type satCurve struct {
 	tIdx  nodeIndex     // of ts
 	pIdx  nodeIndex     // of lnp
 	tc    float64       // Critical().T
-	// mono[q] is +1 or −1 where quantity q rises or falls with T along
-	// the whole curve (node values and slopes), else 0.
-	mono [nSatQ]int8
+	// segs[q] splits the intervals into runs along which quantity q
+	// rises or falls with T (node values and slopes) and single
+	// intervals between them (satSegment), for the search of a value.
+	segs [nSatQ][]satSegment
+}
+
+// satSegment is the intervals a ≤ i < b of a cached curve: a run along
+// which a quantity rises (m = +1) or falls (m = −1) with T, node values
+// and slopes, or (m = 0) a single interval where it does neither.
+type satSegment struct {
+	a, b int
+	m    int8
 }
 
 // Indices of the interpolated quantities.
@@ -229,7 +238,7 @@ func (f *Fluid) buildSatCurve() (*satCurve, error) {
 		}
 	}
 	for q := range nSatQ {
-		c.mono[q] = monotone(c.nodes, q)
+		c.segs[q] = segments(c.nodes, q)
 	}
 	c.tIdx, c.pIdx = newNodeIndex(c.ts), newNodeIndex(c.lnp)
 	// The coordinate and the error of each interpolant in each interval,
@@ -317,21 +326,41 @@ func (f *Fluid) measureInterval(c *satCurve, i int) error {
 	return nil
 }
 
-// monotone returns +1 or −1 where the values and slopes of quantity q at
-// the nodes all rise or all fall, else 0.
-func monotone(ns []satNode, q int) int8 {
-	up, down := true, true
-	for i := range ns {
-		up = up && ns[i].d[q] > 0 && (i == 0 || ns[i].v[q] > ns[i-1].v[q])
-		down = down && ns[i].d[q] < 0 && (i == 0 || ns[i].v[q] < ns[i-1].v[q])
+// segments splits the intervals between the nodes ns into the runs
+// along which quantity q rises or falls with T (each node's slope of one
+// sign and each value beyond the one before) and the single intervals
+// between them.
+func segments(ns []satNode, q int) []satSegment {
+	sign := func(i int) int8 {
+		switch d := ns[i].d[q]; {
+		case d > 0:
+			return 1
+		case d < 0:
+			return -1
+		}
+		return 0
 	}
-	switch {
-	case up:
-		return 1
-	case down:
-		return -1
+	// along reports whether interval i rises (m = 1) or falls (m = −1)
+	// with its nodes.
+	along := func(i int, m int8) bool {
+		return m != 0 && sign(i) == m && sign(i+1) == m && float64(m)*(ns[i+1].v[q]-ns[i].v[q]) > 0
 	}
-	return 0
+	var segs []satSegment
+	for i := 0; i < len(ns)-1; {
+		m := sign(i)
+		if !along(i, m) {
+			segs = append(segs, satSegment{a: i, b: i + 1})
+			i++
+			continue
+		}
+		j := i + 1
+		for j < len(ns)-1 && along(j, m) {
+			j++
+		}
+		segs = append(segs, satSegment{a: i, b: j, m: m})
+		i = j
+	}
+	return segs
 }
 
 // satFloor is the rounding floor of quantity q over an interval.

@@ -5,6 +5,8 @@ import (
 	"sync"
 	"testing"
 	"unsafe"
+
+	"github.com/tripoint-thermo/tripoint/internal/elem"
 )
 
 // estValues returns the bounded values of an estimate and their bounds,
@@ -457,4 +459,71 @@ func FuzzSatEstimate(f *testing.F) {
 			}
 		}
 	})
+}
+
+// TestSatCurveSegments holds the search of SaturationPointsWhere, which
+// bisects the runs of its segments, to a scan of every interval: the
+// same points for values at, between and beyond the nodes of every
+// quantity of every fluid (the runs of each quantity cover the intervals
+// once, in order).
+func TestSatCurveSegments(t *testing.T) {
+	t.Parallel()
+	for _, f := range allFluids(t) {
+		c := f.satCurve()
+		for v := range len(satQ) {
+			q := satQ[v].q
+			next := 0
+			for _, sg := range c.segs[q] {
+				if sg.a != next || sg.b <= sg.a || sg.m == 0 && sg.b != sg.a+1 {
+					t.Fatalf("%s quantity %d: segment %+v after %d", f.name, q, sg, next)
+				}
+				next = sg.b
+			}
+			if next != len(c.ivs) {
+				t.Fatalf("%s quantity %d: segments end at %d of %d intervals", f.name, q, next, len(c.ivs))
+			}
+			var targets []float64
+			for i := range c.nodes {
+				x := c.nodes[i].v[q]
+				targets = append(targets, x)
+				if i+1 < len(c.nodes) {
+					targets = append(targets, 0.5*(x+c.nodes[i+1].v[q]), x+0.1*(c.nodes[i+1].v[q]-x))
+				}
+			}
+			lo, hi := c.nodes[0].v[q], c.nodes[len(c.nodes)-1].v[q]
+			targets = append(targets, lo-1, hi+1, 2*hi-lo)
+			for _, target := range targets {
+				// x in the caller's units, and the target it gives back
+				// (to rounding the one chosen).
+				x, tq := target, target
+				switch {
+				case satQ[v].log:
+					x = math.Exp(target)
+					tq = elem.Log(x)
+				case q == sqSL || q == sqSV:
+					x += f.sOff
+					tq = x - f.sOff
+				default:
+					x += f.hOff
+					tq = x - f.hOff
+				}
+				var want []SatPoint
+				for i := range c.ivs {
+					want = f.crossingsIn(c, i, q, tq, want)
+				}
+				got := f.SaturationPointsWhere(SatValue(v), x, nil)
+				if len(got) != len(want) {
+					t.Errorf("%s value %d = %v: %d points, a scan of the intervals %d", f.name, v, x, len(got), len(want))
+					continue
+				}
+				for k := range got {
+					gT, _ := got[k].Temperature()
+					wT, _ := want[k].Temperature()
+					if gT != wT {
+						t.Errorf("%s value %d = %v: point %d at %v K, a scan %v K", f.name, v, x, k, gT, wT)
+					}
+				}
+			}
+		}
+	}
 }

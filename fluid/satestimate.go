@@ -407,43 +407,53 @@ func (f *Fluid) SaturationPointsWhere(v SatValue, x float64, dst []SatPoint) []S
 	default:
 		target -= f.hOff
 	}
-	lo, hi := 0, len(c.ivs)
-	if m := float64(c.mono[q]); m != 0 {
-		// One crossing at most: the interval by bisection of the nodes.
-		n := len(c.nodes)
-		if (c.nodes[0].v[q]-target)*m > 0 || (c.nodes[n-1].v[q]-target)*m < 0 {
-			return dst
-		}
-		a, b := 0, n-1
-		for b-a > 1 {
-			mid := (a + b) / 2
-			if (c.nodes[mid].v[q]-target)*m > 0 {
-				b = mid
-			} else {
-				a = mid
+	for _, sg := range c.segs[q] {
+		i := sg.a
+		if m := float64(sg.m); m != 0 {
+			// One crossing at most: the interval by bisection of the
+			// run's nodes.
+			if (c.nodes[sg.a].v[q]-target)*m > 0 || (c.nodes[sg.b].v[q]-target)*m < 0 {
+				continue
 			}
+			a, b := sg.a, sg.b
+			for b-a > 1 {
+				mid := (a + b) / 2
+				if (c.nodes[mid].v[q]-target)*m > 0 {
+					b = mid
+				} else {
+					a = mid
+				}
+			}
+			i = a
 		}
-		lo, hi = a, a+1
+		dst = f.crossingsIn(c, i, q, target, dst)
 	}
-	for i := lo; i < hi; i++ {
-		a, b := &c.nodes[i], &c.nodes[i+1]
-		fa, fb := a.v[q]-target, b.v[q]-target
-		switch {
-		case fa == 0:
-			dst = append(dst, f.pointWhere(c, i, q, target, 0, 0))
-		case fb == 0 && i == len(c.ivs)-1:
-			dst = append(dst, f.pointWhere(c, i, q, target, 1, 1))
-		case fb == 0:
-			// At the next interval's first node.
-		case (fa < 0) != (fb < 0):
-			dst = append(dst, f.pointWhere(c, i, q, target, 0, 1))
-		case (a.d[q] < 0) != (b.d[q] < 0):
-			// An extremum inside: two roots where it lies beyond x.
-			sm := c.extremumIn(i, q)
-			if fm := c.ivs[i].poly[q].at(sm) - target; fm != 0 && (fm < 0) != (fa < 0) {
-				dst = append(dst, f.pointWhere(c, i, q, target, 0, sm))
-				dst = append(dst, f.pointWhere(c, i, q, target, sm, 1))
-			}
+	return dst
+}
+
+// crossingsIn appends to dst the points of interval i of the curve c
+// where quantity q equals target: where the nodes' values straddle it,
+// and two where an extremum inside lies beyond it. A crossing exactly at
+// a node belongs to the interval that starts there (the last interval
+// keeps its end).
+func (f *Fluid) crossingsIn(c *satCurve, i, q int, target float64, dst []SatPoint) []SatPoint {
+	a, b := &c.nodes[i], &c.nodes[i+1]
+	fa, fb := a.v[q]-target, b.v[q]-target
+	switch {
+	case fa == 0:
+		dst = append(dst, f.pointWhere(c, i, q, target, 0, 0))
+	case fb == 0 && i == len(c.ivs)-1:
+		dst = append(dst, f.pointWhere(c, i, q, target, 1, 1))
+	case fb == 0:
+		// At the next interval's first node.
+	case (fa < 0) != (fb < 0):
+		dst = append(dst, f.pointWhere(c, i, q, target, 0, 1))
+	case (a.d[q] < 0) != (b.d[q] < 0):
+		// An extremum inside: two roots where it lies beyond x.
+		sm := c.extremumIn(i, q)
+		if fm := c.ivs[i].poly[q].at(sm) - target; fm != 0 && (fm < 0) != (fa < 0) {
+			dst = append(dst, f.pointWhere(c, i, q, target, 0, sm))
+			dst = append(dst, f.pointWhere(c, i, q, target, sm, 1))
 		}
 	}
 	return dst
