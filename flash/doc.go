@@ -156,9 +156,16 @@
 // of the saturation and solid curves built once per fluid, at medians of
 // 3 to 8 evaluations in every region (TestHSEvals). The
 // flashes use Newton's method with analytic Jacobians from starting
-// values out of the auxiliary equations, with bracketing fallbacks that
-// always terminate, and a warm start from Options.Guess; the common paths
-// allocate nothing.
+// values out of the fluid's cached saturation curve and the auxiliary
+// equations, with bracketing fallbacks that always terminate, and a warm
+// start from Options.Guess; the common paths allocate nothing. A Newton
+// step below 1e-11 of T and ρ, away from the critical point, is taken by
+// the state's own derivatives (to first order in p, u, h, s, g and f;
+// cp, cv, w and the other derivatives as evaluated, which that step
+// moves by about 1e-11 of themselves) instead of by one more evaluation
+// that would only confirm it; a saturation at p likewise (see
+// fluid.SaturationAtPFrom). Single-phase PH and PS take 2 to 4
+// evaluations, two-phase ones 2, warm-started ones 2.
 //
 // # Errors
 //

@@ -282,7 +282,11 @@ func (f *Fluid) SaturationAtTFrom(T, rhoL, rhoV float64) (Saturation, error) {
 // SaturationAtPFrom is SaturationAtP started from the temperature T in K
 // and the saturated densities rhoL and rhoV in kg/m³ of a nearby
 // saturation state (a warm start); where they are not usable it is
-// SaturationAtP.
+// SaturationAtP. From a start within about 1e-11 of the saturation (the
+// cached curve's, SaturationPointAtP), away from the critical point, its
+// Newton step is taken by the start's own derivatives (satLinearStep):
+// the phases' p, h, s, u and g are then the equation's to rounding, their
+// cv, cp and w within about 1e-11, at one evaluation of each phase.
 func (f *Fluid) SaturationAtPFrom(p, T, rhoL, rhoV float64) (Saturation, error) {
 	if !f.warmUsable(T, rhoL, rhoV) || !(p >= f.triple.P && p < f.crit.P) {
 		return f.SaturationAtP(p)
