@@ -316,11 +316,8 @@ func (k *call) polish(c *sublimation.Coexistence, p float64) {
 	nf.Flags |= Saturated
 	ns.Flags |= Saturated
 	*c = sublimation.Coexistence{T: T + dT, P: nf.P, Solid: ns, Fluid: nf}
-	if math.Abs(nf.P-p) <= 1e-12*(p+nf.Rho*rt) {
-		// At p itself to the rounding of a dense liquid's p, as the curve
-		// solver takes it (water at its triple point: one ulp of ρ moves
-		// p by 4e-10 of it).
-		c.P = p
+	if sublimation.AtPressure(&nf, p, k.f.GasConstant()) {
+		c.P = p // as the curve solver takes it
 	}
 }
 

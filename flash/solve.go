@@ -111,12 +111,12 @@ const linearFinishStep = 1e-11
 // confirm a step of 1e-13 (a liquid's pressure needs it: its stiffness
 // turns the last ulps of ρ into the floor of p). It reports whether it
 // took the step.
-func linearFinish(f *fluid.Fluid, pr *fluid.Props, dT, dRho float64) bool {
+// lim is f's Limits.
+func linearFinish(f *fluid.Fluid, lim *fluid.Limits, pr *fluid.Props, dT, dRho float64) bool {
 	T, rho := pr.T, pr.Rho
 	if !(math.Abs(dT) <= linearFinishStep*T && math.Abs(dRho) <= linearFinishStep*rho) || !(pr.Cp < 50*pr.Cv) {
 		return false
 	}
-	lim := f.Limits()
 	if T+dT < lim.TFloor || T+dT > lim.TCeil || rho+dRho > lim.RhoCeil {
 		return false
 	}
@@ -270,7 +270,7 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 			dT = T * expm1(max(min(dT, math.Ln2), -math.Ln2))
 			dRho = rho * expm1(max(min(dRho, 2*math.Ln2), -2*math.Ln2))
 		}
-		if res <= 1e4 && linearFinish(f, &pr, dT, dRho) {
+		if res <= 1e4 && linearFinish(f, &lim, &pr, dT, dRho) {
 			return pr, true
 		}
 		s := 1.0

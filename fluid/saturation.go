@@ -697,7 +697,8 @@ func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 		res := max(math.Abs(E1/k)/satTolP(Pv, dl, tau), math.Abs(E2/k)/satTolP(Pv, dv, tau),
 			math.Abs(E3)/satTolG(tau))
 		good := dPl > 0 && dPv > 0 && dl > dc && dv < dc && tau > tauc
-		if good && res <= satLinearRes && min(dPl, dPv) >= satLinearDP && max(math.Abs(ddl)/dl, math.Abs(ddv)/dv, math.Abs(dt)/tau) <= satLinearStep {
+		step := max(math.Abs(ddl)/dl, math.Abs(ddv)/dv, math.Abs(dt)/tau)
+		if good && res <= satLinearRes && min(dPl, dPv) >= satLinearDP && step <= satLinearStep {
 			// The last step, by the iterate's own derivatives.
 			s.tau, s.dl, s.dv = tau+dt, dl+ddl, dv+ddv
 			s.rl, s.rv = linearResidual(rl, ddl, dt), linearResidual(rv, ddv, dt)
@@ -705,7 +706,7 @@ func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 			s.full, s.strict = true, true
 			return s, true
 		}
-		conv, ok := w.check(res, max(math.Abs(ddl)/dl, math.Abs(ddv)/dv, math.Abs(dt)/tau))
+		conv, ok := w.check(res, step)
 		if good && res < bestRes {
 			bestRes = res
 			s.tau, s.dl, s.dv, s.rl, s.rv, s.strict = tau, dl, dv, rl, rv, res <= 1

@@ -508,11 +508,7 @@ func (s Solid) coexistAtP(op string, p, T0, rho0, maxStep float64) (Coexistence,
 		}
 		if math.Abs(dT) <= tolStep*T && math.Abs(dy) <= tolStep {
 			c := s.coexistence(T, fp)
-			if math.Abs(fp.P-p) <= 1e-12*(p+rho*rt) {
-				// At the given pressure itself: the fluid's own p at the
-				// converged density differs from it by rounding (a dense
-				// liquid's p scatters by about 1e-13·ρRT: 2e-8 of p for
-				// water at its triple point).
+			if AtPressure(&fp, p, R) {
 				c.P = p
 			}
 			return c, nil
@@ -546,6 +542,16 @@ func (s Solid) coexistAtP(op string, p, T0, rho0, maxStep float64) (Coexistence,
 		T, y = T+dT, y+dy
 	}
 	return Coexistence{}, s.noConv(op, nil, in)
+}
+
+// AtPressure reports whether the fluid state fp of a coexistence with R
+// its gas constant in J/(kg·K) lies at pressure p in Pa to the rounding
+// of its own p: |p_fluid − p| ≤ 1e-12·(p + ρRT), since a dense liquid's
+// p scatters by about 1e-13·ρRT (2e-8 of p for water at its triple
+// point, where one ulp of ρ moves p by 4e-10 of it). The curves take such
+// a state as at p itself (Coexistence.P = p).
+func AtPressure(fp *fluid.Props, p, R float64) bool {
+	return math.Abs(fp.P-p) <= 1e-12*(p+fp.Rho*R*fp.T)
 }
 
 // coexistence builds the result from the converged fluid state: the solid
