@@ -502,7 +502,8 @@ func PQWith(f *fluid.Fluid, p, q float64, opt Options) (st State, err error) {
 // satP returns the saturation at p, started from the cached curve, else
 // from the guess.
 func (k *call) satP(p float64) (fluid.Saturation, error) {
-	s, ok, err := k.satFromCacheP(p)
+	var s fluid.Saturation
+	ok, err := k.satFromCacheP(p, &s)
 	if !ok {
 		if gT, rl, rv, okg := k.guessSat(); okg {
 			s, err = k.f.SaturationAtPFrom(p, gT, rl, rv)
@@ -740,7 +741,7 @@ func (k *call) isobaric(p float64, X quantity, x float64, st *State) error {
 	// curve where x lies outside its bounds.
 	var s fluid.Saturation
 	var err error
-	if sp, ok := f.SaturationPointAtP(p); ok {
+	if sp := (fluid.SatPoint{}); sp.LocateP(f, p) {
 		Ts, errT := sp.Temperature()
 		if want != TwoPhase {
 			switch placeX(&sp, X, x) {
@@ -761,7 +762,7 @@ func (k *call) isobaric(p float64, X quantity, x float64, st *State) error {
 				return k.isobarSingle(p, X, x, &start, liquidSide, Tf, Ts+errT, false, st)
 			}
 		}
-		s, err = k.satFromPoint(&sp, p)
+		err = sp.Solve(&s)
 	} else {
 		// Within a millikelvin of the critical point, or between the
 		// stored triple-point pressure and the equation's vapour
@@ -842,18 +843,7 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) (done b
 	}
 	f := k.f
 	if gT, rl, rv, ok := k.guessSat(); ok {
-		c := f.Critical()
-		if !(p < c.P && p >= k.sol.pt) {
-			return false, nil
-		}
-		s, ok, err := k.satFromCacheP(p)
-		if !ok {
-			s, err = f.SaturationAtPFrom(p, gT, rl, rv)
-		}
-		if err != nil {
-			return false, nil
-		}
-		return k.isobaricSat(p, X, x, &s, st) == nil, nil
+		return k.isobaricWarmSat(p, X, x, gT, rl, rv, st), nil
 	}
 	if !k.fluidGuess() {
 		return false, nil
@@ -864,22 +854,63 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) (done b
 	if p >= f.Critical().P {
 		sd = anySide
 	}
-	T0, rho0 := predict(g, p, X, x)
+	T0, rho0 := predict(g, p, X, x, false)
+	near := false // a vapour within 20 % of its vapour pressure
+	if sd != anySide {
+		if ps, errP, ok := f.VaporPressureEstimate(T0); ok {
+			if liquid && p < ps-errP || !liquid && p > ps+errP {
+				// The guess's phase carried to (p, x) lies beyond the
+				// vapour-pressure curve: the state is most likely a
+				// mixture (or the other phase), placed against the
+				// saturation at p at once, without first solving for a
+				// metastable state.
+				return k.isobaricWarmSat(p, X, x, 0, 0, 0, st), nil
+			}
+			near = !liquid && p > 0.8*ps
+		}
+	}
 	from := fluid.Props{T: g.T, Rho: g.Rho}
-	pr, ok := newton2(f, qP, p, X, x, T0, rho0, onBranch(f, sd, lim.TFloor, lim.TCeil), &from)
+	br := onBranch(f, sd, lim.TFloor, lim.TCeil)
+	// A vapour near its vapour pressure, where p(ρ) bends most, in
+	// (T, ln ρ) (see lnRhoStep); farther off the plain step ends as soon
+	// and costs less.
+	br.lnRhoStep = near
+	pr, ok := newton2(f, qP, p, X, x, T0, rho0, br, &from)
 	if !ok {
 		if k.aboveTCeil(&pr, p, X, x) {
 			return true, k.rangeTError()
 		}
 		return false, nil
 	}
-	if stable, _ := k.stable(&pr); !stable {
+	stable, _ := k.stable(&pr)
+	if !stable {
 		return false, nil
 	}
 	if err := k.finishTo(&pr, st); err != nil || !satisfies(k.opt.Phase, st.Phase) {
 		return false, nil
 	}
 	return true, nil
+}
+
+// isobaricWarmSat is the warm start of PH/PS through the equation's
+// saturation at p (pt ≤ p < pc), started from the cached curve, or where
+// it has none from the guess's saturated phases (T gT, densities rl and
+// rv; gT = 0: none), and placed by isobaricSat. It reports whether that
+// decided the state; where not, the cold path does.
+func (k *call) isobaricWarmSat(p float64, X quantity, x, gT, rl, rv float64, st *State) bool {
+	f := k.f
+	if !(p < f.Critical().P && p >= k.sol.pt) {
+		return false
+	}
+	var s fluid.Saturation
+	ok, err := k.satFromCacheP(p, &s)
+	if !ok {
+		if !(gT > 0) {
+			return false
+		}
+		s, err = f.SaturationAtPFrom(p, gT, rl, rv)
+	}
+	return err == nil && k.isobaricSat(p, X, x, &s, st) == nil
 }
 
 // predict returns the start of a warm-started PH (X = h) or PS (X = s)
@@ -890,10 +921,11 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) (done b
 //	(∂p/∂ρ)_T = w² cv/cp,  (∂p/∂T)_ρ = ρ √((cp − cv)(∂p/∂ρ)_T/T)
 //
 // (the root taken positive: a liquid below its density maximum, where
-// it is negative, is started less well). Where the step would move T by
-// more than 5 % or ρ by more than 10 %, or the guess lacks what it needs,
-// the guess itself.
-func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
+// it is negative, is started less well). With lnRho the step is taken in
+// (T, ln ρ) on ln p, as newton2's lnRhoStep, for a vapour. Where the step
+// would move T by more than 5 % or ρ by more than 10 %, or the guess
+// lacks what it needs, the guess itself.
+func predict(g *State, p float64, X quantity, x float64, lnRho bool) (T, rho float64) {
 	T, rho = g.T, g.Rho
 	cp, cv, w := g.Cp, g.Cv, g.W
 	if !(cp > cv && cv > 0 && w > 0 && isFinite(cp)) {
@@ -905,9 +937,28 @@ func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
 	a1, a2 := qP.partials(&pr)
 	b1, b2 := X.partials(&pr)
 	ra, rb := g.P-p, X.of(&pr)-x
+	if lnRho {
+		// (A start: the series of ln(1 + x) and e^x − 1 to x⁴ for
+		// steps within 1 %, exact to 1e-10 of the step.)
+		if x := (g.P - p) / p; math.Abs(x) < 0.01 {
+			ra = x * (1 - x*(0.5-x*(1.0/3-0.25*x)))
+		} else {
+			ra = elem.Log(g.P / p)
+		}
+		ip := 1 / g.P
+		a1, a2 = a1*ip, a2*rho*ip
+		b2 *= rho
+	}
 	det := a1*b2 - a2*b1
 	dT := (-ra*b2 + rb*a2) / det
 	dRho := (-rb*a1 + ra*b1) / det
+	if lnRho {
+		if d := dRho; math.Abs(d) < 0.01 {
+			dRho = rho * d * (1 + d*(0.5+d*(1.0/6+d/24)))
+		} else {
+			dRho = rho * expm1(max(min(d, 0.2), -0.2))
+		}
+	}
 	if !isFinite(dT) || !isFinite(dRho) || math.Abs(dT) > 0.05*T || math.Abs(dRho) > 0.1*rho {
 		return T, rho
 	}

@@ -253,6 +253,48 @@ func TestWarmStart(t *testing.T) {
 	}
 }
 
+// TestWarmStartAcrossSaturation holds warm starts from a single phase
+// next to the vapour-pressure curve to the cold flash where the step
+// crosses the curve (a liquid heated into the dome, a vapour cooled into
+// it, either stepped through it to the other phase) and where it stays on
+// its side (a vapour near its vapour pressure, solved in (T, ln ρ)): the
+// same phase, T within 1e-9, quality within 1e-9.
+func TestWarmStartAcrossSaturation(t *testing.T) {
+	for _, f := range fluids(t) {
+		tp, c := f.Triple(), f.Critical()
+		for _, T := range []float64{tp.T + 0.2*(c.T-tp.T), tp.T + 0.6*(c.T-tp.T), 0.97 * c.T} {
+			s, err := f.SaturationAtT(T)
+			if err != nil {
+				t.Fatal(err)
+			}
+			hfg := s.Vapor.H - s.Liquid.H
+			for _, g := range []struct {
+				p  float64
+				dh []float64 // steps in units of the enthalpy of vaporization
+			}{
+				{1.003 * s.P, []float64{0.01, 0.5, 1.2}},    // liquid
+				{0.997 * s.P, []float64{-0.01, -0.5, 0.01}}, // vapour
+			} {
+				prev, err := PT(f, g.p, T)
+				if err != nil {
+					t.Fatal(err)
+				}
+				for _, d := range g.dh {
+					p, h := g.p*1.0005, prev.H+d*hfg
+					cold, err1 := PH(f, p, h)
+					warm, err2 := PHWith(f, p, h, Options{Guess: &prev})
+					if err1 != nil || err2 != nil || cold.Phase != warm.Phase ||
+						math.Abs(cold.T-warm.T) > 1e-9*cold.T || math.Abs(cold.Quality-warm.Quality) > 1e-9 {
+						t.Errorf("%s PH(%v, %v) from %v at %v K: warm %v %v q %v, cold %v %v q %v (%v, %v)",
+							f.Name(), p, h, prev.Phase, T, warm.Phase, warm.T, warm.Quality,
+							cold.Phase, cold.T, cold.Quality, err2, err1)
+					}
+				}
+			}
+		}
+	}
+}
+
 // TestRobustness is a sweep of pseudo-random states from several
 // goroutines. Valid states (made by DT from random (T, ρ) in the fluid
 // region) must come back from a random other flash, reproducing its

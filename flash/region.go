@@ -6,6 +6,7 @@ import (
 	"sort"
 	"strconv"
 	"sync"
+	"sync/atomic"
 
 	"github.com/tripoint-thermo/tripoint/fluid"
 	"github.com/tripoint-thermo/tripoint/sublimation"
@@ -239,7 +240,61 @@ type solidSide struct {
 	ptLine float64 // the centre of the triple line in p (pt, or the models' own)
 }
 
+// init sets b to the solid side of f, from solidSides where f has been
+// seen before.
 func (b *solidSide) init(f *fluid.Fluid) {
+	if c := solidSides.Load(); c != nil {
+		for i := range c.n {
+			if c.f[i] == f {
+				*b = c.s[i]
+				return
+			}
+		}
+	}
+	b.build(f)
+	solidSides.add(f, b)
+}
+
+// solidSideCache holds the solid sides of the last fluids seen (a flash
+// would otherwise look up its fluid's models by name on every call): up
+// to len(f), replaced whole on every addition (copy on write), so that a
+// lookup is a scan of a few pointers without a lock.
+type solidSideCache struct {
+	n int
+	f [8]*fluid.Fluid
+	s [8]solidSide
+}
+
+// solidSideStore publishes the current solidSideCache.
+type solidSideStore struct {
+	atomic.Pointer[solidSideCache]
+	mu sync.Mutex
+}
+
+var solidSides solidSideStore
+
+// add records b as the solid side of f; where the cache is full the
+// oldest entry gives way.
+func (st *solidSideStore) add(f *fluid.Fluid, b *solidSide) {
+	st.mu.Lock()
+	defer st.mu.Unlock()
+	var c solidSideCache
+	if old := st.Load(); old != nil {
+		c = *old
+	}
+	if c.n == len(c.f) {
+		copy(c.f[:], c.f[1:])
+		copy(c.s[:], c.s[1:])
+		c.n--
+	}
+	c.f[c.n], c.s[c.n] = f, *b
+	c.n++
+	st.Store(&c)
+}
+
+// build sets b to the solid side of f from its models.
+func (b *solidSide) build(f *fluid.Fluid) {
+	*b = solidSide{}
 	t := f.Triple()
 	b.tt, b.pt = t.T, t.P
 	b.ptLine = b.pt

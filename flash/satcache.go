@@ -92,38 +92,24 @@ func (k *call) stableByCache(pr *fluid.Props) (stable, decided bool) {
 	return false, false
 }
 
-// satFromCacheT returns the equation's saturation at T started from the
-// cached curve; ok is false where the curve has no estimate at T.
-func (k *call) satFromCacheT(T float64) (fluid.Saturation, bool, error) {
-	sp, ok := k.f.SaturationPointAtT(T)
-	if !ok {
-		return fluid.Saturation{}, false, nil
+// satFromCacheT sets dst to the equation's saturation at T started from
+// the cached curve (SatPoint.Solve), in place; ok is false where the
+// curve has no estimate at T (dst is then untouched).
+func (k *call) satFromCacheT(T float64, dst *fluid.Saturation) (ok bool, err error) {
+	var sp fluid.SatPoint
+	if !sp.LocateT(k.f, T) {
+		return false, nil
 	}
-	s, err := k.satFromPoint(&sp, 0)
-	return s, true, err
+	return true, sp.Solve(dst)
 }
 
 // satFromCacheP is satFromCacheT at pressure p.
-func (k *call) satFromCacheP(p float64) (fluid.Saturation, bool, error) {
-	sp, ok := k.f.SaturationPointAtP(p)
-	if !ok {
-		return fluid.Saturation{}, false, nil
+func (k *call) satFromCacheP(p float64, dst *fluid.Saturation) (ok bool, err error) {
+	var sp fluid.SatPoint
+	if !sp.LocateP(k.f, p) {
+		return false, nil
 	}
-	s, err := k.satFromPoint(&sp, p)
-	return s, true, err
-}
-
-// satFromPoint returns the equation's saturation at the temperature of
-// the point sp of the cached curve, or with p > 0 at pressure p, started
-// from sp's saturated densities.
-func (k *call) satFromPoint(sp *fluid.SatPoint, p float64) (fluid.Saturation, error) {
-	T, _ := sp.Temperature()
-	rl, _ := sp.Value(fluid.SatLiquidRho)
-	rv, _ := sp.Value(fluid.SatVaporRho)
-	if p > 0 {
-		return k.f.SaturationAtPFrom(p, T, rl, rv)
-	}
-	return k.f.SaturationAtTFrom(T, rl, rv)
+	return true, sp.Solve(dst)
 }
 
 // taitRho returns the density of a liquid of density rho and (∂p/∂ρ)_T
@@ -344,7 +330,8 @@ func (k *call) mixtureOnIsochore(rho, u, lo, hi float64) (st State, err error, o
 	// Polished on the equation's saturation.
 	prevR := math.Inf(1)
 	for it := 0; it < 30; it++ {
-		s, okc, err := k.satFromCacheT(T)
+		var s fluid.Saturation
+		okc, err := k.satFromCacheT(T, &s)
 		if !okc || err != nil {
 			return st, nil, false
 		}

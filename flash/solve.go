@@ -163,6 +163,18 @@ func expm1(x float64) float64 {
 	return elem.Exp(x) - 1
 }
 
+// lnRatio returns ln(a/b) for positive a and b, ib = 1/b: by the series
+// of ln(1 + x), x = (a − b)/b, to x⁴ where |x| < 1e-4 (a relative error
+// below 1e-16: a residual of an iteration near its end, without a
+// logarithm or a division), else by the table-driven logarithm.
+func lnRatio(a, b, ib float64) float64 {
+	x := (a - b) * ib
+	if math.Abs(x) < 1e-4 {
+		return x * (1 - x*(0.5-x*(1.0/3-0.25*x)))
+	}
+	return elem.Log(a * ib)
+}
+
 // watch tracks the scaled residual of an iteration (1 = converged); see
 // check.
 type watch struct {
@@ -198,6 +210,13 @@ type branch struct {
 	// logStep: Newton's method in (ln T, ln ρ) on ln p (a = p), nearly
 	// linear for gases (p = ρRTZ), from starts far off.
 	logStep bool
+	// lnRhoStep: Newton's method in (T, ln ρ) on ln p (a = p), for a
+	// vapour from a near start (a warm start): ln p is nearly linear in
+	// ln ρ and h in T there, and the last step comes out about five
+	// times shorter than in (T, ρ) or in (ln T, ln ρ) (measured on the
+	// warm-start grids of the benchmarks), which often spares the
+	// evaluation that would only confirm it (see linearFinish).
+	lnRhoStep bool
 }
 
 func (b *branch) keep(pr *fluid.Props) bool {
@@ -232,6 +251,7 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 		prev, havePrev = *start, true
 	}
 	w := watch{best: math.Inf(1)}
+	iva := 1 / va // (for lnRhoStep)
 	backs, pinned := 0, 0
 	lastStep, prevDT, prevRb := math.Inf(1), 0.0, math.Inf(1)
 	for it := 0; it < 60; it++ {
@@ -252,13 +272,22 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 		}
 		a1, a2 := a.partials(&pr)
 		b1, b2 := b.partials(&pr)
-		logged := br.logStep && a == qP && pr.P > 0 && va > 0
-		if logged {
+		onLnP := a == qP && pr.P > 0 && va > 0
+		logged := br.logStep && onLnP
+		lnRho := !logged && br.lnRhoStep && onLnP
+		switch {
+		case logged:
 			// In ln T and ln ρ, on ln p: the linear step below then
 			// gives d ln T and d ln ρ, turned back into dT and dρ.
 			ra = elem.Log(pr.P / va)
 			a1, a2 = a1*T/pr.P, a2*rho/pr.P
 			b1, b2 = b1*T, b2*rho
+		case lnRho:
+			// In T and ln ρ, on ln p (its row multiplied by p, which
+			// leaves the step as it is and spares the divisions).
+			ra = pr.P * lnRatio(pr.P, va, iva)
+			a2 *= rho
+			b2 *= rho
 		}
 		det := a1*b2 - a2*b1
 		dT := (-ra*b2 + rb*a2) / det
@@ -266,9 +295,18 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 		if !isFinite(dT) || !isFinite(dRho) {
 			return pr, false
 		}
-		if logged {
+		switch {
+		case logged:
 			dT = T * expm1(max(min(dT, math.Ln2), -math.Ln2))
 			dRho = rho * expm1(max(min(dRho, 2*math.Ln2), -2*math.Ln2))
+		case lnRho:
+			if d := dRho; math.Abs(d) < 1e-3 {
+				// (e^d − 1 to d⁴: a relative error below 1e-14 of
+				// a step that is not the last, 1e-20 of one that is.)
+				dRho = rho * d * (1 + d*(0.5+d*(1.0/6+d/24)))
+			} else {
+				dRho = rho * expm1(max(min(d, 2*math.Ln2), -2*math.Ln2))
+			}
 		}
 		if res <= 1e4 && linearFinish(f, &lim, &pr, dT, dRho) {
 			return pr, true

@@ -200,7 +200,8 @@ func (k *call) satT(T float64) (fluid.Saturation, error) {
 	if T < k.sol.tt && k.onTripleT(T) {
 		T = k.sol.tt
 	}
-	s, ok, err := k.satFromCacheT(T)
+	var s fluid.Saturation
+	ok, err := k.satFromCacheT(T, &s)
 	if !ok {
 		if gT, rl, rv, okg := k.guessSat(); okg && math.Abs(gT-T) < 1e-2*T {
 			s, err = k.f.SaturationAtTFrom(T, rl, rv)

@@ -247,13 +247,14 @@ func (f *Fluid) propsFromResidual(T, rho float64, r *helmholtz.Derivs) Props {
 	return f.fromDerivs(T, rho, delta, tau, &i, r)
 }
 
-// propsPairFromResidual is propsFromResidual for two densities at one
-// temperature (the phases of a saturation), with the ideal-gas part's
-// τ-dependence evaluated once.
-func (f *Fluid) propsPairFromResidual(T, rho1, rho2 float64, r1, r2 *helmholtz.Derivs) (p1, p2 Props) {
+// setPropsPairFromResidual sets p1 and p2, zero Props, to
+// propsFromResidual at two densities and one temperature (the phases of a
+// saturation), with the ideal-gas part's τ-dependence evaluated once.
+func (f *Fluid) setPropsPairFromResidual(p1, p2 *Props, T, rho1, rho2 float64, r1, r2 *helmholtz.Derivs) {
 	d1, d2, tau := rho1/f.rhoc, rho2/f.rhoc, f.tc/T
 	i1, i2 := f.ideal.EvalPair(d1, d2, tau)
-	return f.fromDerivs(T, rho1, d1, tau, &i1, r1), f.fromDerivs(T, rho2, d2, tau, &i2, r2)
+	f.setFromDerivs(p1, T, rho1, d1, tau, &i1, r1)
+	f.setFromDerivs(p2, T, rho2, d2, tau, &i2, r2)
 }
 
 // checkTP validates (T, p) against f's accepted region.

@@ -143,6 +143,14 @@ func (f *Fluid) props(T, rho float64) Props {
 
 // fromDerivs turns α derivatives into properties.
 func (f *Fluid) fromDerivs(T, rho, delta, tau float64, i, r *helmholtz.Derivs) Props {
+	var p Props
+	f.setFromDerivs(&p, T, rho, delta, tau, i, r)
+	return p
+}
+
+// setFromDerivs sets p, a zero Props, to fromDerivs(T, rho, delta, tau,
+// i, r) in place.
+func (f *Fluid) setFromDerivs(p *Props, T, rho, delta, tau float64, i, r *helmholtz.Derivs) {
 	R := f.r
 	rt := R * T
 	dad := delta * r.D              // δαʳ_δ
@@ -152,14 +160,11 @@ func (f *Fluid) fromDerivs(T, rho, delta, tau float64, i, r *helmholtz.Derivs) P
 	tt := tau * tau * (i.TT + r.TT) // τ²α_ττ
 	x := 1 + dad - dt               // (∂p/∂T)_ρ / (ρR)
 	y := 1 + 2*dad + d2             // (∂p/∂ρ)_T / (RT)
-	p := Props{
-		T:   T,
-		Rho: rho,
-		P:   rho * rt * (1 + dad),
-		U:   rt*tat + f.hOff,
-		S:   R*(tat-i.A-r.A) + f.sOff,
-		Z:   1 + dad,
-	}
+	p.T, p.Rho = T, rho
+	p.P = rho * rt * (1 + dad)
+	p.U = rt*tat + f.hOff
+	p.S = R*(tat-i.A-r.A) + f.sOff
+	p.Z = 1 + dad
 	p.H = p.U + p.P/rho
 	p.G = p.H - T*p.S
 	p.F = p.U - T*p.S
@@ -170,8 +175,8 @@ func (f *Fluid) fromDerivs(T, rho, delta, tau float64, i, r *helmholtz.Derivs) P
 		p.Flags |= Extrapolated
 	}
 	if T == f.crit.T && rho == f.crit.Rho {
-		f.setCriticalProps(&p, tt, x)
-		return p
+		f.setCriticalProps(p, tt, x)
+		return
 	}
 	p.Cv = -R * tt
 	p.Cp = p.Cv + R*x*x/y
@@ -183,7 +188,6 @@ func (f *Fluid) fromDerivs(T, rho, delta, tau float64, i, r *helmholtz.Derivs) P
 	// stays finite where (∂p/∂ρ)_T = 0 (y = 0, on a spinodal), tending
 	// to 1/(∂p/∂T)_ρ there: Tβ = x/y and cp = (cv y + R x²)/y.
 	p.JouleThomson = (x - y) / (rho * (p.Cv*y + R*x*x))
-	return p
 }
 
 // Virial returns the second and third virial coefficients of f at T,

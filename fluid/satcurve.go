@@ -575,13 +575,13 @@ func (ix *nodeIndex) interval(xs []float64, x float64) int {
 // as values need them).
 func (c *satCurve) locateT(i int, T float64) satLoc { return satLoc{i: i, T: T} }
 
-// locateWhere returns the point of interval i, between the positions lo
-// and hi in the coordinate of quantity q, at which the interpolant of q
-// equals target, where it changes sign between lo and hi: Newton's
-// method on the cubic in s, kept inside the shrinking bracket by
-// bisection. The point's position in that coordinate is the solution
-// itself, so that q reads back as target to rounding.
-func (c *satCurve) locateWhere(i, q int, target, lo, hi float64) satLoc {
+// locateWhere sets l, a zero satLoc, to the point of interval i, between
+// the positions lo and hi in the coordinate of quantity q, at which the
+// interpolant of q equals target, where it changes sign between lo and
+// hi: Newton's method on the cubic in s, kept inside the shrinking
+// bracket by bisection. The point's position in that coordinate is the
+// solution itself, so that q reads back as target to rounding.
+func (c *satCurve) locateWhere(l *satLoc, i, q int, target, lo, hi float64) {
 	iv := &c.ivs[i]
 	k := int(iv.coord[q])
 	p := &iv.poly[q]
@@ -615,10 +615,8 @@ func (c *satCurve) locateWhere(i, q int, target, lo, hi float64) satLoc {
 	a, b := &c.nodes[i], &c.nodes[i+1]
 	u := a.u[k] + s*iv.h[k]
 	T := min(max(tOfCoord(k, u, c.tc), a.T), b.T)
-	l := satLoc{i: i, T: T}
-	c.locateCoords(&l, i, T, 1<<k)
+	c.locateCoords(l, i, T, 1<<k)
 	l.s[k] = s
-	return l
 }
 
 // extremumIn returns the position s in interval i, in the coordinate of

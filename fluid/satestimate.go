@@ -33,36 +33,59 @@ type SatPoint struct {
 
 // SaturationPointAtT locates temperature T in K on the cached curve of f
 // (see SaturationEstimateAtT); ok is false where SaturationEstimateAtT's
-// is. The call allocates nothing.
+// is. The call allocates nothing; SatPoint.LocateT does the same in
+// place.
 func (f *Fluid) SaturationPointAtT(T float64) (sp SatPoint, ok bool) {
+	ok = sp.LocateT(f, T)
+	return sp, ok
+}
+
+// LocateT sets sp to the point of f's cached curve at temperature T in K,
+// in place, as SaturationPointAtT returns it, and reports whether there
+// is one (where not, sp is the zero SatPoint). A hot path that locates
+// points often spares itself the copy of the returned SatPoint, which
+// costs about as much as locating it.
+func (sp *SatPoint) LocateT(f *Fluid, T float64) bool {
+	*sp = SatPoint{}
 	c := f.satCurve()
 	if c == nil {
-		return sp, false
+		return false
 	}
 	i := c.intervalT(T)
 	if i < 0 {
-		return sp, false
+		return false
 	}
-	return SatPoint{f: f, c: c, loc: c.locateT(i, T)}, true
+	sp.f, sp.c, sp.loc.i, sp.loc.T = f, c, i, T
+	return true
 }
 
 // SaturationPointAtP locates pressure p in Pa on the cached curve of f
 // (see SaturationEstimateAtP): its temperature is estimated, with the
 // bound of its error (Temperature), and every value's bound includes
 // that error's effect. ok is false where SaturationEstimateAtP's is.
+// SatPoint.LocateP does the same in place.
 func (f *Fluid) SaturationPointAtP(p float64) (sp SatPoint, ok bool) {
+	ok = sp.LocateP(f, p)
+	return sp, ok
+}
+
+// LocateP sets sp to the point of f's cached curve at pressure p in Pa,
+// in place, as SaturationPointAtP returns it, and reports whether there
+// is one (where not, sp is the zero SatPoint); see LocateT.
+func (sp *SatPoint) LocateP(f *Fluid, p float64) bool {
+	*sp = SatPoint{}
 	c := f.satCurve()
 	if c == nil || !(p > 0) {
-		return sp, false
+		return false
 	}
 	lp := elem.Log(p)
 	i := c.intervalP(lp)
 	if i < 0 {
-		return sp, false
+		return false
 	}
-	sp = f.pointWhere(c, i, sqLnP, lp, 0, 1)
+	f.setPointWhere(sp, c, i, sqLnP, lp, 0, 1)
 	sp.p = p
-	return sp, true
+	return true
 }
 
 // pointWhere returns the point of interval i where quantity q (without
@@ -70,9 +93,18 @@ func (f *Fluid) SaturationPointAtP(p float64) (sp SatPoint, ok bool) {
 // its coordinate (see locateWhere), with the error of its T from the
 // error of q and q's slope.
 func (f *Fluid) pointWhere(c *satCurve, i, q int, target, lo, hi float64) SatPoint {
-	sp := SatPoint{f: f, c: c, loc: c.locateWhere(i, q, target, lo, hi)}
-	sp.errT = c.ivs[i].err[q] / math.Abs(c.slope(&sp.loc, q))
+	var sp SatPoint
+	f.setPointWhere(&sp, c, i, q, target, lo, hi)
 	return sp
+}
+
+// setPointWhere sets sp, a zero SatPoint, to pointWhere(c, i, q, target,
+// lo, hi) in place (the hot path of SaturationPointAtP: no copies of the
+// point).
+func (f *Fluid) setPointWhere(sp *SatPoint, c *satCurve, i, q int, target, lo, hi float64) {
+	sp.f, sp.c = f, c
+	c.locateWhere(&sp.loc, i, q, target, lo, hi)
+	sp.errT = c.ivs[i].err[q] / math.Abs(c.slope(&sp.loc, q))
 }
 
 // Temperature returns the temperature of sp in K and the bound of its
@@ -103,17 +135,19 @@ func (sp *SatPoint) Value(v SatValue) (x, errX float64) {
 	q := satQ[v].q
 	x = sp.c.value(&sp.loc, q)
 	errX = sp.c.ivs[sp.loc.i].err[q]
+	scale := 1.0 // d(value)/d(interpolant)
 	switch {
 	case satQ[v].log:
 		x = elem.Exp(x)
 		errX *= x
+		scale = x
 	case q == sqSL || q == sqSV:
 		x += sp.f.sOff
 	default:
 		x += sp.f.hOff
 	}
 	if sp.errT > 0 {
-		errX += math.Abs(sp.Slope(v)) * sp.errT
+		errX += math.Abs(sp.c.slope(&sp.loc, q)*scale) * sp.errT
 	}
 	return x, errX
 }
@@ -198,6 +232,28 @@ func (sp *SatPoint) fillPhase(ph int, p float64, pr *Props) {
 	pr.F = pr.U - T*pr.S
 	pr.Z = p / (rho * f.r * T)
 	pr.JouleThomson = (T*pr.Expansivity - 1) / (rho * pr.Cp)
+}
+
+// Solve sets dst to the equation's saturation at sp: at its pressure for
+// a point located at a pressure (SaturationPointAtP, LocateP), else at
+// its temperature, started from the point's temperature and saturated
+// densities, as SaturationAtPFrom and SaturationAtTFrom are, with their
+// results and errors (dst is the zero Saturation with an error). Away
+// from the critical point that costs one evaluation of each phase (see
+// SaturationAtPFrom). dst is filled in place: a hot path spares itself
+// the copies of a returned Saturation. The zero SatPoint gives an error
+// wrapping ErrInvalidInput.
+func (sp *SatPoint) Solve(dst *Saturation) error {
+	c, l, f := sp.c, &sp.loc, sp.f
+	if c == nil {
+		*dst = Saturation{}
+		return NewError("fluid.SatPoint.Solve", ErrInvalidInput, "the zero SatPoint is no point of a curve")
+	}
+	rl, rv := elem.Exp(c.value(l, sqLnRhoL)), elem.Exp(c.value(l, sqLnRhoV))
+	if sp.p > 0 {
+		return f.setSaturationAtPFrom(dst, sp.p, l.T, rl, rv)
+	}
+	return f.setSaturationAtTFrom(dst, l.T, rl, rv)
 }
 
 // Estimate fills e with the whole estimate at sp (see SatEstimate).

@@ -270,13 +270,9 @@ func (f *Fluid) SaturationAtP(p float64) (Saturation, error) {
 // where they are not usable (not finite, not on either side of ρc) it is
 // SaturationAtT.
 func (f *Fluid) SaturationAtTFrom(T, rhoL, rhoV float64) (Saturation, error) {
-	if !f.warmUsable(T, rhoL, rhoV) {
-		return f.SaturationAtT(T)
-	}
-	if s, ok := f.satNewtonT(f.tc/T, rhoL/f.rhoc, rhoV/f.rhoc, true); ok && s.strict {
-		return f.saturation(&s, T, 0), nil
-	}
-	return f.SaturationAtT(T)
+	var s Saturation
+	err := f.setSaturationAtTFrom(&s, T, rhoL, rhoV)
+	return s, err
 }
 
 // SaturationAtPFrom is SaturationAtP started from the temperature T in K
@@ -288,15 +284,37 @@ func (f *Fluid) SaturationAtTFrom(T, rhoL, rhoV float64) (Saturation, error) {
 // the phases' p, h, s, u and g are then the equation's to rounding, their
 // cv, cp and w within about 1e-11, at one evaluation of each phase.
 func (f *Fluid) SaturationAtPFrom(p, T, rhoL, rhoV float64) (Saturation, error) {
-	if !f.warmUsable(T, rhoL, rhoV) || !(p >= f.triple.P && p < f.crit.P) {
-		return f.SaturationAtP(p)
-	}
-	if s, ok := f.satNewtonP(p, f.tc/T, rhoL/f.rhoc, rhoV/f.rhoc); ok && s.strict {
-		if Ts := f.tc / s.tau; Ts >= f.triple.T && Ts < f.crit.T-critBand {
-			return f.saturation(&s, Ts, p), nil
+	var s Saturation
+	err := f.setSaturationAtPFrom(&s, p, T, rhoL, rhoV)
+	return s, err
+}
+
+// setSaturationAtPFrom sets dst to SaturationAtPFrom(p, T, rhoL, rhoV)
+// in place and returns its error (dst is then the zero Saturation).
+func (f *Fluid) setSaturationAtPFrom(dst *Saturation, p, T, rhoL, rhoV float64) (err error) {
+	if f.warmUsable(T, rhoL, rhoV) && p >= f.triple.P && p < f.crit.P {
+		var s satPair
+		if f.satNewtonP(&s, p, f.tc/T, rhoL/f.rhoc, rhoV/f.rhoc) && s.strict {
+			if Ts := f.tc / s.tau; Ts >= f.triple.T && Ts < f.crit.T-critBand {
+				f.setSaturation(dst, &s, Ts, p)
+				return nil
+			}
 		}
 	}
-	return f.SaturationAtP(p)
+	*dst, err = f.SaturationAtP(p)
+	return err
+}
+
+// setSaturationAtTFrom is setSaturationAtPFrom for SaturationAtTFrom.
+func (f *Fluid) setSaturationAtTFrom(dst *Saturation, T, rhoL, rhoV float64) (err error) {
+	if f.warmUsable(T, rhoL, rhoV) {
+		if s, ok := f.satNewtonT(f.tc/T, rhoL/f.rhoc, rhoV/f.rhoc, true); ok && s.strict {
+			f.setSaturation(dst, &s, T, 0)
+			return nil
+		}
+	}
+	*dst, err = f.SaturationAtT(T)
+	return err
 }
 
 // warmUsable reports whether a warm start lies where Newton's method
@@ -399,15 +417,25 @@ func (f *Fluid) seedPsat(T float64) float64 {
 
 // saturation builds the exported result; p > 0 overrides the pressure.
 func (f *Fluid) saturation(s *satPair, T, p float64) Saturation {
+	var sat Saturation
+	f.setSaturation(&sat, s, T, p)
+	return sat
+}
+
+// setSaturation sets dst to saturation(s, T, p) in place (the hot path
+// of the warm and cached starts: no copies of the two phases).
+func (f *Fluid) setSaturation(dst *Saturation, s *satPair, T, p float64) {
 	f.complete(s)
-	l, v := f.propsPairFromResidual(T, s.dl*f.rhoc, s.dv*f.rhoc, &s.rl, &s.rv)
+	*dst = Saturation{}
+	l, v := &dst.Liquid, &dst.Vapor
+	f.setPropsPairFromResidual(l, v, T, s.dl*f.rhoc, s.dv*f.rhoc, &s.rl, &s.rv)
 	l.Flags |= Saturated
 	v.Flags |= Saturated
 	if p <= 0 {
 		p = v.P
 	}
-	return Saturation{T: T, P: p, Liquid: l, Vapor: v,
-		Flags: Saturated | (l.Flags|v.Flags)&Extrapolated}
+	dst.T, dst.P = T, p
+	dst.Flags = Saturated | (l.Flags|v.Flags)&Extrapolated
 }
 
 // auxDensities returns starting reduced densities at τ from the auxiliary
@@ -608,7 +636,8 @@ func (f *Fluid) satP(p float64) (satPair, bool) {
 	T := f.auxTsat(p)
 	tau := f.tc / T
 	dl, dv := f.auxDensities(tau)
-	if s, ok := f.satNewtonP(p, tau, dl, dv); ok {
+	var s satPair
+	if f.satNewtonP(&s, p, tau, dl, dv) {
 		return s, true
 	}
 	return f.satPByT(p, T)
@@ -664,47 +693,52 @@ func clampT(T, lo, hi float64) float64 {
 // where p = ρc R Tc P/τ and πc = p/(ρc R Tc); ∂P/∂τ = δ²αʳ_δτ and
 // ∂G/∂τ = αʳ_τ + δαʳ_δτ. The Jacobian has zeros at (1,2) and (2,1), so
 // the step follows in closed form from the Schur complement in τ.
-func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
-	var s satPair
+func (f *Fluid) satNewtonP(s *satPair, p, tau, dl, dv float64) bool {
+	*s = satPair{}
 	pc := p / (f.rhoc * f.r * f.tc)
+	ipc := 1 / pc
 	dc, tauc := f.critReduced()
 	w := newNewtonWatch()
 	bestRes := math.Inf(1)
 	for it := 0; it < 40; it++ {
 		rl := f.residual(dl, tau)
 		rv := f.residual(dv, tau)
+		// (Reciprocals, computed side by side, stand for the divisions
+		// of the step, which would otherwise follow one another.)
+		itau, idl, idv := 1/tau, 1/dl, 1/dv
 		Pl, Pv := dl*(1+dl*rl.D), dv*(1+dv*rv.D)
 		dPl := 1 + 2*dl*rl.D + dl*dl*rl.DD
 		dPv := 1 + 2*dv*rv.D + dv*dv*rv.DD
-		k := 1 / (tau * pc)
+		k := itau * ipc // 1/(τ πc)
 		E1 := Pl*k - 1
 		E2 := Pv*k - 1
 		il, iv := rl.Delta(), rv.Delta()
 		E3 := gibbsReduced(dl, &il) - gibbsReduced(dv, &iv)
-		a11, a13 := dPl*k, (dl*dl*rl.DT-Pl/tau)*k
-		a22, a23 := dPv*k, (dv*dv*rv.DT-Pv/tau)*k
-		a31, a32 := dPl/dl, -dPv/dv
+		a11, a13 := dPl*k, (dl*dl*rl.DT-Pl*itau)*k
+		a22, a23 := dPv*k, (dv*dv*rv.DT-Pv*itau)*k
+		ia11, ia22 := 1/a11, 1/a22
+		a31, a32 := dPl*idl, -dPv*idv
 		a33 := (rl.T + dl*rl.DT) - (rv.T + dv*rv.DT)
-		schur := a33 - a31*a13/a11 - a32*a23/a22
-		dt := (-E3 + a31*E1/a11 + a32*E2/a22) / schur
-		ddl := (-E1 - a13*dt) / a11
-		ddv := (-E2 - a23*dt) / a22
+		schur := a33 - a31*a13*ia11 - a32*a23*ia22
+		dt := (-E3 + a31*E1*ia11 + a32*E2*ia22) / schur
+		ddl := (-E1 - a13*dt) * ia11
+		ddv := (-E2 - a23*dt) * ia22
 		if !finite(dt) || !finite(ddl) || !finite(ddv) {
-			return s, false
+			return false
 		}
 		// Residuals of the pressures in units of the reduced pressure
 		// P, as in satNewtonT.
-		res := max(math.Abs(E1/k)/satTolP(Pv, dl, tau), math.Abs(E2/k)/satTolP(Pv, dv, tau),
+		res := max(math.Abs(E1*tau*pc)/satTolP(Pv, dl, tau), math.Abs(E2*tau*pc)/satTolP(Pv, dv, tau),
 			math.Abs(E3)/satTolG(tau))
 		good := dPl > 0 && dPv > 0 && dl > dc && dv < dc && tau > tauc
-		step := max(math.Abs(ddl)/dl, math.Abs(ddv)/dv, math.Abs(dt)/tau)
+		step := max(math.Abs(ddl)*idl, math.Abs(ddv)*idv, math.Abs(dt)*itau)
 		if good && res <= satLinearRes && min(dPl, dPv) >= satLinearDP && step <= satLinearStep {
 			// The last step, by the iterate's own derivatives.
 			s.tau, s.dl, s.dv = tau+dt, dl+ddl, dv+ddv
 			s.rl, s.rv = linearResidual(rl, ddl, dt), linearResidual(rv, ddv, dt)
 			s.il, s.iv = s.rl.Delta(), s.rv.Delta()
 			s.full, s.strict = true, true
-			return s, true
+			return true
 		}
 		conv, ok := w.check(res, step)
 		if good && res < bestRes {
@@ -713,13 +747,13 @@ func (f *Fluid) satNewtonP(p, tau, dl, dv float64) (satPair, bool) {
 			s.il, s.iv, s.full = il, iv, true
 		}
 		if conv {
-			return s, ok && bestRes <= 5
+			return ok && bestRes <= 5
 		}
 		dl = stepAbove(dl, ddl, dc)
 		dv = stepBelow(dv, ddv, dc)
 		tau = stepAbove(tau, dt, tauc)
 	}
-	return s, false
+	return false
 }
 
 // satLinearStep and satLinearRes bound the Newton step (relative, in δ′,
@@ -948,7 +982,7 @@ func (f *Fluid) nearCritAt(m *nearCrit, y, p float64) satPair {
 		return f.modelPair(tau, dl, dv)
 	}
 	if p > 0 {
-		s, ok = f.satNewtonP(p, tau, dl, dv)
+		ok = f.satNewtonP(&s, p, tau, dl, dv)
 	} else {
 		s, ok = f.satNewtonT(tau, dl, dv, true)
 	}
