@@ -152,15 +152,16 @@ func (f *Fluid) fromDerivs(T, rho, delta, tau float64, i, r *helmholtz.Derivs) P
 	tt := tau * tau * (i.TT + r.TT) // τ²α_ττ
 	x := 1 + dad - dt               // (∂p/∂T)_ρ / (ρR)
 	y := 1 + 2*dad + d2             // (∂p/∂ρ)_T / (RT)
+	z := 1 + dad
 	p := Props{
 		T:   T,
 		Rho: rho,
-		P:   rho * rt * (1 + dad),
+		P:   rho * rt * z,
 		U:   rt*tat + f.hOff,
 		S:   R*(tat-i.A-r.A) + f.sOff,
-		Z:   1 + dad,
+		Z:   z,
 	}
-	p.H = p.U + p.P/rho
+	p.H = p.U + rt*z // p/ρ without a division
 	p.G = p.H - T*p.S
 	p.F = p.U - T*p.S
 	p.DpDrho = rt * y

@@ -152,7 +152,7 @@ func (id *Ideal) EvalTau(tau float64) (a, t1, t2 float64) {
 			om = -math.Expm1(-x)
 			lom = elem.Log(om)
 		case e <= 0x1p-7:
-			lom = elem.Log1p(-e) // its polynomial, without Log's reduction
+			lom = elem.Log1pSmall(-e) // a polynomial, without Log's reduction
 		default:
 			lom = elem.Log(om)
 		}

@@ -105,5 +105,10 @@ func Log1p(x float64) float64 {
 	if !(math.Abs(x) <= log1pSmall) { // also NaN
 		return math.Log1p(x)
 	}
-	return x + log1pTail(x)
+	return Log1pSmall(x)
 }
+
+// Log1pSmall is Log1p's fast path, for the callers that have checked
+// |x| ≤ 2^-7 (it is inlined where Log1p is not); beyond that bound its
+// result is not ln(1 + x).
+func Log1pSmall(x float64) float64 { return x + log1pTail(x) }
