@@ -445,7 +445,7 @@ func co2KernelSecond(delta, tau float64) helmholtz.Derivs {
 	singular := false
 	var pb00, pb10, pb20 float64
 	if ax != 0 {
-		pb00 = ax * ax * ax * math.Cbrt(ax)
+		pb00 = ax * ax * ax * elem.Cbrt(ax)
 		pb10 = pb00 * iax
 		pb20 = pb10 * iax
 	}
@@ -875,7 +875,7 @@ func co2KernelDelta(delta, tau float64) helmholtz.DeltaDerivs {
 	y := tau - 1
 	var pb00, pb10, pb20 float64
 	if ax != 0 {
-		pb00 = ax * ax * ax * math.Cbrt(ax)
+		pb00 = ax * ax * ax * elem.Cbrt(ax)
 		pb10 = pb00 * iax
 		pb20 = pb10 * iax
 	}

@@ -160,12 +160,13 @@ func (f *Fluid) setFromDerivs(p *Props, T, rho, delta, tau float64, i, r *helmho
 	tt := tau * tau * (i.TT + r.TT) // τ²α_ττ
 	x := 1 + dad - dt               // (∂p/∂T)_ρ / (ρR)
 	y := 1 + 2*dad + d2             // (∂p/∂ρ)_T / (RT)
+	z := 1 + dad
 	p.T, p.Rho = T, rho
-	p.P = rho * rt * (1 + dad)
+	p.P = rho * rt * z
 	p.U = rt*tat + f.hOff
 	p.S = R*(tat-i.A-r.A) + f.sOff
-	p.Z = 1 + dad
-	p.H = p.U + p.P/rho
+	p.Z = z
+	p.H = p.U + rt*z // p/ρ without a division
 	p.G = p.H - T*p.S
 	p.F = p.U - T*p.S
 	p.DpDrho = rt * y

@@ -511,7 +511,7 @@ func waterKernelSecond(delta, tau float64) helmholtz.Derivs {
 	singular := false
 	var pb00, pb10, pb20 float64
 	if ax != 0 {
-		pb00 = ax * ax * ax * math.Cbrt(ax)
+		pb00 = ax * ax * ax * elem.Cbrt(ax)
 		pb10 = pb00 * iax
 		pb20 = pb10 * iax
 	}
@@ -935,7 +935,7 @@ func waterKernelDelta(delta, tau float64) helmholtz.DeltaDerivs {
 	y := tau - 1
 	var pb00, pb10, pb20 float64
 	if ax != 0 {
-		pb00 = ax * ax * ax * math.Cbrt(ax)
+		pb00 = ax * ax * ax * elem.Cbrt(ax)
 		pb10 = pb00 * iax
 		pb20 = pb10 * iax
 	}

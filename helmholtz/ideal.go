@@ -146,10 +146,17 @@ func (id *Ideal) EvalTau(tau float64) (a, t1, t2 float64) {
 		x := p.Theta * tau
 		e := elem.Exp(-x)
 		om := 1 - e // 1 − e^(−x), to rounding for x ≥ ln 2
-		if x < math.Ln2 {
+		var lom float64
+		switch {
+		case x < math.Ln2:
 			om = -math.Expm1(-x)
+			lom = elem.Log(om)
+		case e <= 0x1p-7:
+			lom = elem.Log1pSmall(-e) // a polynomial, without Log's reduction
+		default:
+			lom = elem.Log(om)
 		}
-		a += p.N * elem.Log(om)
+		a += p.N * lom
 		iom := 1 / om
 		r := e * iom
 		nt := p.N * p.Theta

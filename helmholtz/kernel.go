@@ -351,7 +351,7 @@ func (g *kernelGen) nonAnalytic() {
 			p = k
 			fmt.Fprintf(b, "\tvar pb0%s, pb1%s, pb2%s float64\n\tif ax != 0 {\n", p, p, p)
 			if q.ib == 10.0/3 {
-				fmt.Fprintf(b, "\t\tpb0%s = ax * ax * ax * math.Cbrt(ax)\n", p)
+				fmt.Fprintf(b, "\t\tpb0%s = ax * ax * ax * elem.Cbrt(ax)\n", p)
 			} else {
 				fmt.Fprintf(b, "\t\tpb0%s = math.Pow(ax, %s)\n", p, num(q.ib))
 			}

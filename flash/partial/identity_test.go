@@ -110,7 +110,15 @@ func TestBridgmanIdentities(t *testing.T) {
 					}
 				}
 			}
-			if n < 1000 {
+			// At a triple point T, p and g are constant, dh = T ds and
+			// df = −p dv: no derivative at constant T, p, g, or of h at
+			// constant s (s at h, f at v, v or ρ at f), and 898
+			// identities among those that exist.
+			least := 1000
+			if ts.st.Phase == flash.Triple {
+				least = 898
+			}
+			if n < least {
 				t.Errorf("%s %s: only %d identities checked", name, ts.name, n)
 			}
 		}

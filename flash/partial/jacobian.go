@@ -40,6 +40,21 @@ func det(r, s row) (d0, d1 float64) {
 	return r.x*s.y - r.y*s.x, r.k*s.y - r.y*s.k
 }
 
+// roundedZero returns 0 where d, the determinant r.x s.y − r.y s.x, lies
+// within the rounding error of its two products (each factor rounded
+// once from rows that share their differences), else d. Such a
+// determinant is of rows that are proportional but for that rounding:
+// at a triple point, where dT = dp = 0, dh = T ds and df = −p dv, h does
+// not vary at constant s nor f at constant v, whatever the rounding
+// makes of T ds.x ds.y − T ds.y ds.x.
+func roundedZero(d float64, r, s row) float64 {
+	const u = 0x1p-53 // unit roundoff
+	if math.Abs(d) <= 4*u*(math.Abs(r.x*s.y)+math.Abs(r.y*s.x)) {
+		return 0
+	}
+	return d
+}
+
 // At returns the Jacobian of state st of fluid f: the differentials of T,
 // p, ρ, v, u, h, s, g and f in two variables that are independent at st,
 // from which Derivative forms any (∂a/∂b)_c. st is a state returned by a
@@ -200,6 +215,7 @@ func (j *Jacobian) Derivative(a, b, c Quantity) (float64, error) {
 	ra, rb, rc := j.rowOf(a), j.rowOf(b), j.rowOf(c)
 	n0, n1 := det(ra, rc)
 	d0, d1 := det(rb, rc)
+	n0, d0 = roundedZero(n0, ra, rc), roundedZero(d0, rb, rc)
 	var r float64
 	switch {
 	case d1 != 0: // only at the critical point: the leading order in K

@@ -32,3 +32,8 @@ func benchKernels(b *testing.B, f, ref func(float64) float64, x0, step float64) 
 // they replace, on arguments of the equations' range.
 func BenchmarkExp(b *testing.B) { benchKernels(b, Exp, math.Exp, -0.5, -0.01) }
 func BenchmarkLog(b *testing.B) { benchKernels(b, Log, math.Log, 0.5, 0.03) }
+
+// BenchmarkCbrt and BenchmarkLog1p: on the range of the nonanalytic
+// terms' |δ − 1| and of the Planck–Einstein terms' −e^(−θτ).
+func BenchmarkCbrt(b *testing.B)  { benchKernels(b, Cbrt, math.Cbrt, 0.01, 0.02) }
+func BenchmarkLog1p(b *testing.B) { benchKernels(b, Log1p, math.Log1p, -0.0078, 0.0001) }

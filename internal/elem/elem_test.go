@@ -54,6 +54,17 @@ var (
 		1, math.Nextafter(1, 2), math.Nextafter(1, 0), 2, 0.5, math.E,
 		1 - 1.0/256, 1 + 1.0/128, 0.6875, 1.375, math.Nextafter(1.375, 0),
 	}
+	specialCbrtIn = []float64{
+		math.Inf(1), math.Inf(-1), math.NaN(), 0, math.Copysign(0, -1),
+		5e-324, -5e-324, 1e-310, 2.2250738585072014e-308, -2.2250738585072014e-308,
+		math.MaxFloat64, -math.MaxFloat64, 1, -1, 8, -8, 27, 0.125, 2, 4, 1e-300, 1e300,
+		math.Nextafter(2, 0), math.Nextafter(1, 2), 1 + 1.0/128, 1 + 1.0/64, 1 + 3.0/128,
+	}
+	specialLog1pIn = []float64{
+		math.Inf(1), math.Inf(-1), math.NaN(), 0, math.Copysign(0, -1), -1, -2,
+		5e-324, -5e-324, 1e-310, 1e-20, -1e-20, 1.0 / 128, -1.0 / 128,
+		math.Nextafter(1.0/128, 1), math.Nextafter(-1.0/128, -1), 0.5, -0.5, 1e300,
+	}
 )
 
 // TestExpSpecial: every special value and every edge of the fast path
@@ -71,6 +82,49 @@ func TestExpSpecial(t *testing.T) {
 		}
 		if d := ulpDist(got, want); d > 1 {
 			t.Errorf("Exp(%v) = %v, math.Exp %v: %v ulp apart", x, got, want, d)
+		}
+	}
+}
+
+// TestCbrtSpecial: the special values of math.Cbrt, the powers of two
+// and cubes, the edges of the table intervals and the normal range.
+// Outside the normal range Cbrt is math.Cbrt, so the results must be
+// alike; cubes of small integers and powers of eight are exact.
+func TestCbrtSpecial(t *testing.T) {
+	t.Parallel()
+	for _, x := range specialCbrtIn {
+		got, want := Cbrt(x), math.Cbrt(x)
+		if !(math.Abs(x) >= 2.2250738585072014e-308) || math.IsInf(x, 0) {
+			if !alike(got, want) {
+				t.Errorf("Cbrt(%v) = %v, math.Cbrt %v", x, got, want)
+			}
+			continue
+		}
+		if d := ulpDist(got, want); d > 1 {
+			t.Errorf("Cbrt(%v) = %v, math.Cbrt %v: %v ulp apart", x, got, want, d)
+		}
+	}
+	for _, c := range []struct{ x, want float64 }{{1, 1}, {8, 2}, {27, 3}, {-64, -4}, {0.125, 0.5}, {0x1p-999, 0x1p-333}, {0x1p1023, 0x1p341}} {
+		if got := Cbrt(c.x); got != c.want {
+			t.Errorf("Cbrt(%v) = %v, want %v exactly", c.x, got, c.want)
+		}
+	}
+}
+
+// TestLog1pSpecial: the special values of math.Log1p and the edges of the
+// fast path. Outside it Log1p is math.Log1p, so the results must be alike.
+func TestLog1pSpecial(t *testing.T) {
+	t.Parallel()
+	for _, x := range specialLog1pIn {
+		got, want := Log1p(x), math.Log1p(x)
+		if !(math.Abs(x) <= log1pSmall) {
+			if !alike(got, want) {
+				t.Errorf("Log1p(%v) = %v, math.Log1p %v", x, got, want)
+			}
+			continue
+		}
+		if d := ulpDist(got, want); d > 1 || (x == 0 && !alike(got, x)) {
+			t.Errorf("Log1p(%v) = %v, math.Log1p %v: %v ulp apart", x, got, want, d)
 		}
 	}
 }
@@ -190,6 +244,53 @@ func TestLogAgainstMath(t *testing.T) {
 	}
 }
 
+// TestCbrtAgainstMath: Cbrt within 1 ulp of math.Cbrt on millions of
+// arguments over its whole domain: random bit patterns (every binade,
+// subnormals, both signs, the special values), the range of the
+// nonanalytic terms' |δ − 1| (about 1e-12 to 10) and [1, 8), every
+// interval of the table with every exponent residue.
+func TestCbrtAgainstMath(t *testing.T) {
+	t.Parallel()
+	gens := map[string]func(*rand.Rand) float64{
+		"bits":        func(r *rand.Rand) float64 { return math.Float64frombits(r.Uint64()) },
+		"1e-12..10":   func(r *rand.Rand) float64 { return math.Pow(10, 13*r.Float64()-12) },
+		"[1,8)":       func(r *rand.Rand) float64 { return 1 + 7*r.Float64() },
+		"-1e-3..-1e3": func(r *rand.Rand) float64 { return -math.Pow(10, 6*r.Float64()-3) },
+	}
+	for name, gen := range gens {
+		worst, at, refWrong, bad := sweep(points(), gen, Cbrt, math.Cbrt, func(x float64) *big.Float {
+			v := bigCbrt(newBig(math.Abs(x)))
+			if x < 0 {
+				v.Neg(v)
+			}
+			return v
+		})
+		if bad > 0 || refWrong > 0 {
+			t.Errorf("%s: %d arguments more than 1 ulp from math.Cbrt; worst %v ulp at x = %v", name, bad+refWrong, worst, at)
+		}
+		t.Logf("%s: at most %v ulp from math.Cbrt (x = %v)", name, worst, at)
+	}
+}
+
+// TestLog1pAgainstMath: Log1p within 1 ulp of math.Log1p on its fast
+// path, |x| ≤ 2^-7 (uniform and log-uniform magnitudes of both signs),
+// and alike it beyond.
+func TestLog1pAgainstMath(t *testing.T) {
+	t.Parallel()
+	gens := map[string]func(*rand.Rand) float64{
+		"uniform":     func(r *rand.Rand) float64 { return log1pSmall * (2*r.Float64() - 1) },
+		"log-uniform": func(r *rand.Rand) float64 { return math.Copysign(math.Exp2(-7-60*r.Float64()), r.Float64()-0.5) },
+		"bits":        func(r *rand.Rand) float64 { return math.Float64frombits(r.Uint64()) },
+	}
+	for name, gen := range gens {
+		worst, at, refWrong, bad := sweep(points(), gen, Log1p, math.Log1p, bigLog1p)
+		if bad > 0 || refWrong > 0 {
+			t.Errorf("%s: %d arguments more than 1 ulp from math.Log1p; worst %v ulp at x = %v", name, bad+refWrong, worst, at)
+		}
+		t.Logf("%s: at most %v ulp from math.Log1p (x = %v)", name, worst, at)
+	}
+}
+
 // maxKernelUlp bounds the error of the kernels against the exact value:
 // half an ulp for the final rounding and a few hundredths for the rest
 // (the analysis in their doc comments).
@@ -213,8 +314,9 @@ func accuracy(n int, seed uint64, gen func(i int, r *rand.Rand) float64, f func(
 	return worst, at
 }
 
-// TestKernelAccuracy: Exp against e^x and Log against ln x from math/big,
-// on samples of the fast paths' ranges (and near 1 for Log).
+// TestKernelAccuracy: Exp against e^x, Log against ln x, Cbrt against ∛x
+// and Log1p against ln(1 + x) from math/big, on samples of the fast
+// paths' ranges (and near 1 for Log).
 func TestKernelAccuracy(t *testing.T) {
 	t.Parallel()
 	for _, c := range []struct {
@@ -239,6 +341,18 @@ func TestKernelAccuracy(t *testing.T) {
 			}
 			return math.Float64frombits(r.Uint64()>>2 + 0x2000000000000000)
 		}, Log, func(x float64) *big.Float { return bigLog(newBig(x)) }},
+		{"Cbrt", 7, func(i int, r *rand.Rand) float64 {
+			if i%2 == 0 {
+				return 1 + 7*r.Float64()
+			}
+			return math.Float64frombits(r.Uint64()>>2 + 0x2000000000000000)
+		}, Cbrt, func(x float64) *big.Float { return bigCbrt(newBig(x)) }},
+		{"Log1p", 9, func(i int, r *rand.Rand) float64 {
+			if i%2 == 0 {
+				return log1pSmall * (2*r.Float64() - 1)
+			}
+			return math.Copysign(math.Exp2(-7-50*r.Float64()), r.Float64()-0.5)
+		}, Log1p, bigLog1p},
 	} {
 		worst, at := accuracy(20000, c.seed, c.gen, c.f, c.exact)
 		if worst > maxKernelUlp {
@@ -248,8 +362,8 @@ func TestKernelAccuracy(t *testing.T) {
 	}
 }
 
-// FuzzKernels: for any argument, Exp and Log are within 1 ulp of math.Exp
-// and math.Log (alike for the special values; Exp 2 ulp from math.Exp only
+// FuzzKernels: for any argument, Exp, Log, Cbrt and Log1p are within 1
+// ulp of math.Exp, math.Log, math.Cbrt and math.Log1p (alike for the special values; Exp 2 ulp from math.Exp only
 // where it is within maxKernelUlp of the exact value), without panicking.
 func FuzzKernels(f *testing.F) {
 	for _, x := range specialExpIn {
@@ -258,7 +372,16 @@ func FuzzKernels(f *testing.F) {
 	for _, x := range specialLogIn {
 		f.Add(x)
 	}
+	for _, x := range specialCbrtIn {
+		f.Add(x)
+	}
 	f.Fuzz(func(t *testing.T, x float64) {
+		if d := ulpDist(Cbrt(x), math.Cbrt(x)); !(d <= 1) {
+			t.Errorf("Cbrt(%v) = %v, math.Cbrt %v", x, Cbrt(x), math.Cbrt(x))
+		}
+		if d := ulpDist(Log1p(x), math.Log1p(x)); !(d <= 1) {
+			t.Errorf("Log1p(%v) = %v, math.Log1p %v", x, Log1p(x), math.Log1p(x))
+		}
 		if d := ulpDist(Exp(x), math.Exp(x)); !(d <= 1) &&
 			!(d <= 2 && math.Abs(ulpErr(Exp(x), bigExp(x))) <= maxKernelUlp) {
 			t.Errorf("Exp(%v) = %v, math.Exp %v", x, Exp(x), math.Exp(x))

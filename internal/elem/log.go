@@ -69,9 +69,46 @@ func Log(x float64) float64 {
 	ew := t - w + e.logcHi
 	hi := w + r
 	lo := w - hi + r + (ew + el) + (k*logLn2Lo + e.logcLo)
+	return hi + (lo + log1pTail(r))
+}
+
+// log1pTail returns log1p(r) − r for |r| ≤ 2^-7: its Taylor polynomial of
+// degree 8, whose truncation error relative to log1p(r) is below 2^-59.
+func log1pTail(r float64) float64 {
 	r2 := r * r
 	r4 := r2 * r2
-	p := r2 * ((-1.0/2 + r*(1.0/3)) + r2*(-1.0/4+r*(1.0/5)) +
+	return r2 * ((-1.0/2 + r*(1.0/3)) + r2*(-1.0/4+r*(1.0/5)) +
 		r4*((-1.0/6+r*(1.0/7))+r2*(-1.0/8)))
-	return hi + (lo + p)
 }
+
+// log1pSmall bounds the arguments of Log1p's fast path.
+const log1pSmall = 0x1p-7
+
+// Log1p returns ln(1 + x), accurate also where x is near zero.
+//
+// Method: for |x| ≤ 2^-7, x + (log1p(x) − x) with the Taylor polynomial
+// of Log's last step (log1pTail); elsewhere math.Log1p. The fast path
+// serves the Planck–Einstein terms ln(1 − e^(−θτ)) of the ideal-gas
+// parts, whose e^(−θτ) is below 2^-7 wherever θτ > 4.86.
+//
+// Accuracy: about 0.51 ulp on the fast path (the polynomial's error is
+// below 2^-8 of the result's ulp); math.Log1p's elsewhere.
+//
+// Special cases are those of math.Log1p, which computes them:
+//
+//	Log1p(±0) = ±0
+//	Log1p(-1) = -Inf
+//	Log1p(+Inf) = +Inf
+//	Log1p(x < -1) = NaN
+//	Log1p(NaN) = NaN
+func Log1p(x float64) float64 {
+	if !(math.Abs(x) <= log1pSmall) { // also NaN
+		return math.Log1p(x)
+	}
+	return Log1pSmall(x)
+}
+
+// Log1pSmall is Log1p's fast path, for the callers that have checked
+// |x| ≤ 2^-7 (it is inlined where Log1p is not); beyond that bound its
+// result is not ln(1 + x).
+func Log1pSmall(x float64) float64 { return x + log1pTail(x) }

@@ -77,6 +77,19 @@ func tablesSource() []byte {
 		ch, cl := splitBig(lc)
 		fmt.Fprintf(&b, "\t{%#x, %#x, %#x},\n", invc, ch, cl)
 	}
+	fmt.Fprintf(&b, "}\n\n")
+
+	fmt.Fprintf(&b, "// cbrtTable[j·N+i]: for the i-th interval of m, the double invc nearest\n")
+	fmt.Fprintf(&b, "// the reciprocal of its centre, and ∛(2^j/invc) in two parts.\n")
+	fmt.Fprintf(&b, "var cbrtTable = [3 * cbrtN]struct{ invc, hi, lo float64 }{\n")
+	for j := range 3 {
+		for i := range cbrtN {
+			invc := 1 / (1 + (float64(i)+0.5)/cbrtN)
+			v := new(big.Float).SetPrec(prec).Quo(newBig(float64(int(1)<<j)), newBig(invc))
+			h, l := splitBig(bigCbrt(v))
+			fmt.Fprintf(&b, "\t{%#x, %#x, %#x},\n", invc, h, l)
+		}
+	}
 	fmt.Fprintf(&b, "}\n")
 	src, err := format.Source(b.Bytes())
 	if err != nil {
