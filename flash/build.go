@@ -28,12 +28,21 @@ func (st *State) set(v State, err error) error {
 
 // setSingle sets st to the single-phase state of pr as phase ph.
 func setSingle(st *State, pr *fluid.Props, ph Phase) {
-	*st = State{T: pr.T, P: pr.P, Rho: pr.Rho, H: pr.H, S: pr.S, U: pr.U,
-		Cp: pr.Cp, Cv: pr.Cv, W: pr.W, Phase: ph, N: 1, Flags: pr.Flags}
+	// (Zeroed, then set field by field: a composite literal would be
+	// built aside and copied, which costs as much again.)
+	*st = State{}
+	st.T, st.P, st.Rho, st.H, st.S, st.U = pr.T, pr.P, pr.Rho, pr.H, pr.S, pr.U
+	st.Cp, st.Cv, st.W, st.Phase, st.N, st.Flags = pr.Cp, pr.Cv, pr.W, ph, 1, pr.Flags
 	if ph == Vapor {
 		st.Quality = 1
 	}
-	st.Phases[0] = phaseState(pr, ph, 1)
+	setPhase(&st.Phases[0], pr, ph, 1)
+}
+
+// setPhase sets ps to phaseState(pr, ph, x) in place.
+func setPhase(ps *PhaseState, pr *fluid.Props, ph Phase, x float64) {
+	ps.Phase, ps.Fraction, ps.Rho, ps.H, ps.S, ps.U = ph, x, pr.Rho, pr.H, pr.S, pr.U
+	ps.Cp, ps.Cv, ps.W = pr.Cp, pr.Cv, pr.W
 }
 
 // fluidPhase names the phase of a single-phase fluid state (DESIGN.md):
@@ -87,16 +96,17 @@ func setTwoPhase(f *fluid.Fluid, s *fluid.Saturation, q float64, st *State) {
 		st.Flags |= Saturated | s.Flags&AtCritical
 		return
 	}
-	*st = State{T: s.T, P: s.P, Phase: TwoPhase, Quality: q, N: 2,
-		Flags: Saturated | s.Flags&(Extrapolated|AtCritical) | (l.Flags|v.Flags)&Extrapolated}
+	*st = State{}
+	st.T, st.P, st.Phase, st.Quality, st.N = s.T, s.P, TwoPhase, q, 2
+	st.Flags = Saturated | s.Flags&(Extrapolated|AtCritical) | (l.Flags|v.Flags)&Extrapolated
 	vl, vv := 1/l.Rho, 1/v.Rho
 	st.Rho = 1 / (vl + q*(vv-vl))
 	st.H = l.H + q*(v.H-l.H)
 	st.S = l.S + q*(v.S-l.S)
 	st.U = l.U + q*(v.U-l.U)
 	st.Cp = math.Inf(1)
-	st.Phases[0] = phaseState(l, Liquid, 1-q)
-	st.Phases[1] = phaseState(v, Vapor, q)
+	setPhase(&st.Phases[0], l, Liquid, 1-q)
+	setPhase(&st.Phases[1], v, Vapor, q)
 	if s.Flags&AtCritical != 0 {
 		st.Cv, st.W = l.Cv, l.W
 		return

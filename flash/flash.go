@@ -31,7 +31,8 @@ type call struct {
 // a fluid, finite inputs, those in the bit mask positive (1: a, 2: b)
 // positive, and the options.
 func (k *call) init(f *fluid.Fluid, op string, a, b fluid.Input, opt *Options, positive int) error {
-	*k = call{f: f, op: op, in: [2]fluid.Input{a, b}}
+	*k = call{}
+	k.f, k.op, k.in[0], k.in[1] = f, op, a, b
 	if opt != nil {
 		k.opt = *opt
 	}
@@ -855,10 +856,11 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) (done b
 		sd = anySide
 	}
 	T0, rho0 := predict(g, p, X, x, false)
+	var vp vaporPressure
 	near := false // a vapour within 20 % of its vapour pressure
 	if sd != anySide {
-		if ps, errP, ok := f.VaporPressureEstimate(T0); ok {
-			if liquid && p < ps-errP || !liquid && p > ps+errP {
+		if vp.at(f, T0) {
+			if ps, errP := vp.p, vp.err; liquid && p < ps-errP || !liquid && p > ps+errP {
 				// The guess's phase carried to (p, x) lies beyond the
 				// vapour-pressure curve: the state is most likely a
 				// mixture (or the other phase), placed against the
@@ -866,10 +868,11 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) (done b
 				// metastable state.
 				return k.isobaricWarmSat(p, X, x, 0, 0, 0, st), nil
 			}
-			near = !liquid && p > 0.8*ps
+			near = !liquid && p > 0.8*vp.p
 		}
 	}
-	from := fluid.Props{T: g.T, Rho: g.Rho}
+	var from fluid.Props
+	from.T, from.Rho = g.T, g.Rho
 	br := onBranch(f, sd, lim.TFloor, lim.TCeil)
 	// A vapour near its vapour pressure, where p(ρ) bends most, in
 	// (T, ln ρ) (see lnRhoStep); farther off the plain step ends as soon
@@ -882,7 +885,10 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) (done b
 		}
 		return false, nil
 	}
-	stable, _ := k.stable(&pr)
+	stable, decided := vp.place(&pr, f.Critical())
+	if !decided {
+		stable, _ = k.stable(&pr)
+	}
 	if !stable {
 		return false, nil
 	}
@@ -931,7 +937,8 @@ func predict(g *State, p float64, X quantity, x float64, lnRho bool) (T, rho flo
 	if !(cp > cv && cv > 0 && w > 0 && isFinite(cp)) {
 		return T, rho
 	}
-	pr := fluid.Props{T: T, Rho: rho, P: g.P, H: g.H, S: g.S, U: g.U, Cv: cv}
+	var pr fluid.Props
+	pr.T, pr.Rho, pr.P, pr.H, pr.S, pr.U, pr.Cv = T, rho, g.P, g.H, g.S, g.U, cv
 	pr.DpDrho = w * w * cv / cp
 	pr.DpDT = rho * math.Sqrt((cp-cv)*pr.DpDrho/T)
 	a1, a2 := qP.partials(&pr)

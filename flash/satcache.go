@@ -92,6 +92,52 @@ func (k *call) stableByCache(pr *fluid.Props) (stable, decided bool) {
 	return false, false
 }
 
+// vaporPressure is the cached vapour pressure at a temperature T, for
+// placing the states of a warm start near T against it: p and the bound
+// of its error in Pa, its slope dp/dT along the curve in Pa/K.
+type vaporPressure struct {
+	T, p, err, slope float64
+	ok               bool
+}
+
+// at sets vp to the cached vapour pressure of f at T and reports whether
+// the curve has one there.
+func (vp *vaporPressure) at(f *fluid.Fluid, T float64) bool {
+	vp.T = T
+	vp.p, vp.err, vp.slope, vp.ok = f.VaporPressureSlopeEstimate(T)
+	return vp.ok
+}
+
+// place places the single-phase fluid state pr (below pc) against the
+// vapour pressure at its own temperature, carried from vp's T to pr.T
+// along the slope, as stableByCache does at pr.T itself, and reports
+// whether that decides (|dT| ≤ 1e-3·T and p outside the bound). ps(T)
+// lies within vp.err + |dT·slope|·(1 + |dT·slope|/p) of p + dT·slope:
+// ps″ lies between 0 and slope²/ps where ln ps is concave in T with
+// |d²ln ps/dT²| below (d ln ps/dT)² (the Clausius–Clapeyron form
+// ln ps ≈ A − B/T with B > 2T, common to every fluid's vapour pressure;
+// no source), which the second term covers twice over for |dT·slope| ≤ ps.
+func (vp *vaporPressure) place(pr *fluid.Props, c fluid.Point) (stable, decided bool) {
+	if !vp.ok || pr.T >= c.T {
+		return false, false
+	}
+	dT := pr.T - vp.T
+	lin := math.Abs(dT * vp.slope)
+	if !(math.Abs(dT) <= 1e-3*vp.T && lin <= vp.p) {
+		return false, false
+	}
+	ps := vp.p + dT*vp.slope
+	bound := vp.err + lin*(1+lin/vp.p)
+	liquid := pr.Rho > c.Rho
+	switch {
+	case pr.P > ps+bound:
+		return liquid, true
+	case pr.P < ps-bound:
+		return !liquid, true
+	}
+	return false, false
+}
+
 // satFromCacheT sets dst to the equation's saturation at T started from
 // the cached curve (SatPoint.Solve), in place; ok is false where the
 // curve has no estimate at T (dst is then untouched).

@@ -137,12 +137,18 @@ func linearFinish(f *fluid.Fluid, lim *fluid.Limits, pr *fluid.Props, dT, dRho f
 // unstable). A pressure above the accepted ceiling is usable on the way
 // (Props returns its values with the error); results are checked by
 // finish.
-func props(f *fluid.Fluid, T, rho float64) (fluid.Props, bool) {
-	pr, err := f.Props(T, rho)
+func props(f *fluid.Fluid, T, rho float64) (pr fluid.Props, ok bool) {
+	ok = propsInto(f, &pr, T, rho)
+	return pr, ok
+}
+
+// propsInto is props writing into pr, in place.
+func propsInto(f *fluid.Fluid, pr *fluid.Props, T, rho float64) bool {
+	err := f.PropsInto(pr, T, rho)
 	if err != nil && !(errors.Is(err, fluid.ErrOutOfRange) && pr.P > f.Limits().PCeil) {
-		return pr, false
+		return false
 	}
-	return pr, finiteProps(&pr)
+	return finiteProps(pr)
 }
 
 func finiteProps(pr *fluid.Props) bool {
@@ -245,33 +251,35 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 	br branch, start *fluid.Props) (fluid.Props, bool) {
 	lim := f.Limits()
 	T, rho = min(max(T, lim.TFloor), lim.TCeil), min(rho, lim.RhoCeil)
-	var prev fluid.Props
+	// The iterate and the last good one, swapped rather than copied.
+	var buf [2]fluid.Props
+	pr, prev := &buf[0], &buf[1]
 	havePrev := false
 	if start != nil {
-		prev, havePrev = *start, true
+		*prev, havePrev = *start, true
 	}
 	w := watch{best: math.Inf(1)}
 	iva := 1 / va // (for lnRhoStep)
 	backs, pinned := 0, 0
 	lastStep, prevDT, prevRb := math.Inf(1), 0.0, math.Inf(1)
 	for it := 0; it < 60; it++ {
-		pr, ok := props(f, T, rho)
-		if !ok || !br.keep(&pr) {
+		ok := propsInto(f, pr, T, rho)
+		if !ok || !br.keep(pr) {
 			if !havePrev || backs > 40 {
-				return pr, false
+				return *pr, false
 			}
 			backs++
 			T, rho = 0.5*(T+prev.T), 0.5*(rho+prev.Rho)
 			continue
 		}
-		ra, rb := a.of(&pr)-va, b.of(&pr)-vb
-		ta, tb := a.tol(f, &pr, va), b.tol(f, &pr, vb)
+		ra, rb := a.of(pr)-va, b.of(pr)-vb
+		ta, tb := a.tol(f, pr, va), b.tol(f, pr, vb)
 		res := max(math.Abs(ra)/ta, math.Abs(rb)/tb)
 		if w.check(res, lastStep) {
-			return pr, math.Abs(ra) <= a.floor(f, &pr, va) && math.Abs(rb) <= b.floor(f, &pr, vb)
+			return *pr, math.Abs(ra) <= a.floor(f, pr, va) && math.Abs(rb) <= b.floor(f, pr, vb)
 		}
-		a1, a2 := a.partials(&pr)
-		b1, b2 := b.partials(&pr)
+		a1, a2 := a.partials(pr)
+		b1, b2 := b.partials(pr)
 		onLnP := a == qP && pr.P > 0 && va > 0
 		logged := br.logStep && onLnP
 		lnRho := !logged && br.lnRhoStep && onLnP
@@ -293,7 +301,7 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 		dT := (-ra*b2 + rb*a2) / det
 		dRho := (-rb*a1 + ra*b1) / det
 		if !isFinite(dT) || !isFinite(dRho) {
-			return pr, false
+			return *pr, false
 		}
 		switch {
 		case logged:
@@ -308,8 +316,8 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 				dRho = rho * expm1(max(min(d, 2*math.Ln2), -2*math.Ln2))
 			}
 		}
-		if res <= 1e4 && linearFinish(f, &lim, &pr, dT, dRho) {
-			return pr, true
+		if res <= 1e4 && linearFinish(f, &lim, pr, dT, dRho) {
+			return *pr, true
 		}
 		s := 1.0
 		if !logged {
@@ -340,7 +348,7 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 				pinned++
 			}
 			if pinned >= 3 {
-				return pr, false
+				return *pr, false
 			}
 			if a == qP {
 				dT, s = 0, 1
@@ -349,12 +357,13 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 		} else {
 			pinned = 0
 		}
-		prev, havePrev, prevRb = pr, true, math.Abs(rb)
+		pr, prev = prev, pr
+		havePrev, prevRb = true, math.Abs(rb)
 		lastStep = s * max(math.Abs(dT)/T, math.Abs(dRho)/rho)
 		T = min(max(T+s*dT, lim.TFloor), lim.TCeil)
 		rho = min(rho+s*dRho, lim.RhoCeil)
 	}
-	return prev, false
+	return *prev, false
 }
 
 // newton1 solves q(T, ρ) = v in one unknown, T (varyT) or ρ, kept in the

@@ -735,7 +735,8 @@ func (f *Fluid) satNewtonP(s *satPair, p, tau, dl, dv float64) bool {
 		if good && res <= satLinearRes && min(dPl, dPv) >= satLinearDP && step <= satLinearStep {
 			// The last step, by the iterate's own derivatives.
 			s.tau, s.dl, s.dv = tau+dt, dl+ddl, dv+ddv
-			s.rl, s.rv = linearResidual(rl, ddl, dt), linearResidual(rv, ddv, dt)
+			linearResidual(&s.rl, &rl, ddl, dt)
+			linearResidual(&s.rv, &rv, ddv, dt)
 			s.il, s.iv = s.rl.Delta(), s.rv.Delta()
 			s.full, s.strict = true, true
 			return true
@@ -776,14 +777,14 @@ const (
 	satLinearDP = 0.1
 )
 
-// linearResidual carries the derivatives r of αʳ at (δ, τ) to (δ + dd,
-// τ + dt) to first order: αʳ, αʳ_δ and αʳ_τ move by their own
+// linearResidual sets dst to the derivatives r of αʳ at (δ, τ) carried
+// to (δ + dd, τ + dt) to first order: αʳ, αʳ_δ and αʳ_τ move by their own
 // derivatives; the second derivatives stay.
-func linearResidual(r helmholtz.Derivs, dd, dt float64) helmholtz.Derivs {
-	r.A += r.D*dd + r.T*dt
-	r.D += r.DD*dd + r.DT*dt
-	r.T += r.DT*dd + r.TT*dt
-	return r
+func linearResidual(dst, r *helmholtz.Derivs, dd, dt float64) {
+	*dst = *r
+	dst.A += r.D*dd + r.T*dt
+	dst.D += r.DD*dd + r.DT*dt
+	dst.T += r.DT*dd + r.TT*dt
 }
 
 // satPByT solves the saturation at p by a bracketed Newton iteration in T
