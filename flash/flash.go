@@ -855,12 +855,12 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) (done b
 	if p >= f.Critical().P {
 		sd = anySide
 	}
-	T0, rho0 := predict(g, p, X, x, false)
+	T0, rho0 := predict(g, p, X, x)
 	var vp vaporPressure
 	near := false // a vapour within 20 % of its vapour pressure
 	if sd != anySide {
 		if vp.at(f, T0) {
-			if ps, errP := vp.p, vp.err; liquid && p < ps-errP || !liquid && p > ps+errP {
+			if stable, decided := placeP(p, vp.p, vp.err, liquid); decided && !stable {
 				// The guess's phase carried to (p, x) lies beyond the
 				// vapour-pressure curve: the state is most likely a
 				// mixture (or the other phase), placed against the
@@ -927,11 +927,10 @@ func (k *call) isobaricWarmSat(p float64, X quantity, x, gT, rl, rv float64, st 
 //	(∂p/∂ρ)_T = w² cv/cp,  (∂p/∂T)_ρ = ρ √((cp − cv)(∂p/∂ρ)_T/T)
 //
 // (the root taken positive: a liquid below its density maximum, where
-// it is negative, is started less well). With lnRho the step is taken in
-// (T, ln ρ) on ln p, as newton2's lnRhoStep, for a vapour. Where the step
-// would move T by more than 5 % or ρ by more than 10 %, or the guess
-// lacks what it needs, the guess itself.
-func predict(g *State, p float64, X quantity, x float64, lnRho bool) (T, rho float64) {
+// it is negative, is started less well). Where the step would move T by
+// more than 5 % or ρ by more than 10 %, or the guess lacks what it needs,
+// the guess itself.
+func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
 	T, rho = g.T, g.Rho
 	cp, cv, w := g.Cp, g.Cv, g.W
 	if !(cp > cv && cv > 0 && w > 0 && isFinite(cp)) {
@@ -944,28 +943,9 @@ func predict(g *State, p float64, X quantity, x float64, lnRho bool) (T, rho flo
 	a1, a2 := qP.partials(&pr)
 	b1, b2 := X.partials(&pr)
 	ra, rb := g.P-p, X.of(&pr)-x
-	if lnRho {
-		// (A start: the series of ln(1 + x) and e^x − 1 to x⁴ for
-		// steps within 1 %, exact to 1e-10 of the step.)
-		if x := (g.P - p) / p; math.Abs(x) < 0.01 {
-			ra = x * (1 - x*(0.5-x*(1.0/3-0.25*x)))
-		} else {
-			ra = elem.Log(g.P / p)
-		}
-		ip := 1 / g.P
-		a1, a2 = a1*ip, a2*rho*ip
-		b2 *= rho
-	}
 	det := a1*b2 - a2*b1
 	dT := (-ra*b2 + rb*a2) / det
 	dRho := (-rb*a1 + ra*b1) / det
-	if lnRho {
-		if d := dRho; math.Abs(d) < 0.01 {
-			dRho = rho * d * (1 + d*(0.5+d*(1.0/6+d/24)))
-		} else {
-			dRho = rho * expm1(max(min(d, 0.2), -0.2))
-		}
-	}
 	if !isFinite(dT) || !isFinite(dRho) || math.Abs(dT) > 0.05*T || math.Abs(dRho) > 0.1*rho {
 		return T, rho
 	}

@@ -82,11 +82,19 @@ func (k *call) stableByCache(pr *fluid.Props) (stable, decided bool) {
 	if !ok {
 		return false, false
 	}
-	liquid := pr.Rho > c.Rho
+	return placeP(pr.P, ps, errP, pr.Rho > c.Rho)
+}
+
+// placeP places a single-phase fluid state of pressure p, liquid
+// (ρ > ρc) or not, against the vapour pressure ps ± bound at its
+// temperature: stable is whether it is the stable phase there (the
+// liquid above ps, the vapour below), decided whether p lies outside the
+// bound.
+func placeP(p, ps, bound float64, liquid bool) (stable, decided bool) {
 	switch {
-	case pr.P > ps+errP:
+	case p > ps+bound:
 		return liquid, true
-	case pr.P < ps-errP:
+	case p < ps-bound:
 		return !liquid, true
 	}
 	return false, false
@@ -126,16 +134,7 @@ func (vp *vaporPressure) place(pr *fluid.Props, c fluid.Point) (stable, decided 
 	if !(math.Abs(dT) <= 1e-3*vp.T && lin <= vp.p) {
 		return false, false
 	}
-	ps := vp.p + dT*vp.slope
-	bound := vp.err + lin*(1+lin/vp.p)
-	liquid := pr.Rho > c.Rho
-	switch {
-	case pr.P > ps+bound:
-		return liquid, true
-	case pr.P < ps-bound:
-		return !liquid, true
-	}
-	return false, false
+	return placeP(pr.P, vp.p+dT*vp.slope, vp.err+lin*(1+lin/vp.p), pr.Rho > c.Rho)
 }
 
 // satFromCacheT sets dst to the equation's saturation at T started from

@@ -259,7 +259,10 @@ func newton2(f *fluid.Fluid, a quantity, va float64, b quantity, vb float64, T, 
 		*prev, havePrev = *start, true
 	}
 	w := watch{best: math.Inf(1)}
-	iva := 1 / va // (for lnRhoStep)
+	iva := 0.0 // 1/va, for lnRhoStep
+	if br.lnRhoStep {
+		iva = 1 / va
+	}
 	backs, pinned := 0, 0
 	lastStep, prevDT, prevRb := math.Inf(1), 0.0, math.Inf(1)
 	for it := 0; it < 60; it++ {

@@ -235,13 +235,7 @@ func TestLogAgainstMath(t *testing.T) {
 		"1±1e-2":     func(r *rand.Rand) float64 { return 1 + 2e-2*(r.Float64()-0.5) },
 		"1±1e-6":     func(r *rand.Rand) float64 { return 1 + 2e-6*(r.Float64()-0.5) },
 	}
-	for name, gen := range gens {
-		worst, at, refWrong, bad := sweep(points(), gen, Log, math.Log, func(x float64) *big.Float { return bigLog(newBig(x)) })
-		if bad > 0 || refWrong > 0 {
-			t.Errorf("%s: %d arguments more than 1 ulp from math.Log; worst %v ulp at x = %v", name, bad+refWrong, worst, at)
-		}
-		t.Logf("%s: at most %v ulp from math.Log (x = %v)", name, worst, at)
-	}
+	againstMath(t, "math.Log", gens, Log, math.Log, func(x float64) *big.Float { return bigLog(newBig(x)) })
 }
 
 // TestCbrtAgainstMath: Cbrt within 1 ulp of math.Cbrt on millions of
@@ -257,19 +251,13 @@ func TestCbrtAgainstMath(t *testing.T) {
 		"[1,8)":       func(r *rand.Rand) float64 { return 1 + 7*r.Float64() },
 		"-1e-3..-1e3": func(r *rand.Rand) float64 { return -math.Pow(10, 6*r.Float64()-3) },
 	}
-	for name, gen := range gens {
-		worst, at, refWrong, bad := sweep(points(), gen, Cbrt, math.Cbrt, func(x float64) *big.Float {
-			v := bigCbrt(newBig(math.Abs(x)))
-			if x < 0 {
-				v.Neg(v)
-			}
-			return v
-		})
-		if bad > 0 || refWrong > 0 {
-			t.Errorf("%s: %d arguments more than 1 ulp from math.Cbrt; worst %v ulp at x = %v", name, bad+refWrong, worst, at)
+	againstMath(t, "math.Cbrt", gens, Cbrt, math.Cbrt, func(x float64) *big.Float {
+		v := bigCbrt(newBig(math.Abs(x)))
+		if x < 0 {
+			v.Neg(v)
 		}
-		t.Logf("%s: at most %v ulp from math.Cbrt (x = %v)", name, worst, at)
-	}
+		return v
+	})
 }
 
 // TestLog1pAgainstMath: Log1p within 1 ulp of math.Log1p on its fast
@@ -282,12 +270,22 @@ func TestLog1pAgainstMath(t *testing.T) {
 		"log-uniform": func(r *rand.Rand) float64 { return math.Copysign(math.Exp2(-7-60*r.Float64()), r.Float64()-0.5) },
 		"bits":        func(r *rand.Rand) float64 { return math.Float64frombits(r.Uint64()) },
 	}
+	againstMath(t, "math.Log1p", gens, Log1p, math.Log1p, bigLog1p)
+}
+
+// againstMath fails where f lies more than 1 ulp from ref (the math
+// package's function, named refName) at any of points() arguments from
+// each of gens — also where exact shows ref itself to err, which sweep
+// would otherwise excuse — and logs the worst case.
+func againstMath(t *testing.T, refName string, gens map[string]func(*rand.Rand) float64,
+	f, ref func(float64) float64, exact func(float64) *big.Float) {
+	t.Helper()
 	for name, gen := range gens {
-		worst, at, refWrong, bad := sweep(points(), gen, Log1p, math.Log1p, bigLog1p)
+		worst, at, refWrong, bad := sweep(points(), gen, f, ref, exact)
 		if bad > 0 || refWrong > 0 {
-			t.Errorf("%s: %d arguments more than 1 ulp from math.Log1p; worst %v ulp at x = %v", name, bad+refWrong, worst, at)
+			t.Errorf("%s: %d arguments more than 1 ulp from %s; worst %v ulp at x = %v", name, bad+refWrong, refName, worst, at)
 		}
-		t.Logf("%s: at most %v ulp from math.Log1p (x = %v)", name, worst, at)
+		t.Logf("%s: at most %v ulp from %s (x = %v)", name, worst, refName, at)
 	}
 }
 
