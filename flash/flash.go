@@ -669,15 +669,14 @@ func (k *call) isobaricAll(p float64, X quantity, x float64, st *State) error {
 // isobaric is the fluid path of PH (X = h) and PS (X = s).
 func (k *call) isobaric(p float64, X quantity, x float64, st *State) error {
 	f := k.f
-	c := f.Critical()
-	lim := f.Limits()
-	if p > lim.PCeil {
-		return k.fail(fluid.ErrOutOfRange, "p exceeds the accepted "+fmtG(lim.PCeil)+" Pa")
+	if pc := f.Limits().PCeil; p > pc {
+		return k.fail(fluid.ErrOutOfRange, "p exceeds the accepted "+fmtG(pc)+" Pa")
 	}
-	want := k.opt.Phase
 	if done, err := k.isobaricWarm(p, X, x, st); done {
 		return err
 	}
+	c, lim := f.Critical(), f.Limits()
+	want := k.opt.Phase
 	// The lowest fluid temperature at p, a bound from the solid model's
 	// curve nodes (results are placed against the solid in finish).
 	Tf, floor := k.freezeT(p)
@@ -797,27 +796,30 @@ func (k *call) isobaric(p float64, X quantity, x float64, st *State) error {
 // isobaricSat finishes PH/PS with the equation's saturation s at p.
 func (k *call) isobaricSat(p float64, X quantity, x float64, s *fluid.Saturation, st *State) error {
 	f := k.f
-	lim := f.Limits()
 	want := k.opt.Phase
 	xl, xv := X.of(&s.Liquid), X.of(&s.Vapor)
-	Tf, _ := k.freezeT(p)
 	if k.onTripleT(s.T) && x < xl && xl-x <= X.floor(f, &s.Liquid, x) {
 		// The liquid at the triple point, to the floor of x: no colder
 		// liquid to solve for (a fluid without a solid model).
 		return k.finishSatTo(s, 0, st)
 	}
+	// (The limits and the freezing temperature are read only where a
+	// single phase is solved for: a mixture, the warm path's most
+	// common end here, needs neither.)
 	switch {
 	case x < xl:
+		Tf, _ := k.freezeT(p)
 		return k.isobarSingle(p, X, x, &s.Liquid, liquidSide, Tf, s.T, false, st)
 	case x > xv:
-		return k.isobarSingle(p, X, x, &s.Vapor, vaporSide, s.T, lim.TCeil, false, st)
+		return k.isobarSingle(p, X, x, &s.Vapor, vaporSide, s.T, f.Limits().TCeil, false, st)
 	}
 	if (want == Liquid || want == Vapor) && k.opt.AllowMetastable {
 		start := &s.Liquid
 		if want == Vapor {
 			start = &s.Vapor
 		}
-		return k.isobarSingle(p, X, x, start, sideOf(want == Liquid), Tf, lim.TCeil, true, st)
+		Tf, _ := k.freezeT(p)
+		return k.isobarSingle(p, X, x, start, sideOf(want == Liquid), Tf, f.Limits().TCeil, true, st)
 	}
 	q := (x - xl) / (xv - xl)
 	switch {
@@ -850,7 +852,6 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) (done b
 		return false, nil
 	}
 	liquid := g.Rho > f.Critical().Rho
-	lim := f.Limits()
 	sd := sideOf(liquid)
 	if p >= f.Critical().P {
 		sd = anySide
@@ -873,6 +874,7 @@ func (k *call) isobaricWarm(p float64, X quantity, x float64, st *State) (done b
 	}
 	var from fluid.Props
 	from.T, from.Rho = g.T, g.Rho
+	lim := f.Limits()
 	br := onBranch(f, sd, lim.TFloor, lim.TCeil)
 	// A vapour near its vapour pressure, where p(ρ) bends most, in
 	// (T, ln ρ) (see lnRhoStep); farther off the plain step ends as soon

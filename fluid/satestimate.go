@@ -24,11 +24,11 @@ import (
 // not for concurrent use (copies are). The zero SatPoint is no point:
 // its methods return zeros.
 type SatPoint struct {
-	f    *Fluid
-	c    *satCurve
-	loc  satLoc
-	errT float64 // the bound of the error of T (0 at given T)
-	p    float64 // the given pressure (SaturationPointAtP), else 0
+	f   *Fluid
+	c   *satCurve
+	loc satLoc
+	by  int8    // 1 + the interpolant sp was located by (0: at given T)
+	p   float64 // the given pressure (SaturationPointAtP), else 0
 }
 
 // SaturationPointAtT locates temperature T in K on the cached curve of f
@@ -102,14 +102,25 @@ func (f *Fluid) pointWhere(c *satCurve, i, q int, target, lo, hi float64) SatPoi
 // lo, hi) in place (the hot path of SaturationPointAtP: no copies of the
 // point).
 func (f *Fluid) setPointWhere(sp *SatPoint, c *satCurve, i, q int, target, lo, hi float64) {
-	sp.f, sp.c = f, c
+	sp.f, sp.c, sp.by = f, c, int8(q+1)
 	c.locateWhere(&sp.loc, i, q, target, lo, hi)
-	sp.errT = c.ivs[i].err[q] / math.Abs(c.slope(&sp.loc, q))
+}
+
+// errT returns the bound of the error of sp's T: the bound of the
+// interpolant it was located by over that interpolant's slope (0 at
+// given T). It is computed where asked for, not when the point is
+// located: the solvers started from a point need its T alone.
+func (sp *SatPoint) errT() float64 {
+	if sp.by == 0 {
+		return 0
+	}
+	q := int(sp.by - 1)
+	return sp.c.ivs[sp.loc.i].err[q] / math.Abs(sp.c.slope(&sp.loc, q))
 }
 
 // Temperature returns the temperature of sp in K and the bound of its
 // error (0 for a point at given T).
-func (sp *SatPoint) Temperature() (T, errT float64) { return sp.loc.T, sp.errT }
+func (sp *SatPoint) Temperature() (T, errT float64) { return sp.loc.T, sp.errT() }
 
 // Pressure returns the vapour pressure at sp in Pa, the bound of its
 // error in Pa (0 at given p) and its slope dp/dT along the curve in Pa/K.
@@ -146,8 +157,8 @@ func (sp *SatPoint) Value(v SatValue) (x, errX float64) {
 	default:
 		x += sp.f.hOff
 	}
-	if sp.errT > 0 {
-		errX += math.Abs(sp.c.slope(&sp.loc, q)*scale) * sp.errT
+	if eT := sp.errT(); eT > 0 {
+		errX += math.Abs(sp.c.slope(&sp.loc, q)*scale) * eT
 	}
 	return x, errX
 }
@@ -288,8 +299,8 @@ func (sp *SatPoint) Estimate(e *SatEstimate) {
 		*er = PhaseValues{Rho: rho * bd[sqLnRhoL+ph], H: bd[sqHL+ph],
 			S: bd[sqSL+ph], U: bd[sqUL+ph]}
 	}
-	if sp.errT > 0 {
-		e.addErrT(sp.errT)
+	if eT := sp.errT(); eT > 0 {
+		e.addErrT(eT)
 	}
 }
 
