@@ -24,11 +24,12 @@ import (
 // not for concurrent use (copies are). The zero SatPoint is no point:
 // its methods return zeros.
 type SatPoint struct {
-	f   *Fluid
-	c   *satCurve
-	loc satLoc
-	by  int8    // 1 + the interpolant sp was located by (0: at given T)
-	p   float64 // the given pressure (SaturationPointAtP), else 0
+	f    *Fluid
+	c    *satCurve
+	loc  satLoc
+	tErr float64 // the bound of the error of T (0 at given T), once by is 0
+	by   int8    // 1 + the interpolant sp was located by, until tErr is set
+	p    float64 // the given pressure (SaturationPointAtP), else 0
 }
 
 // SaturationPointAtT locates temperature T in K on the cached curve of f
@@ -108,14 +109,14 @@ func (f *Fluid) setPointWhere(sp *SatPoint, c *satCurve, i, q int, target, lo, h
 
 // errT returns the bound of the error of sp's T: the bound of the
 // interpolant it was located by over that interpolant's slope (0 at
-// given T). It is computed where asked for, not when the point is
+// given T). It is computed when first asked for, not when the point is
 // located: the solvers started from a point need its T alone.
 func (sp *SatPoint) errT() float64 {
-	if sp.by == 0 {
-		return 0
+	if sp.by > 0 {
+		q := int(sp.by - 1)
+		sp.tErr, sp.by = sp.c.ivs[sp.loc.i].err[q]/math.Abs(sp.c.slope(&sp.loc, q)), 0
 	}
-	q := int(sp.by - 1)
-	return sp.c.ivs[sp.loc.i].err[q] / math.Abs(sp.c.slope(&sp.loc, q))
+	return sp.tErr
 }
 
 // Temperature returns the temperature of sp in K and the bound of its
