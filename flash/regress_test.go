@@ -33,6 +33,46 @@ func TestDUWarmStartNeverHurts(t *testing.T) {
 	}
 }
 
+// TestPDWarmStartNearCritical: the sweep's warm-started inverse flashes
+// (inputs and guesses are its states) found PD failing next to the
+// critical point of R-134a where the cold flash succeeds: at the critical
+// point itself from a guess at it, and for a liquid 37 mK below Tc, just
+// denser than the saturated liquid, from a saturated liquid 0.34 K colder
+// (that guess lies inside the dome on the state's isochore). A warm start
+// must give the cold flash's state.
+func TestPDWarmStartNearCritical(t *testing.T) {
+	t.Parallel()
+	f := mustFluid(t, "R134a")
+	crit, err := DT(f, 511.94511327430297, 374.21196658494847)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sat, err := TQ(f, 373.83775461836353, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		p, rho float64
+		guess  *State
+	}{
+		{4.0592763737311135e+06, 511.94511327430297, &crit},
+		{4.0561451963235177e+06, 548.1240283425557, &sat},
+	} {
+		cold, err := PD(f, c.p, c.rho)
+		if err != nil {
+			t.Fatal(err)
+		}
+		warm, err := PDWith(f, c.p, c.rho, Options{Guess: c.guess})
+		if err != nil {
+			t.Errorf("p = %v, rho = %v from a guess at %v K: %v", c.p, c.rho, c.guess.T, err)
+			continue
+		}
+		if warm.Phase != cold.Phase || math.Abs(warm.T-cold.T) > 1e-9*cold.T {
+			t.Errorf("p = %v, rho = %v: warm %v at %v K, cold %v at %v K", c.p, c.rho, warm.Phase, warm.T, cold.Phase, cold.T)
+		}
+	}
+}
+
 // TestDUNearCritical: 1 µK below Tc on a near-critical isochore of CO2
 // (inputs found by the vent example at 23.4 kg in 50 L and 31 °C), where
 // the equation fixes the saturated densities only loosely, DU returns the

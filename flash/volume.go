@@ -803,10 +803,19 @@ func (k *call) pd(p, rho float64) (State, error) {
 			thi, T0 = c.T, c.T
 		}
 	}
+	var pr fluid.Props
+	ok := false
 	if g := k.opt.Guess; k.fluidGuess() && g.T > 0 {
-		T0 = g.T
+		// From the warm start by Newton's method alone; where that fails
+		// (a guess across the dome from the solution: next to the
+		// critical point the isochore of a liquid just denser than the
+		// saturated one runs inside the dome below it), from the cold
+		// start.
+		pr, ok = newton1(f, qP, p, min(max(g.T, tlo), thi), rho, true, tlo, thi)
 	}
-	pr, ok := solve1(f, qP, p, min(max(T0, tlo), thi), rho, true, tlo, thi)
+	if !ok {
+		pr, ok = solve1(f, qP, p, min(max(T0, tlo), thi), rho, true, tlo, thi)
+	}
 	if !ok && tsat > 0 && k.sol.anomalous() {
 		// Water denser than its saturated liquid at p near its density
 		// maximum lies above the saturation temperature, not below: the
