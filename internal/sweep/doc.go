@@ -34,7 +34,10 @@
 // checked against the backward-residual bounds, and every inverse flash
 // that applies — PH, PS, DU, HS, DT, TS, PD, and PT, TQ, PQ where they
 // fix the state — is run from the state's own values and judged by the
-// same bounds and by its phase. The consistency checks follow: for each
+// same bounds and by its phase: cold, and warm-started (Options.Guess)
+// from the state itself and from the previous case's state (a neighbour
+// on the grid, or a state far off where the grid turns), as simulators
+// call them. The consistency checks follow: for each
 // fluid phase, fourth-order differences of fluid.Props (with steps h and
 // h/2, Richardson-extrapolated: next to a spinodal a fixed step is too
 // coarse) against its analytic derivatives (the Maxwell relation (∂s/∂ρ)_T =

@@ -116,7 +116,15 @@ type result struct {
 	skipped   int                    // difference checks left out near the critical point or at a range edge
 	errSeen   map[string]int         // sentinel of refusals, by flash
 	maxFirst  int                    // how many failures of each kind to keep
-	fluidName string                 // for reproducers
+	// prev is the previous forward state of the chunk, the warm start
+	// of the inverse flashes of the next (see inverses), with the
+	// reproducer of its flash.
+	prev struct {
+		st    flash.State
+		repro string
+		ok    bool
+	}
+	fluidName string // for reproducers
 	// at is where the checks are: the case's region, its forward flash
 	// and the flash being judged (for failure records).
 	at struct {
@@ -238,6 +246,7 @@ func (s *setup) runCase(c *tcase, r *result) {
 	}
 	s.consistency(c, &st, r, rep)
 	s.inverses(c, &st, r)
+	r.prev.st, r.prev.repro, r.prev.ok = st, rep(), true
 }
 
 // checkKnown checks a state built from a known mixture (the fractions of
@@ -286,11 +295,18 @@ func (s *setup) residual(r *result, fi int, st *flash.State, q quantity, want fl
 }
 
 // inverses runs every flash that applies to the values of st and judges
-// each by the backward residuals and the phase.
+// each by the backward residuals and the phase: cold, and warm-started
+// (Options.Guess) from the state itself (a simulator's step that changed
+// nothing) and from the previous case's forward state (a neighbour on
+// the grid, or, where the grid turns, a state far off: a warm start may
+// cost more, never mislead).
 func (s *setup) inverses(c *tcase, st *flash.State, r *result) {
 	mixture := st.Phase == flash.TwoPhase || st.Phase == flash.SolidVapor || st.Phase == flash.SolidLiquid || st.Phase == flash.Triple
 	sat := st.Flags&fluid.Saturated != 0
-	opt := c.options()
+	guesses := [3]struct {
+		g    *flash.State
+		from string // the reproducer of the guess
+	}{{nil, ""}, {st, repro(forward[c.kind].name, c.a, c.b, c.options())}, {&r.prev.st, r.prev.repro}}
 	for i := range inverses {
 		inv := &inverses[i]
 		if inv.name == forward[c.kind].name {
@@ -312,47 +328,65 @@ func (s *setup) inverses(c *tcase, st *flash.State, r *result) {
 		if c.meta && !inv.meta {
 			continue
 		}
-		a, b := valueOf(st, inv.a), valueOf(st, inv.b)
-		r.at.failing = inv.name
-		got, err, pan := call(inv.fn, s.f, a, b, opt)
-		r.flashes++
-		rep := func() string {
-			return repro(inv.name, a, b, opt) + " from " + repro(forward[c.kind].name, c.a, c.b, opt)
-		}
-		if pan != nil {
-			r.fail(fPanic, "%s %s: %s: panic: %v", s.f.Name(), regionNames[c.region], rep(), pan)
-			continue
-		}
-		if err != nil {
-			if why := errorFault(err, "flash."+inv.name); why != "" {
-				r.fail(fError, "%s: %s: error %q: %s", s.f.Name(), rep(), err, why)
+		for gi, g := range guesses {
+			if gi == 2 && !r.prev.ok {
+				continue
 			}
-			r.fail(fRefused, "%s %s: %s: %v (the state %s)", s.f.Name(), regionNames[c.region], rep(), err, brief(st))
-			continue
+			opt := c.options()
+			opt.Guess = g.g
+			s.inverse(c, st, r, i, opt, g.from, mixture)
 		}
-		if why := s.invalid(&got); why != "" {
-			r.fail(fInvalid, "%s %s: %s: %s: %s", s.f.Name(), regionNames[c.region], rep(), why, brief(&got))
-			continue
+	}
+}
+
+// inverse runs inverse flash i from the values of st with the options
+// opt (guess: the reproducer of opt.Guess, if set) and judges it.
+func (s *setup) inverse(c *tcase, st *flash.State, r *result, i int, opt flash.Options, guess string, mixture bool) {
+	inv := &inverses[i]
+	a, b := valueOf(st, inv.a), valueOf(st, inv.b)
+	r.at.failing = inv.name
+	got, err, pan := call(inv.fn, s.f, a, b, opt)
+	r.flashes++
+	rep := func() string {
+		w := ""
+		if opt.Guess != nil {
+			w = " with Guess the state of " + guess
 		}
-		s.residual(r, i, &got, inv.a, a, rep)
-		if inv.b != qQ || got.Phase == flash.TwoPhase || got.Phase == flash.SolidVapor {
-			s.residual(r, i, &got, inv.b, b, rep)
+		return repro(inv.name, a, b, opt) + w + " from " + repro(forward[c.kind].name, c.a, c.b, c.options())
+	}
+	if pan != nil {
+		r.fail(fPanic, "%s %s: %s: panic: %v", s.f.Name(), regionNames[c.region], rep(), pan)
+		return
+	}
+	if err != nil {
+		if why := errorFault(err, "flash."+inv.name); why != "" {
+			r.fail(fError, "%s: %s: error %q: %s", s.f.Name(), rep(), err, why)
 		}
-		free := (st.Flags|got.Flags)&(fluid.Indeterminate|fluid.AtCritical) != 0 ||
-			(inv.name == "TS" || inv.name == "PD") && s.nonUnique(st) ||
-			got.Phase != st.Phase && s.samePlace(st, &got, inv.name == "PT")
-		if got.Phase != st.Phase && !free {
-			r.fail(fPhase, "%s %s: %s: phase %v, the state is %v: got %s, the state %s", s.f.Name(), regionNames[c.region],
-				rep(), got.Phase, st.Phase, brief(&got), brief(st))
-			continue
-		}
-		if mixture && got.Phase == st.Phase && !free && inv.qualityFixed && s.crit.T-st.T > 1 {
-			d := max(math.Abs(got.Quality-st.Quality), math.Abs(got.Solid-st.Solid))
-			r.cons[cQuality].add(d, rep)
-			if d > measureBounds[cQuality] {
-				r.fail(fConsistency, "%s %s: %s: quality %.17g solid %.17g, the state %.17g %.17g", s.f.Name(),
-					regionNames[c.region], rep(), got.Quality, got.Solid, st.Quality, st.Solid)
-			}
+		r.fail(fRefused, "%s %s: %s: %v (the state %s)", s.f.Name(), regionNames[c.region], rep(), err, brief(st))
+		return
+	}
+	if why := s.invalid(&got); why != "" {
+		r.fail(fInvalid, "%s %s: %s: %s: %s", s.f.Name(), regionNames[c.region], rep(), why, brief(&got))
+		return
+	}
+	s.residual(r, i, &got, inv.a, a, rep)
+	if inv.b != qQ || got.Phase == flash.TwoPhase || got.Phase == flash.SolidVapor {
+		s.residual(r, i, &got, inv.b, b, rep)
+	}
+	free := (st.Flags|got.Flags)&(fluid.Indeterminate|fluid.AtCritical) != 0 ||
+		(inv.name == "TS" || inv.name == "PD") && s.nonUnique(st) ||
+		got.Phase != st.Phase && s.samePlace(st, &got, inv.name)
+	if got.Phase != st.Phase && !free {
+		r.fail(fPhase, "%s %s: %s: phase %v, the state is %v: got %s, the state %s", s.f.Name(), regionNames[c.region],
+			rep(), got.Phase, st.Phase, brief(&got), brief(st))
+		return
+	}
+	if mixture && got.Phase == st.Phase && !free && inv.qualityFixed && s.crit.T-st.T > 1 {
+		d := max(math.Abs(got.Quality-st.Quality), math.Abs(got.Solid-st.Solid))
+		r.cons[cQuality].add(d, rep)
+		if d > measureBounds[cQuality] {
+			r.fail(fConsistency, "%s %s: %s: quality %.17g solid %.17g, the state %.17g %.17g", s.f.Name(),
+				regionNames[c.region], rep(), got.Quality, got.Solid, st.Quality, st.Solid)
 		}
 	}
 }
@@ -382,8 +416,19 @@ const boundaryFraction = 1e-8
 //   - st lies on a coexistence curve (a saturated phase, or a mixture
 //     with a phase of fraction below boundaryFraction) and got is the
 //     same point of the curve with or without the vanishing phase; PT
-//     of a saturated phase may return the other phase of the curve.
-func (s *setup) samePlace(st, got *flash.State, pt bool) bool {
+//     of a saturated phase may return the other phase of the curve;
+//   - from HS, st is a saturated single phase and got a mixture on a
+//     coexistence curve that holds st's phase: along the curve
+//     dh = T ds + v dp, for a mixture too, so that moving the point of
+//     the curve and the fraction of the other phase together changes h
+//     and s alike but for v dp, small for a condensed phase with little
+//     of the other; (h, s) fixes such a state only loosely (the
+//     Jacobian of (h, s) in (T, q) is of the order of v dp/dT), and a
+//     warm-started HS that reproduces both within their bounds may end
+//     on either side (seen: saturated ice, and ice with 3e-7 of vapour
+//     0.5 mK colder).
+func (s *setup) samePlace(st, got *flash.State, inv string) bool {
+	pt := inv == "PT"
 	isFluid := func(p flash.Phase) bool { return fluidPhases.has(p) && p != flash.Unknown }
 	tc := s.crit.T
 	if isFluid(st.Phase) && isFluid(got.Phase) && math.Abs(st.T-tc) <= 1e-9*tc && math.Abs(got.T-tc) <= 1e-9*tc {
@@ -405,6 +450,10 @@ func (s *setup) samePlace(st, got *flash.State, pt bool) bool {
 		}
 	}
 	if pt && st.Flags&fluid.Saturated != 0 && got.Flags&fluid.Saturated != 0 {
+		return true
+	}
+	if inv == "HS" && st.N == 1 && st.Flags&fluid.Saturated != 0 && got.N == 2 &&
+		got.Flags&fluid.Saturated != 0 && coexists(st, got) {
 		return true
 	}
 	return coexists(st, got) && coexists(got, st)
