@@ -47,24 +47,49 @@ func fuzzFlash(f *testing.F, name string) {
 			}
 			return
 		}
-		if !checkState(t, fl, name, &st) {
+		if !fuzzCheck(t, fl, fc, a, b, &st, "") {
 			return
 		}
-		for _, q := range []struct {
-			name string
-			v    float64
-		}{{fc.a, a}, {fc.b, b}} {
-			got, floor := backward(fl, &st, q.name, q.v)
-			if q.name == "q" && (st.Phase == Liquid || st.Phase == Vapor) {
-				continue // q = 0 or 1, a saturated single phase
+		// Warm-started from the state itself and from the state at
+		// inputs moved by 0.3 %: the same state, never an error.
+		guesses := []State{st}
+		if g, err := fc.fn(fl, a*1.003, b*0.997, Options{}); err == nil {
+			guesses = append(guesses, g)
+		}
+		for i := range guesses {
+			g := &guesses[i]
+			warm, err := fc.fn(fl, a, b, Options{Guess: g})
+			if err != nil {
+				t.Errorf("%s %s(%.17g, %.17g) warm-started from %v at T = %.17g, rho = %.17g: %v (cold: %v)",
+					fl.Name(), name, a, b, g.Phase, g.T, g.Rho, err, st.Phase)
+				continue
 			}
-			if math.Abs(got-q.v) > floor {
-				t.Errorf("%s %s(%.17g, %.17g): %s = %.17g (floor %.3g), %v", fl.Name(), name, a, b, q.name, got, floor, st.Phase)
-			}
+			fuzzCheck(t, fl, fc, a, b, &warm, " warm-started")
 		}
 	})
 }
 
+// fuzzCheck checks that st, from flash fc at inputs (a, b), is valid and
+// reproduces its inputs to the floors, and reports whether it is valid.
+func fuzzCheck(t *testing.T, fl *fluid.Fluid, fc flashCase, a, b float64, st *State, how string) bool {
+	t.Helper()
+	if !checkState(t, fl, fc.name, st) {
+		return false
+	}
+	for _, q := range []struct {
+		name string
+		v    float64
+	}{{fc.a, a}, {fc.b, b}} {
+		got, floor := backward(fl, st, q.name, q.v)
+		if q.name == "q" && (st.Phase == Liquid || st.Phase == Vapor) {
+			continue // q = 0 or 1, a saturated single phase
+		}
+		if math.Abs(got-q.v) > floor {
+			t.Errorf("%s %s(%.17g, %.17g)%s: %s = %.17g (floor %.3g), %v", fl.Name(), fc.name, a, b, how, q.name, got, floor, st.Phase)
+		}
+	}
+	return true
+}
 func FuzzPT(f *testing.F) { fuzzFlash(f, "PT") }
 func FuzzTQ(f *testing.F) { fuzzFlash(f, "TQ") }
 func FuzzPQ(f *testing.F) { fuzzFlash(f, "PQ") }
