@@ -938,16 +938,19 @@ func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
 	if !(cp > cv && cv > 0 && w > 0 && isFinite(cp)) {
 		return T, rho
 	}
+	// (The reciprocals are independent of one another: no division
+	// waits for another.)
+	icp, iT := 1/cp, 1/T
 	var pr fluid.Props
 	pr.T, pr.Rho, pr.P, pr.H, pr.S, pr.U, pr.Cv = T, rho, g.P, g.H, g.S, g.U, cv
-	pr.DpDrho = w * w * cv / cp
-	pr.DpDT = rho * math.Sqrt((cp-cv)*pr.DpDrho/T)
+	pr.DpDrho = w * w * cv * icp
+	pr.DpDT = rho * math.Sqrt((cp-cv)*pr.DpDrho*iT)
 	a1, a2 := qP.partials(&pr)
 	b1, b2 := X.partials(&pr)
 	ra, rb := g.P-p, X.of(&pr)-x
-	det := a1*b2 - a2*b1
-	dT := (-ra*b2 + rb*a2) / det
-	dRho := (-rb*a1 + ra*b1) / det
+	idet := 1 / (a1*b2 - a2*b1)
+	dT := (-ra*b2 + rb*a2) * idet
+	dRho := (-rb*a1 + ra*b1) * idet
 	if !isFinite(dT) || !isFinite(dRho) || math.Abs(dT) > 0.05*T || math.Abs(dRho) > 0.1*rho {
 		return T, rho
 	}

@@ -42,8 +42,11 @@ func (q quantity) of(pr *fluid.Props) float64 {
 //	(∂h/∂T)_ρ = cv + (∂p/∂T)_ρ/ρ,  (∂h/∂ρ)_T = ((∂p/∂ρ)_T − T(∂p/∂T)_ρ/ρ)/ρ,
 //	(∂s/∂T)_ρ = cv/T,             (∂s/∂ρ)_T = −(∂p/∂T)_ρ/ρ²,
 //	(∂u/∂T)_ρ = cv,               (∂u/∂ρ)_T = (p − T(∂p/∂T)_ρ)/ρ².
+//
+// One reciprocal of ρ serves both partials (a division fewer on the
+// Newton iterations' dependent path).
 func (q quantity) partials(pr *fluid.Props) (dT, dRho float64) {
-	rho := pr.Rho
+	ir := 1 / pr.Rho
 	switch q {
 	case qT:
 		return 1, 0
@@ -52,11 +55,12 @@ func (q quantity) partials(pr *fluid.Props) (dT, dRho float64) {
 	case qRho:
 		return 0, 1
 	case qH:
-		return pr.Cv + pr.DpDT/rho, (pr.DpDrho - pr.T*pr.DpDT/rho) / rho
+		b := pr.DpDT * ir
+		return pr.Cv + b, (pr.DpDrho - pr.T*b) * ir
 	case qS:
-		return pr.Cv / pr.T, -pr.DpDT / (rho * rho)
+		return pr.Cv / pr.T, -pr.DpDT * ir * ir
 	}
-	return pr.Cv, (pr.P - pr.T*pr.DpDT) / (rho * rho)
+	return pr.Cv, (pr.P - pr.T*pr.DpDT) * ir * ir
 }
 
 // tol returns the convergence tolerance of q at the target value v and
