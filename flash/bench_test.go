@@ -132,6 +132,7 @@ var benchFlashes = []benchFlash{
 	{"TQ", TQWith, func(s *State) (float64, float64) { return s.T, s.Quality }, false},
 	{"PQ", PQWith, func(s *State) (float64, float64) { return s.P, s.Quality }, false},
 	{"DU", DUWith, func(s *State) (float64, float64) { return s.Rho, s.U }, false},
+	{"DUwarm", DUWith, func(s *State) (float64, float64) { return s.Rho, s.U }, true},
 	{"HS", HSWith, func(s *State) (float64, float64) { return s.H, s.S }, false},
 	{"DT", DTWith, func(s *State) (float64, float64) { return s.Rho, s.T }, false},
 	{"TS", TSWith, func(s *State) (float64, float64) { return s.T, s.S }, false},
@@ -158,7 +159,7 @@ type benchCase struct {
 
 // cases turns a region's states into calls of fl. A warm start is from
 // the state itself with the inputs moved a little (a simulator's step:
-// 0.1 % in p, 0.5 kJ/kg in h).
+// 0.1 % in p or ρ, 0.5 kJ/kg in h or u).
 func cases(fl benchFlash, sts []State) []benchCase {
 	var cs []benchCase
 	for i := range sts {

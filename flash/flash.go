@@ -921,30 +921,41 @@ func (k *call) isobaricWarmSat(p float64, X quantity, x, gT, rl, rv float64, st 
 	return err == nil && k.isobaricSat(p, X, x, &s, st) == nil
 }
 
-// predict returns the start of a warm-started PH (X = h) or PS (X = s)
-// at pressure p: the single-phase guess g carried to (p, x) by one
-// Newton step from its own derivatives, which its state holds implicitly
-// (common thermodynamic identities):
+// guessProps returns the single-phase guess g as the Props that the
+// warm starts carry to the inputs by its own derivatives, which its
+// state holds implicitly (common thermodynamic identities):
 //
 //	(∂p/∂ρ)_T = w² cv/cp,  (∂p/∂T)_ρ = ρ √((cp − cv)(∂p/∂ρ)_T/T)
 //
 // (the root taken positive: a liquid below its density maximum, where
-// it is negative, is started less well). Where the step would move T by
-// more than 5 % or ρ by more than 10 %, or the guess lacks what it needs,
-// the guess itself.
-func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
-	T, rho = g.T, g.Rho
+// it is negative, is started less well), with T, ρ, p, h, s, u and cv;
+// ok is false where g lacks what they need (a mixture: cp = +Inf).
+func guessProps(g *State) (pr fluid.Props, ok bool) {
+	T, rho := g.T, g.Rho
 	cp, cv, w := g.Cp, g.Cv, g.W
 	if !(cp > cv && cv > 0 && w > 0 && isFinite(cp)) {
-		return T, rho
+		return pr, false
 	}
 	// (The reciprocals are independent of one another: no division
 	// waits for another.)
 	icp, iT := 1/cp, 1/T
-	var pr fluid.Props
 	pr.T, pr.Rho, pr.P, pr.H, pr.S, pr.U, pr.Cv = T, rho, g.P, g.H, g.S, g.U, cv
 	pr.DpDrho = w * w * cv * icp
 	pr.DpDT = rho * math.Sqrt((cp-cv)*pr.DpDrho*iT)
+	return pr, true
+}
+
+// predict returns the start of a warm-started PH (X = h) or PS (X = s)
+// at pressure p: the single-phase guess g carried to (p, x) by one
+// Newton step from its own derivatives (guessProps). Where the step
+// would move T by more than 5 % or ρ by more than 10 %, or the guess
+// lacks what it needs, the guess itself.
+func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
+	T, rho = g.T, g.Rho
+	pr, ok := guessProps(g)
+	if !ok {
+		return T, rho
+	}
 	a1, a2 := qP.partials(&pr)
 	b1, b2 := X.partials(&pr)
 	ra, rb := g.P-p, X.of(&pr)-x
@@ -955,6 +966,24 @@ func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
 		return T, rho
 	}
 	return T + dT, rho + dRho
+}
+
+// predictT returns the start in T of a warm-started flash along the
+// isochore rho with X = x (DU: X = u): the guess g carried there by
+// its own derivatives (guessProps), to first order in T and ρ; its T
+// where the step would move T by more than 5 % or the guess lacks what
+// it needs (a mixture: its T).
+func predictT(g *State, rho float64, X quantity, x float64) float64 {
+	pr, ok := guessProps(g)
+	if !ok {
+		return g.T
+	}
+	dXdT, dXdRho := X.partials(&pr)
+	dT := (x - X.of(&pr) - dXdRho*(rho-pr.Rho)) / dXdT
+	if !isFinite(dT) || math.Abs(dT) > 0.05*g.T {
+		return g.T
+	}
+	return g.T + dT
 }
 
 // isobarSingle solves a single-phase state at p with X = x on side sd,

@@ -295,6 +295,44 @@ func TestWarmStartAcrossSaturation(t *testing.T) {
 	}
 }
 
+// TestDUWarmStart checks DU warm-started from a mixture (isochoreWarm)
+// and from single phases (predictT) against the cold flash: a
+// simulator's steps in ρ and u that stay in the dome, leave it or enter
+// it, on both sides of the critical density, next to the triple point
+// and the critical point; the same phase, T within 1e-9 and quality
+// within 1e-9.
+func TestDUWarmStart(t *testing.T) {
+	for _, f := range fluids(t) {
+		tp, c := f.Triple(), f.Critical()
+		for _, T := range []float64{tp.T + 0.02*(c.T-tp.T), tp.T + 0.5*(c.T-tp.T), 0.995 * c.T} {
+			for _, q := range []float64{0, 0.02, 0.5, 0.98, 1} {
+				prev, err := TQ(f, T, q)
+				if err != nil {
+					t.Fatal(err)
+				}
+				s := prev
+				if q == 0 || q == 1 {
+					// The saturated phase just outside the dome.
+					if s, err = DT(f, prev.Rho*(1+0.002*(0.5-q)), T*1.001); err != nil {
+						t.Fatal(err)
+					}
+				}
+				for _, d := range [][2]float64{{1.001, 500}, {0.999, -500}, {1.05, 5e3}, {0.95, -5e3}, {1, 3e4}, {1, -3e4}} {
+					rho, u := s.Rho*d[0], s.U+d[1]
+					cold, err1 := DU(f, rho, u)
+					warm, err2 := DUWith(f, rho, u, Options{Guess: &s})
+					if (err1 == nil) != (err2 == nil) || err1 == nil && (cold.Phase != warm.Phase ||
+						math.Abs(cold.T-warm.T) > 1e-9*cold.T || math.Abs(cold.Quality-warm.Quality) > 1e-9) {
+						t.Errorf("%s DU(%v, %v) from %v at %v K q %v: warm %v %v q %v, cold %v %v q %v (%v, %v)",
+							f.Name(), rho, u, s.Phase, s.T, q, warm.Phase, warm.T, warm.Quality,
+							cold.Phase, cold.T, cold.Quality, err2, err1)
+					}
+				}
+			}
+		}
+	}
+}
+
 // TestRobustness is a sweep of pseudo-random states from several
 // goroutines. Valid states (made by DT from random (T, ρ) in the fluid
 // region) must come back from a random other flash, reproducing its

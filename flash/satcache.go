@@ -239,7 +239,7 @@ func (k *call) isochoreCached(rho, u float64) (st State, err error, ok bool) {
 			T0 = min(c.T+(u-pc.U)/pc.Cv, lim.TCeil)
 		}
 		if g := k.opt.Guess; g != nil && g.T > c.T && g.T < lim.TCeil {
-			T0 = g.T
+			T0 = min(max(predictT(g, rho, qU, u), c.T), lim.TCeil)
 		}
 		pr, ok := newton1(f, qU, u, T0, rho, true, c.T, lim.TCeil)
 		if !ok {
@@ -306,7 +306,7 @@ func (k *call) isochoreCached(rho, u float64) (st State, err error, ok bool) {
 			}
 		}
 		if g := k.opt.Guess; g != nil && g.T > lo && g.T < hi {
-			T0 = g.T
+			T0 = predictT(g, rho, qU, u)
 		}
 		T0 = min(max(T0, lo), hi)
 		pr, ok := newton1(f, qU, u, T0, rho, true, max(lo, lim.TFloor), hi)
@@ -373,8 +373,22 @@ func (k *call) mixtureOnIsochore(rho, u, lo, hi float64) (st State, err error, o
 		T = Tn
 	}
 	// Polished on the equation's saturation.
+	return k.polishMixture(rho, u, T, lo, hi, 30)
+}
+
+// polishMixture solves DU for a liquid–vapour mixture of density rho and
+// internal energy u by Newton's method in T over the equation's
+// saturation (started from the cached curve at each T), with the
+// mixture's cv as the slope of its u along the isochore, from T within
+// the bracket [lo, hi], bisecting where a step leaves the bracket or
+// does not halve the residual, in at most maxIt saturations. ok is false
+// where an iterate's saturation fails or does not hold rho between its
+// phases' densities, or the iteration does not converge: the caller's
+// general path decides.
+func (k *call) polishMixture(rho, u, T, lo, hi float64, maxIt int) (st State, err error, ok bool) {
+	f := k.f
 	prevR := math.Inf(1)
-	for it := 0; it < 30; it++ {
+	for it := 0; it < maxIt; it++ {
 		var s fluid.Saturation
 		okc, err := k.satFromCacheT(T, &s)
 		if !okc || err != nil {
@@ -410,6 +424,39 @@ func (k *call) mixtureOnIsochore(rho, u, lo, hi float64) (st State, err error, o
 		T = Tn
 	}
 	return st, nil, false
+}
+
+// isochoreWarm is DU (X = u) from a two-phase warm start, without the
+// segments of the isochore that the cold path places first
+// (isochoreCached): one Newton step from the guess's own saturated
+// phases, whose mixture at the overall density rho gives u at the
+// guess's temperature, with the guess's cv as the slope (a simulator's
+// step changes the quality, on which cv depends, only a little); then
+// polishMixture. Every iterate is a mixture holding rho between its
+// phases' densities, and the mixture's u rises with T along the isochore
+// (cv > 0), so a converged state is the one equilibrium state at
+// (rho, u); where an iterate leaves the dome or the iteration is slow to
+// settle, ok is false and the cold path decides.
+func (k *call) isochoreWarm(rho, u float64) (st State, err error, ok bool) {
+	gT, _, _, okg := k.guessSat()
+	if !okg {
+		return st, nil, false
+	}
+	lo, hi := k.f.SaturationEstimateRange()
+	lo = max(lo, k.sol.tt)
+	if !(gT > lo && gT < hi) {
+		return st, nil, false
+	}
+	g := k.opt.Guess
+	l, v := &g.Phases[0], &g.Phases[1]
+	vl, vv := 1/l.Rho, 1/v.Rho
+	T := gT
+	if q := (1/rho - vl) / (vv - vl); q > 0 && q < 1 && g.Cv > 0 && isFinite(g.Cv) {
+		if Tn := gT - (l.U+q*(v.U-l.U)-u)/g.Cv; Tn > lo && Tn < hi && math.Abs(Tn-gT) <= 0.05*gT {
+			T = Tn
+		}
+	}
+	return k.polishMixture(rho, u, T, lo, hi, 6)
 }
 
 // liquidStart estimates the compressed liquid at pressure p with X = x

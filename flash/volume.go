@@ -332,6 +332,11 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	want := k.opt.Phase
 	meta := k.opt.AllowMetastable && (want == Liquid || want == Vapor)
 	if !meta && !k.decided {
+		if want == Unknown || want == TwoPhase {
+			if st, err, ok := k.isochoreWarm(rho, x); ok {
+				return st, err
+			}
+		}
 		if st, err, ok := k.isochoreCached(rho, x); ok {
 			return st, err
 		}
@@ -339,7 +344,7 @@ func (k *call) isochoric(rho float64, X quantity, x float64) (State, error) {
 	T0 := 1.1 * c.T
 	g := k.opt.Guess
 	if g != nil && g.T > 0 {
-		T0 = g.T
+		T0 = predictT(g, rho, X, x)
 	}
 	// A single phase first.
 	pr, ok := newton1(f, X, x, T0, rho, true, lim.TFloor, lim.TCeil)
