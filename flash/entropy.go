@@ -71,6 +71,9 @@ func (k *call) ts(T, s, rhoLo, rhoHi float64) (State, error) {
 	rho0 := c.Rho
 	if k.fluidGuess() && k.opt.Guess.Rho > 0 {
 		rho0 = k.opt.Guess.Rho
+		if r := predictRho(k.opt.Guess, T, qS, s); r > 0 {
+			rho0 = r
+		}
 	}
 	switch {
 	case k.belowTripleT(T):
@@ -131,7 +134,7 @@ func isotherm(f *fluid.Fluid, T, s, rho0, lo, hi, rhoLo, rhoHi float64) (fluid.P
 func (k *call) tsByNodes(T, s, rhoLo, rhoHi float64) (State, error, bool) {
 	f := k.f
 	n := satNodesFor(f)
-	if n == nil || T < n.T[0] || k.fluidGuess() || k.guessIsSat() {
+	if n == nil || T < n.T[0] || k.guessIsSat() {
 		return State{}, nil, false
 	}
 	i := n.bracketT(T)
@@ -161,6 +164,13 @@ func (k *call) tsByNodes(T, s, rhoLo, rhoHi float64) (State, error, bool) {
 		return st, err, true
 	default:
 		return State{}, nil, false
+	}
+	if k.fluidGuess() {
+		// A single phase carried to (T, s) from the warm start, where
+		// that lies on the side placed.
+		if r := predictRho(k.opt.Guess, T, qS, s); r > lo && r < hi {
+			rho0 = r
+		}
 	}
 	pr, ok := isotherm(f, T, s, rho0, lo, hi, rhoLo, rhoHi)
 	if !ok {

@@ -97,11 +97,22 @@ func (k *call) quality(q float64) error {
 	return nil
 }
 
-// guessRho returns the density of the warm-start phase on root, or 0.
-func (k *call) guessRho(root fluid.Root) float64 {
+// guessRho returns the density of the warm-start phase on root, or 0: a
+// single fluid phase carried to (T, p) by its own derivatives, the
+// phase of a mixture as it is.
+func (k *call) guessRho(root fluid.Root, T, p float64) float64 {
 	g := k.opt.Guess
 	if g == nil || g.N < 1 {
 		return 0
+	}
+	if k.fluidGuess() && (root == fluid.RootStable || (root == fluid.RootLiquid) == (g.Rho > k.f.Critical().Rho)) {
+		// A single phase, carried to (T, p) by its own derivatives
+		// (guessProps): ρ + (Δp − (∂p/∂T)_ρ ΔT)/(∂p/∂ρ)_T.
+		if pr, ok := guessProps(g); ok {
+			if rho := g.Rho + (p-g.P-pr.DpDT*(T-g.T))/pr.DpDrho; rho > 0.9*g.Rho && rho < 1.1*g.Rho {
+				return rho
+			}
+		}
 	}
 	for i := 0; i < g.N && i < 3; i++ {
 		ph := g.Phases[i].Phase
@@ -361,7 +372,7 @@ func ptWith(f *fluid.Fluid, p, T float64, opt Options) (st State, err error) {
 			if ps, errP, _ := sp.Pressure(); math.Abs(p-ps) > errP {
 				// (At the pressure ceiling a root whose pressure rounds
 				// above it is left to fluid.PropsTP, which says so.)
-				pr, ok := k.densityOn(T, p, &sp, ps, p > ps, k.guessRho(root))
+				pr, ok := k.densityOn(T, p, &sp, ps, p > ps, k.guessRho(root, T, p))
 				if ok && pr.P <= f.Limits().PCeil {
 					setSingle(&st, &pr, fluidPhase(f, T, p, pr.Rho))
 					err = k.wantedTo(&st)
@@ -370,7 +381,7 @@ func ptWith(f *fluid.Fluid, p, T float64, opt Options) (st State, err error) {
 			}
 		}
 	}
-	pr, perr := f.PropsTP(T, p, root, k.guessRho(root))
+	pr, perr := f.PropsTP(T, p, root, k.guessRho(root, T, p))
 	if perr != nil {
 		if pl == placeNear && !meta {
 			// No fluid root beside the curve: the solid.
@@ -984,6 +995,23 @@ func predictT(g *State, rho float64, X quantity, x float64) float64 {
 		return g.T
 	}
 	return g.T + dT
+}
+
+// predictRho returns the start in ρ of a warm-started flash along the
+// isotherm T with X = x (TS: X = s): the guess g carried there by its
+// own derivatives (guessProps), to first order in T and ρ; 0 where the
+// step would move ρ by more than 10 % or the guess lacks what it needs.
+func predictRho(g *State, T float64, X quantity, x float64) float64 {
+	pr, ok := guessProps(g)
+	if !ok {
+		return 0
+	}
+	dXdT, dXdRho := X.partials(&pr)
+	dRho := (x - X.of(&pr) - dXdT*(T-pr.T)) / dXdRho
+	if !isFinite(dRho) || math.Abs(dRho) > 0.1*g.Rho {
+		return 0
+	}
+	return g.Rho + dRho
 }
 
 // isobarSingle solves a single-phase state at p with X = x on side sd,

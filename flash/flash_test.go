@@ -333,6 +333,48 @@ func TestDUWarmStart(t *testing.T) {
 	}
 }
 
+// TestWarmStartsAgree checks every flash warm-started from each state of
+// the benchmark grids, its inputs moved by a simulator's step (0.1 % in
+// the first, 0.1 % of the second's scale, 1e-3 in a quality), against
+// the same flash cold: the same phase, T, ρ and quality within 1e-9.
+func TestWarmStartsAgree(t *testing.T) {
+	for _, f := range fluids(t) {
+		for _, fl := range benchFlashes {
+			if fl.warm {
+				continue
+			}
+			for _, rg := range benchRegions {
+				if !applies(fl.name, rg.name) {
+					continue
+				}
+				sts := rg.states(f)
+				for i := range sts {
+					g := sts[i]
+					a, b := fl.in(&g)
+					switch fl.name {
+					case "TQ", "PQ":
+						b += 1e-3
+					case "DT", "PD":
+						b *= 1.001
+					default:
+						b += 1e-3 * math.Max(math.Abs(b), 1000)
+					}
+					a *= 1.001
+					cold, err1 := fl.fn(f, a, b, Options{})
+					warm, err2 := fl.fn(f, a, b, Options{Guess: &g})
+					if (err1 == nil) != (err2 == nil) || err1 == nil && (cold.Phase != warm.Phase ||
+						math.Abs(cold.T-warm.T) > 1e-9*cold.T || math.Abs(cold.Rho-warm.Rho) > 1e-9*cold.Rho ||
+						math.Abs(cold.Quality-warm.Quality) > 1e-9) {
+						t.Errorf("%s %s(%v, %v) from %v at %v K: warm %v %v K %v kg/m3 q %v, cold %v %v K %v kg/m3 q %v (%v, %v)",
+							f.Name(), fl.name, a, b, g.Phase, g.T, warm.Phase, warm.T, warm.Rho, warm.Quality,
+							cold.Phase, cold.T, cold.Rho, cold.Quality, err2, err1)
+					}
+				}
+			}
+		}
+	}
+}
+
 // TestRobustness is a sweep of pseudo-random states from several
 // goroutines. Valid states (made by DT from random (T, ρ) in the fluid
 // region) must come back from a random other flash, reproducing its
