@@ -962,14 +962,20 @@ func guessProps(g *State) (pr fluid.Props, ok bool) {
 // would move T by more than 5 % or ρ by more than 10 %, or the guess
 // lacks what it needs, the guess itself.
 func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
+	return predict2(g, qP, p, X, x)
+}
+
+// predict2 is predict for any two quantities: the guess g carried to
+// A = a and X = x.
+func predict2(g *State, A quantity, a float64, X quantity, x float64) (T, rho float64) {
 	T, rho = g.T, g.Rho
 	pr, ok := guessProps(g)
 	if !ok {
 		return T, rho
 	}
-	a1, a2 := qP.partials(&pr)
+	a1, a2 := A.partials(&pr)
 	b1, b2 := X.partials(&pr)
-	ra, rb := g.P-p, X.of(&pr)-x
+	ra, rb := A.of(&pr)-a, X.of(&pr)-x
 	idet := 1 / (a1*b2 - a2*b1)
 	dT := (-ra*b2 + rb*a2) * idet
 	dRho := (-rb*a1 + ra*b1) * idet
@@ -977,6 +983,17 @@ func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
 		return T, rho
 	}
 	return T + dT, rho + dRho
+}
+
+// predictP returns the pressure of the guess g carried to (T, ρ) by its
+// own derivatives (guessProps), to first order; NaN where the guess
+// lacks what it needs.
+func predictP(g *State, T, rho float64) float64 {
+	pr, ok := guessProps(g)
+	if !ok {
+		return math.NaN()
+	}
+	return g.P + pr.DpDT*(T-g.T) + pr.DpDrho*(rho-g.Rho)
 }
 
 // predictT returns the start in T of a warm-started flash along the

@@ -225,6 +225,43 @@ func (k *call) hsDirect(h, s float64) (st State, err error, done bool, beyond er
 	var anchor *fluid.Props
 	var satAnchor fluid.Props
 	lv := placeLV(sn, hd, sd)
+	// A single fluid phase from a warm start where there is one, carried
+	// to (h, s) by its own derivatives (predict2), before the placements
+	// below solve any saturation: (h, s) fixes at most one stable single
+	// phase (h rises with p at constant s), and hsFluidCheck checks it
+	// against the other fluid phase and the solid. Next to the critical
+	// point (from the node placeTop, about 0.995 Tc, to 1.001 Tc), where
+	// the mixture and the single phase differ by rounding, the
+	// placements decide first, as for a cold start, and the warm state
+	// is checked after them.
+	var warm fluid.Props
+	haveWarm := false
+	if g := k.opt.Guess; k.fluidGuess() && g.T > 0 && g.Rho > 0 {
+		T0, rho0 := predict2(g, qH, h, qS, s)
+		sdg := liquidSide
+		if g.Rho < c.Rho {
+			sdg = vaporSide
+		}
+		if g.T >= c.T || g.P >= c.P {
+			sdg = anySide
+		}
+		// A start carried beyond the vapour pressure (a step into the
+		// dome) goes to the placements at once.
+		across := false
+		if ps, errP, okp := sn.vapourPressure(T0); okp && sdg != anySide && T0 < c.T {
+			p0 := predictP(g, T0, rho0)
+			across = sdg == liquidSide && p0 < ps-errP || sdg == vaporSide && p0 > ps+errP
+		}
+		if !across {
+			warm, haveWarm = hsNewton(f, h, s, T0, rho0, sdg, nil)
+		}
+		if haveWarm && (warm.T < sn.T[sn.placeTop] || warm.T > 1.001*c.T) {
+			if st, err, done := k.hsFluidCheck(sn, &warm); done {
+				return st, err, true, nil
+			}
+			haveWarm = false
+		}
+	}
 	// Next to the critical point (the last node) the saturated entropies
 	// are not linear between the nodes: there the mixture is solved
 	// whatever the interpolated x says.
@@ -299,12 +336,9 @@ func (k *call) hsDirect(h, s float64) (st State, err error, done bool, beyond er
 		}
 	}
 
-	// A single fluid phase: from a warm start where there is one.
-	if g := k.opt.Guess; k.fluidGuess() && g.T > 0 && g.Rho > 0 {
-		if pr, ok := hsNewton(f, h, s, g.T, g.Rho, side, nil); ok {
-			if st, err, done := k.hsFluidCheck(sn, &pr); done {
-				return st, err, true, beyond
-			}
+	if haveWarm {
+		if st, err, done := k.hsFluidCheck(sn, &warm); done {
+			return st, err, true, beyond
 		}
 	}
 	var second *fluid.Props

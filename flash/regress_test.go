@@ -73,6 +73,30 @@ func TestPDWarmStartNearCritical(t *testing.T) {
 	}
 }
 
+// TestHSWarmStartNearCritical: HS warm-started from a single phase within
+// microkelvins of CO2's critical point, at (h, s) of a mixture there
+// (q 0.99), gave a vapour whose h and s match the mixture's to rounding
+// when the warm start was tried before the placements by the nodes (the
+// sweep's warm inverses found it): next to the critical point the
+// placements decide first.
+func TestHSWarmStartNearCritical(t *testing.T) {
+	t.Parallel()
+	f := mustFluid(t, "CO2")
+	g, err := DT(f, 464.80750756296044, 304.12818814028986)
+	if err != nil {
+		t.Fatal(err)
+	}
+	h, s := -173958.36441557808, -1303.4862165770776
+	cold, err := HS(f, h, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	warm, err := HSWith(f, h, s, Options{Guess: &g})
+	if err != nil || warm.Phase != cold.Phase || math.Abs(warm.T-cold.T) > 1e-9*cold.T {
+		t.Errorf("warm %v at %v K (%v), cold %v at %v K", warm.Phase, warm.T, err, cold.Phase, cold.T)
+	}
+}
+
 // TestDUNearCritical: 1 µK below Tc on a near-critical isochore of CO2
 // (inputs found by the vent example at 23.4 kg in 50 L and 31 °C), where
 // the equation fixes the saturated densities only loosely, DU returns the
