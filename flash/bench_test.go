@@ -23,6 +23,10 @@ import (
 // worst state per region, in ratios to Props measured in the same run:
 //
 //	go test -run TestSpeedReport ./flash -args -flash.report
+//
+// and warm-started calls against cold ones (TestWarmReport):
+//
+//	go test -run TestWarmReport ./flash -args -flash.warmreport
 
 var report = flag.Bool("flash.report", false, "print the per-region speed report (TestSpeedReport)")
 
@@ -236,6 +240,78 @@ func BenchmarkFlash(b *testing.B) {
 					}
 					reportEvals(b, n0)
 				})
+			}
+		}
+	}
+}
+
+// warmStep returns the inputs of flash fl at state g moved by a
+// simulator's step: 0.1 % in the first; in the second 0.1 % (ρ, T), 1e-3
+// (a quality) or 0.1 % of max(|x|, 1000) (h, s, u).
+func warmStep(fl benchFlash, g *State) (a, b float64) {
+	a, b = fl.in(g)
+	switch fl.name {
+	case "TQ", "PQ":
+		b += 1e-3
+	case "DT", "PD":
+		b *= 1.001
+	default:
+		b += 1e-3 * math.Max(math.Abs(b), 1000)
+	}
+	return a * 1.001, b
+}
+
+var warmReport = flag.Bool("flash.warmreport", false, "print the warm-start report (TestWarmReport)")
+
+// TestWarmReport prints, with -args -flash.warmreport, for every flash
+// and region the median time of a call warm-started from each state of
+// the grid with its inputs moved by warmStep, against the same call
+// cold, and their ratio (each call the best of 5 rounds of 40). It is a
+// measurement, not a check.
+func TestWarmReport(t *testing.T) {
+	if !*warmReport {
+		t.Skip("run with -args -flash.warmreport")
+	}
+	timeOf := func(fn func()) float64 {
+		best := math.Inf(1)
+		for r := 0; r < 5; r++ {
+			t0 := time.Now()
+			for i := 0; i < 40; i++ {
+				fn()
+			}
+			best = min(best, float64(time.Since(t0).Nanoseconds())/40)
+		}
+		return best
+	}
+	median := func(xs []float64) float64 {
+		slices.Sort(xs)
+		return xs[len(xs)/2]
+	}
+	for _, f := range fluids(t) {
+		for _, fl := range benchFlashes {
+			if fl.warm {
+				continue
+			}
+			for _, rg := range benchRegions {
+				if !applies(fl.name, rg.name) {
+					continue
+				}
+				sts := rg.states(f)
+				var cold, warm []float64
+				for i := range sts {
+					g := sts[i]
+					a, b := warmStep(fl, &g)
+					if _, err := fl.fn(f, a, b, Options{}); err != nil {
+						continue
+					}
+					cold = append(cold, timeOf(func() { fl.fn(f, a, b, Options{}) }))
+					warm = append(warm, timeOf(func() { fl.fn(f, a, b, Options{Guess: &g}) }))
+				}
+				if len(cold) == 0 {
+					continue
+				}
+				mc, mw := median(cold), median(warm)
+				fmt.Printf("%-6s %-3s %-15s cold %6.0f ns, warm %6.0f ns = %.2f\n", f.Name(), fl.name, rg.name, mc, mw, mw/mc)
 			}
 		}
 	}

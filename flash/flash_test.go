@@ -350,16 +350,7 @@ func TestWarmStartsAgree(t *testing.T) {
 				sts := rg.states(f)
 				for i := range sts {
 					g := sts[i]
-					a, b := fl.in(&g)
-					switch fl.name {
-					case "TQ", "PQ":
-						b += 1e-3
-					case "DT", "PD":
-						b *= 1.001
-					default:
-						b += 1e-3 * math.Max(math.Abs(b), 1000)
-					}
-					a *= 1.001
+					a, b := warmStep(fl, &g)
 					cold, err1 := fl.fn(f, a, b, Options{})
 					warm, err2 := fl.fn(f, a, b, Options{Guess: &g})
 					if (err1 == nil) != (err2 == nil) || err1 == nil && (cold.Phase != warm.Phase ||
