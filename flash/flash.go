@@ -108,7 +108,8 @@ func (k *call) guessRho(root fluid.Root, T, p float64) float64 {
 	if k.fluidGuess() && (root == fluid.RootStable || (root == fluid.RootLiquid) == (g.Rho > k.f.Critical().Rho)) {
 		// A single phase, carried to (T, p) by its own derivatives
 		// (guessProps): ρ + (Δp − (∂p/∂T)_ρ ΔT)/(∂p/∂ρ)_T.
-		if pr, ok := guessProps(g); ok {
+		var pr fluid.Props
+		if guessProps(g, &pr) {
 			if rho := g.Rho + (p-g.P-pr.DpDT*(T-g.T))/pr.DpDrho; rho > 0.9*g.Rho && rho < 1.1*g.Rho {
 				return rho
 			}
@@ -932,20 +933,21 @@ func (k *call) isobaricWarmSat(p float64, X quantity, x, gT, rl, rv float64, st 
 	return err == nil && k.isobaricSat(p, X, x, &s, st) == nil
 }
 
-// guessProps returns the single-phase guess g as the Props that the
+// guessProps sets pr to the single-phase guess g as the Props that the
 // warm starts carry to the inputs by its own derivatives, which its
 // state holds implicitly (common thermodynamic identities):
 //
 //	(∂p/∂ρ)_T = w² cv/cp,  (∂p/∂T)_ρ = ρ √((cp − cv)(∂p/∂ρ)_T/T)
 //
 // (the root taken positive: a liquid below its density maximum, where
-// it is negative, is started less well), with T, ρ, p, h, s, u and cv;
-// ok is false where g lacks what they need (a mixture: cp = +Inf).
-func guessProps(g *State) (pr fluid.Props, ok bool) {
+// it is negative, is started less well), with T, ρ, p, h, s, u and cv
+// (the other fields are left as they are); ok is false where g lacks
+// what they need (a mixture: cp = +Inf).
+func guessProps(g *State, pr *fluid.Props) (ok bool) {
 	T, rho := g.T, g.Rho
 	cp, cv, w := g.Cp, g.Cv, g.W
 	if !(cp > cv && cv > 0 && w > 0 && isFinite(cp)) {
-		return pr, false
+		return false
 	}
 	// (The reciprocals are independent of one another: no division
 	// waits for another.)
@@ -953,7 +955,7 @@ func guessProps(g *State) (pr fluid.Props, ok bool) {
 	pr.T, pr.Rho, pr.P, pr.H, pr.S, pr.U, pr.Cv = T, rho, g.P, g.H, g.S, g.U, cv
 	pr.DpDrho = w * w * cv * icp
 	pr.DpDT = rho * math.Sqrt((cp-cv)*pr.DpDrho*iT)
-	return pr, true
+	return true
 }
 
 // predict returns the start of a warm-started PH (X = h) or PS (X = s)
@@ -969,8 +971,8 @@ func predict(g *State, p float64, X quantity, x float64) (T, rho float64) {
 // A = a and X = x.
 func predict2(g *State, A quantity, a float64, X quantity, x float64) (T, rho float64) {
 	T, rho = g.T, g.Rho
-	pr, ok := guessProps(g)
-	if !ok {
+	var pr fluid.Props
+	if !guessProps(g, &pr) {
 		return T, rho
 	}
 	a1, a2 := A.partials(&pr)
@@ -989,8 +991,8 @@ func predict2(g *State, A quantity, a float64, X quantity, x float64) (T, rho fl
 // own derivatives (guessProps), to first order; NaN where the guess
 // lacks what it needs.
 func predictP(g *State, T, rho float64) float64 {
-	pr, ok := guessProps(g)
-	if !ok {
+	var pr fluid.Props
+	if !guessProps(g, &pr) {
 		return math.NaN()
 	}
 	return g.P + pr.DpDT*(T-g.T) + pr.DpDrho*(rho-g.Rho)
@@ -1002,8 +1004,8 @@ func predictP(g *State, T, rho float64) float64 {
 // where the step would move T by more than 5 % or the guess lacks what
 // it needs (a mixture: its T).
 func predictT(g *State, rho float64, X quantity, x float64) float64 {
-	pr, ok := guessProps(g)
-	if !ok {
+	var pr fluid.Props
+	if !guessProps(g, &pr) {
 		return g.T
 	}
 	dXdT, dXdRho := X.partials(&pr)
@@ -1019,8 +1021,8 @@ func predictT(g *State, rho float64, X quantity, x float64) float64 {
 // own derivatives (guessProps), to first order in T and ρ; 0 where the
 // step would move ρ by more than 10 % or the guess lacks what it needs.
 func predictRho(g *State, T float64, X quantity, x float64) float64 {
-	pr, ok := guessProps(g)
-	if !ok {
+	var pr fluid.Props
+	if !guessProps(g, &pr) {
 		return 0
 	}
 	dXdT, dXdRho := X.partials(&pr)
