@@ -87,12 +87,13 @@ type State struct {
 // Guess, if not nil, is a previous state of the same fluid near the
 // wanted one: the iterations start from it (a warm start), carried to
 // the inputs by its own derivatives. For a simulator's step (0.1 % in
-// the inputs) a warm call costs, on the benchmark grids, 0.4–0.8 of a
-// cold one for single-phase PH, PS, HS and TS, 0.6–0.8 for DU (two-phase
-// too) and for PD away from saturation; where the cold path is already
-// one saturation or one density started from the cached saturation
-// curve (two-phase PH, PS, HS and PD; PT: 0.8–1.0; TQ, PQ and DT) it
-// gains little or nothing. A Guess from another region is harmless:
+// the inputs) a warm call costs, on the benchmark grids, 0.4–0.85 of a
+// cold one for single-phase PH, PS, HS and TS, 0.6–0.9 for DU and PD
+// away from saturation and 0.6–0.8 for DU in the dome; where the cold
+// path is already one saturation or one density started from the
+// cached saturation curve (two-phase PH, PS, HS and PD; DU and PD next
+// to saturation; PT: 0.8–1.0; TQ, PQ and DT) it gains little or
+// nothing (TestWarmReport). A Guess from another region is harmless:
 // where the warm iteration fails, the cold one runs, so a warm start can
 // cost more but never fails where a cold one succeeds.
 //
